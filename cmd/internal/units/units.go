@@ -35,6 +35,7 @@ const (
 	Area
 	Power
 	Duration
+	Percent
 )
 
 // Exact conversion factors to SI. Sources in the package comment.
@@ -105,12 +106,15 @@ var table = map[Dimension][]struct {
 	Duration: {
 		{[]string{"s"}, unitDef{"s", scale(1)}},
 	},
+	Percent: {
+		{[]string{"%"}, unitDef{"%", scale(1)}},
+	},
 }
 
 var dimNames = map[Dimension]string{
 	Length: "length", Mass: "mass", Temperature: "temperature", Pressure: "pressure",
 	Speed: "speed", Slope: "slope", Angle: "angle", Area: "area", Power: "power",
-	Duration: "duration",
+	Duration: "duration", Percent: "percentage",
 }
 
 // String names the dimension in lower case.

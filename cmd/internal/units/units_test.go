@@ -88,7 +88,7 @@ func FuzzParse(f *testing.F) {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, s string) {
-		for d := Length; d <= Duration; d++ {
+		for d := Length; d <= Percent; d++ {
 			v, err := Parse(s, d)
 			if err == nil && (math.IsNaN(v) || math.IsInf(v, 0)) {
 				t.Fatalf("Parse(%q) = %v without error", s, v)

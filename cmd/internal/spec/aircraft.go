@@ -1,0 +1,407 @@
+package spec
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"gopkg.in/yaml.v3"
+
+	"kneeprint/cmd/internal/units"
+	"kneeprint/perf"
+)
+
+// Plausibility ranges for aircraft data, in SI. Light aircraft only: the methods
+// kneeprint uses are for light piston aircraft (CS-23 / 14 CFR 23 normal category,
+// maximum 5670 kg: 14 CFR 1.1, "small aircraft").
+const (
+	minMassKg     = 100.0
+	maxMassKg     = 5670.0
+	maxSpeedMS    = 200 * units.MetresPerSecPerKnot
+	minDataTempK  = -60 + units.KelvinAtZeroCelsius
+	maxDataTempK  = 60 + units.KelvinAtZeroCelsius
+	minTableAltM  = -2000 * units.MetresPerFoot
+	maxTableAltM  = 20000 * units.MetresPerFoot
+	maxTableCells = 4000 // axes product; a real manual table has under 200
+)
+
+// Defaults applied when a profile does not say. Each is printed by validate.
+const (
+	// Most light-aircraft manuals give tailwind corrections up to 10 kt (from memory).
+	defaultMaxTailwindKt = 10
+	// A common operating temperature range for light piston data (from memory).
+	defaultMinTempC = -30
+	defaultMaxTempC = 45
+	// Lift-off at 1.1 V_stall (Raymer, Aircraft Design, ch. 17; Anderson sec. 6.7).
+	defaultLiftoffFactor = 1.1
+	// About one second of rotation for small aircraft (from memory; domain notes).
+	defaultRotationS = 1.0
+	// Static thrust as a fraction of momentum-theory ideal: real propellers reach
+	// 0.6 to 0.85 of it (from memory).
+	defaultStaticFixed    = 0.70
+	defaultStaticConstant = 0.80
+	// Propeller efficiency near lift-off speed (from memory).
+	defaultEtaFixed    = 0.65
+	defaultEtaConstant = 0.72
+)
+
+func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
+	root := m.n
+	m.oneOf("kind", true, string(KindAircraft))
+	a := &perf.Aircraft{}
+	a.Name = m.str("name", true)
+	a.Type = m.str("type", true)
+	a.Notes = m.str("notes", false)
+	mtow, mtowOK := m.quantity("mtow", units.Mass, true, minMassKg, maxMassKg)
+	a.MTOWKg = mtow
+
+	if ws, nodes, ok := m.quantities("weights", units.Mass, false, minMassKg, maxMassKg); ws != nil {
+		seen := map[float64]int{}
+		for i, w := range ws {
+			if !ok && w == 0 {
+				continue
+			}
+			if mtowOK && w > mtow+1e-9 {
+				d.errorf(nodes[i], fmt.Sprintf("weights[%d]", i), "%s is above the MTOW %s", nodes[i].Value, m.vals["mtow"].Value)
+			}
+			if j, dup := seen[math.Round(w*1000)]; dup {
+				d.errorf(nodes[i], fmt.Sprintf("weights[%d]", i), "%s repeats weights[%d]", nodes[i].Value, j)
+			}
+			seen[math.Round(w*1000)] = i
+		}
+		a.WeightsKg = append([]float64(nil), ws...)
+		sort.Sort(sort.Reverse(sort.Float64Slice(a.WeightsKg)))
+	} else if !m.has("weights") && mtowOK {
+		a.WeightsKg = []float64{mtow}
+		d.notef("weights not given: cards show the MTOW only")
+	}
+
+	sp := d.mapping(m.get("speeds", false), "speeds")
+	a.RotateIASMS, _ = sp.quantity("rotation", units.Speed, false, 10*units.MetresPerSecPerKnot, maxSpeedMS)
+	a.At50ftIASMS, _ = sp.quantity("at_50ft", units.Speed, false, 10*units.MetresPerSecPerKnot, maxSpeedMS)
+	sp.finish()
+
+	lim := d.mapping(m.get("limits", true), "limits")
+	a.MaxCrosswindMS, _ = lim.quantity("max_crosswind", units.Speed, true, 0, 60*units.MetresPerSecPerKnot)
+	if v, ok := lim.quantity("max_tailwind", units.Speed, false, 0, 30*units.MetresPerSecPerKnot); ok {
+		a.MaxTailwindMS = v
+	} else if !lim.has("max_tailwind") {
+		a.MaxTailwindMS = defaultMaxTailwindKt * units.MetresPerSecPerKnot
+		d.notef("limits.max_tailwind not given: %d kt assumed", defaultMaxTailwindKt)
+	}
+	minT, haveMinT := lim.quantity("min_temperature", units.Temperature, false, minDataTempK, maxDataTempK)
+	maxT, haveMaxT := lim.quantity("max_temperature", units.Temperature, false, minDataTempK, maxDataTempK)
+	lim.finish()
+
+	a.TakeoffFlap = m.str("takeoff_flap", true)
+	flaps := map[string]float64{}
+	for i, fn := range m.list("flaps", false) {
+		fm := d.mapping(fn, fmt.Sprintf("flaps[%d]", i))
+		name := fm.str("name", true)
+		cl, ok := fm.number("clmax", true, 0.8, 3.5)
+		fm.finish()
+		if _, dup := flaps[name]; dup && name != "" {
+			d.errorf(fn, fmt.Sprintf("flaps[%d].name", i), "flap setting %q listed twice", name)
+		}
+		if ok {
+			flaps[name] = cl
+		}
+	}
+
+	tableNode, physNode := m.get("table", false), m.get("physics", false)
+	if tableNode != nil {
+		a.Table = d.table(tableNode, mtow)
+	}
+	if physNode != nil {
+		a.Physics = d.physics(physNode)
+	}
+	model := m.oneOf("model", tableNode != nil && physNode != nil, string(perf.ModelTable), string(perf.ModelPhysics))
+	switch {
+	case tableNode == nil && physNode == nil:
+		d.errorf(root, "table", "a profile needs a performance model: a table section, a physics section, or both")
+	case model != "":
+		a.Model = perf.ModelKind(model)
+		if (a.Model == perf.ModelTable && tableNode == nil) || (a.Model == perf.ModelPhysics && physNode == nil) {
+			d.errorf(m.vals["model"], "model", "model %s chosen but the profile has no %s section", model, model)
+		}
+	case tableNode != nil:
+		a.Model = perf.ModelTable
+	default:
+		a.Model = perf.ModelPhysics
+	}
+	if a.Physics != nil && a.TakeoffFlap != "" {
+		cl, ok := flaps[a.TakeoffFlap]
+		if !ok {
+			d.errorf(m.vals["takeoff_flap"], "takeoff_flap", "%q is not in the flaps list, which the physics model needs for CLmax", a.TakeoffFlap)
+		}
+		a.Physics.CLMax = cl
+	}
+
+	// Temperature range of the data.
+	switch {
+	case a.Table != nil && len(a.Table.TempK) > 0:
+		lo, hi := a.Table.TempK[0], a.Table.TempK[len(a.Table.TempK)-1]
+		a.MinTempK, a.MaxTempK = lo, hi
+		if !haveMinT || !haveMaxT {
+			d.notef("limits: temperature range of the data taken from the table: %.0f to %.0f C (colder than the table uses the coldest column, which is conservative)", units.Celsius(lo), units.Celsius(hi))
+		}
+		if haveMinT {
+			a.MinTempK = minT
+		}
+		if haveMaxT {
+			if maxT > hi+1e-9 {
+				d.errorf(lim.vals["max_temperature"], "limits.max_temperature", "above the table's hottest column %.0f C: kneeprint never extrapolates", units.Celsius(hi))
+			}
+			a.MaxTempK = maxT
+		}
+	default:
+		a.MinTempK = defaultMinTempC + units.KelvinAtZeroCelsius
+		a.MaxTempK = defaultMaxTempC + units.KelvinAtZeroCelsius
+		if haveMinT {
+			a.MinTempK = minT
+		}
+		if haveMaxT {
+			a.MaxTempK = maxT
+		}
+		if !haveMinT || !haveMaxT {
+			d.notef("limits: temperature range not fully given: %.0f to %.0f C assumed", units.Celsius(a.MinTempK), units.Celsius(a.MaxTempK))
+		}
+	}
+	if a.MinTempK >= a.MaxTempK && haveMinT && haveMaxT {
+		d.errorf(lim.vals["max_temperature"], "limits.max_temperature", "must be above min_temperature")
+	}
+	m.finish()
+	return a
+}
+
+func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
+	m := d.mapping(n, "table")
+	t := &perf.Table{}
+	if v, ok := m.boolean("wind_factoring_included", true); ok {
+		t.WindInData = v
+	}
+	unit := m.oneOf("distance_unit", true, "m", "ft")
+	factor := 1.0
+	if unit == "ft" {
+		factor = units.MetresPerFoot
+	}
+	var ok1, ok2, ok3 bool
+	var nodes []*yaml.Node
+	t.PressureAltM, nodes, ok1 = m.quantities("pressure_altitudes", units.Length, true, minTableAltM, maxTableAltM)
+	ok1 = ok1 && d.increasing("table.pressure_altitudes", t.PressureAltM, nodes)
+	t.TempK, nodes, ok2 = m.quantities("temperatures", units.Temperature, true, minDataTempK, maxDataTempK)
+	ok2 = ok2 && d.increasing("table.temperatures", t.TempK, nodes)
+	blocks := m.list("weights", true)
+	axesOK := ok1 && ok2
+	if axesOK && len(t.PressureAltM)*len(t.TempK)*len(blocks) > maxTableCells {
+		d.errorf(n, "table", "the table has more than %d cells", maxTableCells)
+		axesOK = false
+	}
+	type block struct {
+		w              float64
+		gr, to         [][]float64
+		grNode, toNode [][]*yaml.Node
+		node           *yaml.Node
+	}
+	var bs []block
+	ok3 = true
+	for i, bn := range blocks {
+		path := fmt.Sprintf("table.weights[%d]", i)
+		bm := d.mapping(bn, path)
+		w, wOK := bm.quantity("weight", units.Mass, true, minMassKg, maxMassKg)
+		var gr, to [][]float64
+		var grN, toN [][]*yaml.Node
+		if axesOK {
+			gr, grN = d.grid(bm, "ground_roll", len(t.PressureAltM), len(t.TempK), factor)
+			to, toN = d.grid(bm, "to_50ft", len(t.PressureAltM), len(t.TempK), factor)
+		} else {
+			bm.get("ground_roll", false)
+			bm.get("to_50ft", false)
+		}
+		bm.finish()
+		if !wOK || gr == nil || to == nil {
+			ok3 = false
+			continue
+		}
+		bs = append(bs, block{w, gr, to, grN, toN, bn})
+	}
+	if ok3 && len(bs) > 0 {
+		sort.SliceStable(bs, func(i, j int) bool { return bs[i].w < bs[j].w })
+		var nodes [2][][][]*yaml.Node
+		for i := range bs {
+			nodes[0] = append(nodes[0], bs[i].grNode)
+			nodes[1] = append(nodes[1], bs[i].toNode)
+			if i > 0 && !(bs[i].w > bs[i-1].w) {
+				d.errorf(bs[i].node, "table.weights", "weight %.1f kg appears twice", bs[i].w)
+				ok3 = false
+			}
+			t.WeightKg = append(t.WeightKg, bs[i].w)
+			t.GroundRollM = append(t.GroundRollM, bs[i].gr)
+			t.To50ftM = append(t.To50ftM, bs[i].to)
+		}
+		if ok3 {
+			d.monotone(t, nodes)
+		}
+		if mtow > 0 && len(t.WeightKg) > 0 && t.WeightKg[len(t.WeightKg)-1] < mtow-1e-9 {
+			d.notef("table: heaviest block %.0f kg is below the MTOW %.0f kg: heavier cells have no data", t.WeightKg[len(t.WeightKg)-1], mtow)
+		}
+	}
+	d.corrections(m.get("corrections", false), t)
+	m.finish()
+	return t
+}
+
+// grid reads rows (one per pressure altitude) of columns (one per temperature) of
+// plain numbers in the table's distance unit.
+func (d *decoder) grid(m *mapping, key string, rows, cols int, factor float64) ([][]float64, [][]*yaml.Node) {
+	items := m.list(key, true)
+	if items == nil {
+		return nil, nil
+	}
+	path := m.field(key)
+	if len(items) != rows {
+		d.errorf(m.vals[key], path, "has %d rows, the table has %d pressure altitudes: one row per pressure altitude", len(items), rows)
+		return nil, nil
+	}
+	out := make([][]float64, rows)
+	nodes := make([][]*yaml.Node, rows)
+	ok := true
+	for i, rn := range items {
+		rp := fmt.Sprintf("%s[%d]", path, i)
+		if rn.Kind != yaml.SequenceNode {
+			d.errorf(rn, rp, "expected a row such as [250, 270, 290], found %s", describe(rn))
+			ok = false
+			continue
+		}
+		if len(rn.Content) != cols {
+			d.errorf(rn, rp, "row has %d values, the table has %d temperatures (ragged table)", len(rn.Content), cols)
+			ok = false
+			continue
+		}
+		out[i] = make([]float64, cols)
+		nodes[i] = rn.Content
+		for j, cn := range rn.Content {
+			x, good := d.number(cn, fmt.Sprintf("%s[%d]", rp, j), 1, maxDistanceM/factor)
+			ok = ok && good
+			out[i][j] = x * factor
+		}
+	}
+	if !ok {
+		return nil, nil
+	}
+	return out, nodes
+}
+
+// monotone rejects tables whose distances fall with pressure altitude, temperature or
+// weight, or whose distance to 50 ft is below the ground roll: a flight manual never
+// prints that, so it is a typing slip (common practice).
+func (d *decoder) monotone(t *perf.Table, nodes [2][][][]*yaml.Node) {
+	nw, np, nt := len(t.WeightKg), len(t.PressureAltM), len(t.TempK)
+	names := [2]string{"ground_roll", "to_50ft"}
+	for w := 0; w < nw; w++ {
+		for p := 0; p < np; p++ {
+			for k := 0; k < nt; k++ {
+				for gi, g := range [2][][][]float64{t.GroundRollM, t.To50ftM} {
+					v, n := g[w][p][k], nodes[gi][w][p][k]
+					where := fmt.Sprintf("table.weights (%.0f kg).%s[%d][%d]", t.WeightKg[w], names[gi], p, k)
+					if k > 0 && v < g[w][p][k-1] {
+						d.errorf(n, where, "distance falls as temperature rises: check the typing")
+					}
+					if p > 0 && v < g[w][p-1][k] {
+						d.errorf(n, where, "distance falls as pressure altitude rises: check the typing")
+					}
+					if w > 0 && v < g[w-1][p][k] {
+						d.errorf(n, where, "distance falls as weight rises: check the typing")
+					}
+				}
+				if t.To50ftM[w][p][k] < t.GroundRollM[w][p][k] {
+					d.errorf(nodes[1][w][p][k], fmt.Sprintf("table.weights (%.0f kg).to_50ft[%d][%d]", t.WeightKg[w], p, k), "distance to 50 ft is shorter than the ground roll")
+				}
+			}
+		}
+	}
+}
+
+func (d *decoder) corrections(n *yaml.Node, t *perf.Table) {
+	m := d.mapping(n, "table.corrections")
+	if n == nil {
+		d.notef("table.corrections not given: no wind or grass notes; tailwind cells have no data")
+		return
+	}
+	if hn := m.get("headwind", false); hn != nil {
+		hm := d.mapping(hn, "table.corrections.headwind")
+		t.Corrections.HeadwindPct, _ = hm.quantity("decrease", units.Percent, true, 0, 50)
+		t.Corrections.HeadwindPerMS, _ = hm.quantity("per", units.Speed, true, 0.5*units.MetresPerSecPerKnot, 50*units.MetresPerSecPerKnot)
+		hm.finish()
+	} else {
+		d.notef("table.corrections.headwind not given: no credit for headwind")
+	}
+	if tn := m.get("tailwind", false); tn != nil {
+		tm := d.mapping(tn, "table.corrections.tailwind")
+		t.Corrections.TailwindPct, _ = tm.quantity("increase", units.Percent, true, 0, 100)
+		t.Corrections.TailwindPerMS, _ = tm.quantity("per", units.Speed, true, 0.5*units.MetresPerSecPerKnot, 50*units.MetresPerSecPerKnot)
+		t.Corrections.TailwindMaxMS, _ = tm.quantity("up_to", units.Speed, true, 0, 30*units.MetresPerSecPerKnot)
+		tm.finish()
+	} else {
+		d.notef("table.corrections.tailwind not given: tailwind cells have no data")
+	}
+	if gn := m.get("grass", false); gn != nil {
+		gm := d.mapping(gn, "table.corrections.grass")
+		t.Corrections.GrassPctOfGroundRoll, _ = gm.quantity("add_of_ground_roll", units.Percent, true, 0, 200)
+		gm.finish()
+	}
+	if gn := m.get("wet_grass", false); gn != nil {
+		gm := d.mapping(gn, "table.corrections.wet_grass")
+		t.Corrections.WetGrassPctOfGroundRoll, _ = gm.quantity("add_of_ground_roll", units.Percent, true, 0, 300)
+		gm.finish()
+	}
+	m.finish()
+}
+
+func (d *decoder) physics(n *yaml.Node) *perf.Physics {
+	m := d.mapping(n, "physics")
+	p := &perf.Physics{}
+	p.WingAreaM2, _ = m.quantity("wing_area", units.Area, true, 5, 60)
+	p.SpanM, _ = m.quantity("span", units.Length, true, 4, 25)
+	p.WingHeightM, _ = m.quantity("wing_height", units.Length, true, 0.3, 4)
+	p.CD0, _ = m.number("cd0", true, 0.01, 0.15)
+	p.Oswald, _ = m.number("oswald", true, 0.4, 1.0)
+	p.CLGround, _ = m.number("cl_ground_run", true, 0, 1.5)
+	p.PowerW, _ = m.quantity("power", units.Power, true, 20e3, 600e3)
+	pm := d.mapping(m.get("propeller", true), "physics.propeller")
+	p.Propeller = perf.PropellerType(pm.oneOf("type", true, string(perf.FixedPitch), string(perf.ConstantSpeed)))
+	p.PropDiameterM, _ = pm.quantity("diameter", units.Length, true, 1, 3.5)
+	if v, ok := pm.number("efficiency", false, 0.3, 0.92); ok {
+		p.PropEfficiency = v
+	} else if !pm.has("efficiency") {
+		p.PropEfficiency = defaultEtaFixed
+		if p.Propeller == perf.ConstantSpeed {
+			p.PropEfficiency = defaultEtaConstant
+		}
+		d.notef("physics.propeller.efficiency not given: %.2f assumed for a %s propeller (from memory)", p.PropEfficiency, p.Propeller)
+	}
+	if v, ok := pm.number("static_thrust_fraction", false, 0.4, 0.95); ok {
+		p.StaticThrustFac = v
+	} else if !pm.has("static_thrust_fraction") {
+		p.StaticThrustFac = defaultStaticFixed
+		if p.Propeller == perf.ConstantSpeed {
+			p.StaticThrustFac = defaultStaticConstant
+		}
+		d.notef("physics.propeller.static_thrust_fraction not given: %.2f of the momentum-theory ideal assumed (from memory)", p.StaticThrustFac)
+	}
+	pm.finish()
+	if v, ok := m.number("liftoff_factor", false, 1.05, 1.3); ok {
+		p.LiftoffFactor = v
+	} else if !m.has("liftoff_factor") {
+		p.LiftoffFactor = defaultLiftoffFactor
+		d.notef("physics.liftoff_factor not given: lift-off at %.1f x stall speed (Raymer)", defaultLiftoffFactor)
+	}
+	if v, ok := m.quantity("rotation_time", units.Duration, false, 0, 5); ok {
+		p.RotationS = v
+	} else if !m.has("rotation_time") {
+		p.RotationS = defaultRotationS
+		d.notef("physics.rotation_time not given: %.0f s assumed", defaultRotationS)
+	}
+	m.finish()
+	return p
+}

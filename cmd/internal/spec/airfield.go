@@ -1,0 +1,240 @@
+package spec
+
+import (
+	"fmt"
+	"math"
+	"regexp"
+	"strconv"
+	"strings"
+
+	"gopkg.in/yaml.v3"
+
+	"kneeprint/cmd/internal/units"
+	"kneeprint/perf"
+)
+
+var (
+	identPattern      = regexp.MustCompile(`^[A-Za-z0-9][A-Za-z0-9-]{1,9}$`)
+	designatorPattern = regexp.MustCompile(`^(0?[1-9]|[12][0-9]|3[0-6])([LCR]?)$`)
+)
+
+// Plausibility ranges for airfield data, in SI. They catch typing slips (a TORA in
+// feet written as metres), not real airfields.
+const (
+	minElevationM = -500.0 // below the lowest land airfields (common practice)
+	maxElevationM = 5000.0 // above the highest piston-aircraft strips (common practice)
+	maxDistanceM  = 6000.0 // longer than any light-aircraft runway (common practice)
+	maxSlopePct   = 10.0   // steeper than any runway kneeprint should serve (common practice)
+	maxVariation  = 60.0   // larger than inhabited-area magnetic variation (common practice)
+)
+
+func (d *decoder) airfield(m *mapping) *perf.Airfield {
+	m.oneOf("kind", true, string(KindAirfield))
+	a := &perf.Airfield{}
+	a.Name = m.str("name", true)
+	a.Ident = m.str("ident", true)
+	if a.Ident != "" && !identPattern.MatchString(a.Ident) {
+		d.errorf(m.vals["ident"], "ident", "%q: use 2 to 10 letters, digits or '-', starting with a letter or digit (a local name of your own, not an official location indicator)", a.Ident)
+	}
+	elev, _ := m.quantity("elevation", units.Length, true, minElevationM, maxElevationM)
+	a.ElevationM = elev
+	if v := m.get("variation", false); v != nil {
+		a.VariationDeg = d.variation(v, "variation")
+	} else {
+		d.notef("variation not given: 0 deg assumed (needed only for winds given as true)")
+	}
+	seen := map[string]*yaml.Node{}
+	for i, rn := range m.list("runways", true) {
+		r := d.runway(rn, fmt.Sprintf("runways[%d]", i), a.ElevationM, seen)
+		if r != nil {
+			a.Runways = append(a.Runways, *r)
+		}
+	}
+	m.finish()
+	return a
+}
+
+// variation reads "3 deg E", "2 deg W", or a signed "-2 deg" (east positive).
+func (d *decoder) variation(v *yaml.Node, field string) float64 {
+	if v.Kind != yaml.ScalarNode {
+		d.errorf(v, field, "expected an angle such as \"3 deg E\" or \"2 deg W\"")
+		return 0
+	}
+	s := strings.TrimSpace(v.Value)
+	sign := 1.0
+	switch {
+	case strings.HasSuffix(s, "E"):
+		s = strings.TrimSpace(strings.TrimSuffix(s, "E"))
+	case strings.HasSuffix(s, "W"):
+		s, sign = strings.TrimSpace(strings.TrimSuffix(s, "W")), -1
+	}
+	x, err := units.Parse(s, units.Angle)
+	if err != nil {
+		d.errorf(v, field, "%v (write e.g. \"3 deg E\" or \"2 deg W\")", err)
+		return 0
+	}
+	if math.Abs(x) > maxVariation {
+		d.errorf(v, field, "%s is outside -%g to %g deg", v.Value, maxVariation, maxVariation)
+		return 0
+	}
+	return sign * x
+}
+
+func (d *decoder) runway(n *yaml.Node, path string, fieldElev float64, seen map[string]*yaml.Node) *perf.Runway {
+	m := d.mapping(n, path)
+	r := &perf.Runway{}
+	r.Surface = perf.Surface(m.oneOf("surface", true, string(perf.Paved), string(perf.Grass), string(perf.Gravel)))
+	r.Condition = perf.Condition(m.oneOf("condition", false, string(perf.Dry), string(perf.Wet)))
+	if !m.has("condition") {
+		r.Condition = perf.Dry
+		d.notef("%s: condition not given: dry assumed", path)
+	}
+	lengthM, haveLength := m.quantity("length", units.Length, false, 1, maxDistanceM)
+	slope, haveSlope := m.quantity("slope", units.Slope, false, -maxSlopePct, maxSlopePct)
+	endNodes := m.list("ends", true)
+	if len(endNodes) > 2 {
+		d.errorf(m.vals["ends"], m.field("ends"), "a runway has one or two ends, found %d", len(endNodes))
+		endNodes = endNodes[:2]
+	}
+	elevs := make([]float64, len(endNodes))
+	haveElev := make([]bool, len(endNodes))
+	for i, en := range endNodes {
+		e, elev, ok := d.runwayEnd(en, fmt.Sprintf("%s.ends[%d]", path, i), seen)
+		if e == nil {
+			continue
+		}
+		e.Surface, e.Condition = r.Surface, r.Condition
+		e.ElevationM = fieldElev
+		if ok {
+			e.ElevationM, elevs[i], haveElev[i] = elev, elev, true
+		}
+		r.Ends = append(r.Ends, *e)
+	}
+	m.finish()
+	if len(r.Ends) == 0 || len(r.Ends) != len(endNodes) {
+		return r // errors already reported
+	}
+	name := runwayName(r)
+	if len(r.Ends) == 2 {
+		d1, d2 := designatorNumber(r.Ends[0].Designator), designatorNumber(r.Ends[1].Designator)
+		if diff := (d1 - d2 + 36) % 36; diff != 18 {
+			d.warnf(endNodes[1], path+".ends[1].designator", "%s is not the reciprocal of %s", r.Ends[1].Designator, r.Ends[0].Designator)
+		}
+	}
+	switch {
+	case haveSlope && (haveElev[0] || len(haveElev) > 1 && haveElev[1]):
+		d.errorf(m.vals["slope"], m.field("slope"), "give either slope or threshold elevations, not both")
+	case haveSlope:
+		r.Ends[0].SlopePct = slope
+		if len(r.Ends) == 2 {
+			r.Ends[1].SlopePct = -slope
+		}
+		if len(r.Ends) == 2 {
+			d.notef("runway %s: slope %+.2f %% for %s, %+.2f %% for %s (slope is uphill in the direction of the first end)", name, slope, r.Ends[0].Designator, -slope, r.Ends[1].Designator)
+		}
+	case len(r.Ends) == 2 && haveElev[0] && haveElev[1]:
+		if !haveLength {
+			lengthM = math.Max(r.Ends[0].TORAM, r.Ends[1].TORAM)
+			d.notef("runway %s: length not given: the longer TORA, %.0f m, used to derive the slope", name, lengthM)
+		}
+		s := (elevs[1] - elevs[0]) / lengthM * 100
+		if math.Abs(s) > maxSlopePct {
+			d.errorf(endNodes[1], path+".ends[1].threshold_elevation", "the threshold elevations give a slope of %.1f %%, more than %g %%: check them and the length", s, maxSlopePct)
+		}
+		r.Ends[0].SlopePct, r.Ends[1].SlopePct = s, -s
+		d.notef("runway %s: slope from threshold elevations: %+.2f %% for %s, %+.2f %% for %s", name, s, r.Ends[0].Designator, -s, r.Ends[1].Designator)
+	case haveElev[0] || len(haveElev) > 1 && haveElev[1]:
+		d.errorf(n, path, "threshold_elevation given for one end only: give both ends, or a slope")
+	default:
+		d.notef("runway %s: no slope or threshold elevations: level assumed", name)
+	}
+	return r
+}
+
+func runwayName(r *perf.Runway) string {
+	var ds []string
+	for _, e := range r.Ends {
+		ds = append(ds, e.Designator)
+	}
+	return strings.Join(ds, "/")
+}
+
+func designatorNumber(s string) int {
+	m := designatorPattern.FindStringSubmatch(s)
+	if m == nil {
+		return 0
+	}
+	n, _ := strconv.Atoi(m[1])
+	return n
+}
+
+func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Node) (*perf.RunwayEnd, float64, bool) {
+	m := d.mapping(n, path)
+	e := &perf.RunwayEnd{}
+	des := m.str("designator", true)
+	if des != "" {
+		mm := designatorPattern.FindStringSubmatch(des)
+		if mm == nil {
+			d.errorf(m.vals["designator"], m.field("designator"), "%q is not a runway designator: 01 to 36, optionally followed by L, C or R", des)
+		} else {
+			num, _ := strconv.Atoi(mm[1])
+			des = fmt.Sprintf("%02d%s", num, mm[2])
+			if prev, dup := seen[des]; dup {
+				d.errorf(m.vals["designator"], m.field("designator"), "runway end %s is already described at line %d", des, prev.Line)
+			}
+			seen[des] = m.vals["designator"]
+		}
+	}
+	e.Designator = des
+	if h, ok := m.quantity("heading", units.Angle, false, 1, 360); ok {
+		e.HeadingDeg = h
+		if num := designatorNumber(des); num > 0 {
+			if diff := math.Abs(angleDiff(h, float64(num*10))); diff > 10 {
+				d.warnf(m.vals["heading"], m.field("heading"), "heading %g deg is %.0f deg away from designator %s", h, diff, des)
+			}
+		}
+	} else if m.has("heading") {
+		// error already reported
+	} else if num := designatorNumber(des); num > 0 {
+		e.HeadingDeg = float64(num * 10)
+		d.notef("%s (%s): heading not given: %03.0f deg magnetic from the designator", path, des, e.HeadingDeg)
+	}
+	tora, toraOK := m.quantity("tora", units.Length, true, 1, maxDistanceM)
+	e.TORAM = tora
+	if toda, ok := m.quantity("toda", units.Length, false, 1, maxDistanceM); ok {
+		e.TODAM = toda
+		if toraOK && toda < tora {
+			d.errorf(m.vals["toda"], m.field("toda"), "TODA %s is shorter than TORA %s: TODA includes the takeoff run", m.vals["toda"].Value, m.vals["tora"].Value)
+		}
+	} else if !m.has("toda") {
+		e.TODAM = tora
+		d.notef("%s (%s): toda not given: TODA = TORA", path, des)
+	}
+	if asda, ok := m.quantity("asda", units.Length, false, 1, maxDistanceM); ok {
+		e.ASDAM = asda
+		if toraOK && asda < tora {
+			d.warnf(m.vals["asda"], m.field("asda"), "ASDA is shorter than TORA: the policy will use it as declared")
+		}
+	} else if !m.has("asda") {
+		e.ASDAM = tora
+		d.notef("%s (%s): asda not given: ASDA = TORA", path, des)
+	}
+	if lda, ok := m.quantity("lda", units.Length, false, 1, maxDistanceM); ok {
+		e.LDAM = lda
+	}
+	elev, haveElev := m.quantity("threshold_elevation", units.Length, false, minElevationM, maxElevationM)
+	e.Notes = m.str("notes", false)
+	m.finish()
+	return e, elev, haveElev
+}
+
+// angleDiff returns a-b in (-180, 180].
+func angleDiff(a, b float64) float64 {
+	d := math.Mod(a-b, 360)
+	if d <= -180 {
+		d += 360
+	} else if d > 180 {
+		d -= 360
+	}
+	return d
+}

@@ -1,0 +1,386 @@
+package spec
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+
+	"gopkg.in/yaml.v3"
+
+	"kneeprint/cmd/internal/units"
+)
+
+// Limits on what a file may be. They keep hostile input from costing memory or time.
+const (
+	MaxFileBytes = 1 << 20 // a real profile or airfield is a few kilobytes
+	maxDepth     = 24      // deeper nesting than any kneeprint file needs
+)
+
+// decoder walks a yaml.Node tree, keeping line numbers, and collects every error.
+type decoder struct {
+	file  string
+	errs  ErrorList
+	notes []string // defaults applied, for validate's summary
+	warns []string
+}
+
+func (d *decoder) errorf(n *yaml.Node, field, format string, args ...any) {
+	e := &FieldError{File: d.file, Field: field, Msg: fmt.Sprintf(format, args...)}
+	if n != nil {
+		e.Line, e.Column = n.Line, n.Column
+	}
+	d.errs = append(d.errs, e)
+}
+
+func (d *decoder) notef(format string, args ...any) {
+	d.notes = append(d.notes, fmt.Sprintf(format, args...))
+}
+
+func (d *decoder) warnf(n *yaml.Node, field, format string, args ...any) {
+	line := 0
+	if n != nil {
+		line = n.Line
+	}
+	d.warns = append(d.warns, fmt.Sprintf("%s:%d: %s: %s", d.file, line, field, fmt.Sprintf(format, args...)))
+}
+
+// parseRoot parses data and returns the top-level mapping node, rejecting anchors,
+// aliases, merge keys and excessive nesting before anything else looks at the tree.
+func (d *decoder) parseRoot(data []byte) *yaml.Node {
+	if len(data) > MaxFileBytes {
+		d.errorf(nil, "", "file is %d bytes, more than the %d bytes a kneeprint file may have", len(data), MaxFileBytes)
+		return nil
+	}
+	if len(strings.TrimSpace(string(data))) == 0 {
+		d.errorf(nil, "", "file is empty: a kneeprint file starts with a kind: line")
+		return nil
+	}
+	var doc yaml.Node
+	if err := yaml.Unmarshal(data, &doc); err != nil {
+		d.errs = append(d.errs, yamlError(d.file, err))
+		return nil
+	}
+	if doc.Kind != yaml.DocumentNode || len(doc.Content) == 0 {
+		d.errorf(nil, "", "file holds no YAML document")
+		return nil
+	}
+	if !d.checkTree(doc.Content[0], "", 0) {
+		return nil
+	}
+	return doc.Content[0]
+}
+
+// yamlError turns a YAML syntax error ("yaml: line 7: ...") into a FieldError.
+func yamlError(file string, err error) *FieldError {
+	msg := strings.TrimPrefix(err.Error(), "yaml: ")
+	e := &FieldError{File: file, Msg: "not valid YAML: " + msg}
+	if strings.HasPrefix(msg, "line ") {
+		rest := msg[len("line "):]
+		if i := strings.Index(rest, ":"); i > 0 {
+			if n, convErr := strconv.Atoi(rest[:i]); convErr == nil {
+				e.Line, e.Column = n, 1
+				e.Msg = "not valid YAML: " + strings.TrimSpace(rest[i+1:])
+			}
+		}
+	}
+	return e
+}
+
+func (d *decoder) checkTree(n *yaml.Node, path string, depth int) bool {
+	if depth > maxDepth {
+		d.errorf(n, path, "nested more than %d levels deep", maxDepth)
+		return false
+	}
+	if n.Kind == yaml.AliasNode || n.Anchor != "" {
+		d.errorf(n, path, "anchors and aliases (& and *) are not accepted in kneeprint files: write each value out")
+		return false
+	}
+	ok := true
+	for _, c := range n.Content {
+		if c.Kind == yaml.ScalarNode && c.Value == "<<" && c.Tag == "!!merge" {
+			d.errorf(c, path, "merge keys (<<) are not accepted in kneeprint files")
+			return false
+		}
+		if !d.checkTree(c, path, depth+1) {
+			ok = false
+			break
+		}
+	}
+	return ok
+}
+
+// mapping is a YAML mapping being read: every key read is marked, and finish
+// reports the keys nobody asked for.
+type mapping struct {
+	d     *decoder
+	n     *yaml.Node
+	path  string
+	keys  map[string]*yaml.Node
+	vals  map[string]*yaml.Node
+	order []string
+	asked map[string]bool
+}
+
+func (d *decoder) mapping(n *yaml.Node, path string) *mapping {
+	m := &mapping{d: d, n: n, path: path, keys: map[string]*yaml.Node{}, vals: map[string]*yaml.Node{}, asked: map[string]bool{}}
+	if n == nil {
+		return m
+	}
+	if n.Kind != yaml.MappingNode {
+		d.errorf(n, path, "expected a mapping of key: value lines, found %s", describe(n))
+		return m
+	}
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		k, v := n.Content[i], n.Content[i+1]
+		if k.Kind != yaml.ScalarNode {
+			d.errorf(k, path, "keys must be plain words")
+			continue
+		}
+		if prev, dup := m.keys[k.Value]; dup {
+			d.errorf(k, m.field(k.Value), "duplicate key (first at line %d)", prev.Line)
+			continue
+		}
+		m.keys[k.Value], m.vals[k.Value] = k, v
+		m.order = append(m.order, k.Value)
+	}
+	return m
+}
+
+func (m *mapping) field(k string) string {
+	if m.path == "" {
+		return k
+	}
+	return m.path + "." + k
+}
+
+// get returns the value node of key k, or nil; a missing required key is an error.
+func (m *mapping) get(k string, required bool) *yaml.Node {
+	m.asked[k] = true
+	v := m.vals[k]
+	if v == nil && required && m.n != nil && m.n.Kind == yaml.MappingNode {
+		m.d.errorf(m.n, m.field(k), "missing required field %q", k)
+	}
+	if v != nil && v.Kind == yaml.ScalarNode && v.Tag == "!!null" {
+		if required {
+			m.d.errorf(v, m.field(k), "has no value")
+		}
+		return nil
+	}
+	return v
+}
+
+func (m *mapping) has(k string) bool {
+	v := m.vals[k]
+	return v != nil && !(v.Kind == yaml.ScalarNode && v.Tag == "!!null")
+}
+
+// finish reports every key that was not asked for.
+func (m *mapping) finish() {
+	if m.n == nil || m.n.Kind != yaml.MappingNode {
+		return
+	}
+	var known []string
+	for k := range m.asked {
+		known = append(known, k)
+	}
+	sort.Strings(known)
+	for _, k := range m.order {
+		if !m.asked[k] {
+			m.d.errorf(m.keys[k], m.field(k), "unknown field %q; known fields here: %s", k, strings.Join(known, ", "))
+		}
+	}
+}
+
+func describe(n *yaml.Node) string {
+	switch n.Kind {
+	case yaml.MappingNode:
+		return "a mapping"
+	case yaml.SequenceNode:
+		return "a list"
+	case yaml.ScalarNode:
+		return fmt.Sprintf("%q", n.Value)
+	}
+	return "something else"
+}
+
+// str reads a text value. Numbers written unquoted are taken as their text.
+func (m *mapping) str(k string, required bool) string {
+	v := m.get(k, required)
+	if v == nil {
+		return ""
+	}
+	if v.Kind != yaml.ScalarNode {
+		m.d.errorf(v, m.field(k), "expected text, found %s", describe(v))
+		return ""
+	}
+	s := strings.TrimSpace(v.Value)
+	if s == "" && required {
+		m.d.errorf(v, m.field(k), "must not be empty")
+	}
+	const maxText = 500
+	if len(s) > maxText {
+		m.d.errorf(v, m.field(k), "text is %d characters long, at most %d accepted", len(s), maxText)
+		return s[:maxText]
+	}
+	for _, r := range s {
+		if r < 0x20 && r != '\n' && r != '\t' || r == 0x7f {
+			m.d.errorf(v, m.field(k), "contains a control character")
+			return ""
+		}
+	}
+	return s
+}
+
+// oneOf reads a text value that must be one of choices.
+func (m *mapping) oneOf(k string, required bool, choices ...string) string {
+	s := m.str(k, required)
+	if s == "" {
+		return ""
+	}
+	for _, c := range choices {
+		if s == c {
+			return s
+		}
+	}
+	m.d.errorf(m.vals[k], m.field(k), "%q is not one of: %s", s, strings.Join(choices, ", "))
+	return ""
+}
+
+// quantity reads a value with a unit of dimension dim, in SI, and checks it lies in
+// [lo, hi] (SI). The bool is false when the value is absent or wrong.
+func (m *mapping) quantity(k string, dim units.Dimension, required bool, lo, hi float64) (float64, bool) {
+	v := m.get(k, required)
+	if v == nil {
+		return 0, false
+	}
+	return m.d.quantity(v, m.field(k), dim, lo, hi)
+}
+
+func (d *decoder) quantity(v *yaml.Node, field string, dim units.Dimension, lo, hi float64) (float64, bool) {
+	if v.Kind != yaml.ScalarNode {
+		d.errorf(v, field, "expected a %s with a unit (%s), found %s", dim, strings.Join(units.Accepted(dim), ", "), describe(v))
+		return 0, false
+	}
+	x, err := units.Parse(v.Value, dim)
+	if err != nil {
+		d.errorf(v, field, "%v", err)
+		return 0, false
+	}
+	if x < lo || x > hi {
+		d.errorf(v, field, "%s is outside the accepted range %s", v.Value, rangeText(dim, lo, hi))
+		return 0, false
+	}
+	return x, true
+}
+
+// rangeText prints an SI range in the unit a user most likely wrote.
+func rangeText(dim units.Dimension, lo, hi float64) string {
+	switch dim {
+	case units.Length:
+		return fmt.Sprintf("%g to %g m", round3(lo), round3(hi))
+	case units.Mass:
+		return fmt.Sprintf("%g to %g kg", round3(lo), round3(hi))
+	case units.Temperature:
+		return fmt.Sprintf("%g to %g C", round3(units.Celsius(lo)), round3(units.Celsius(hi)))
+	case units.Pressure:
+		return fmt.Sprintf("%g to %g hPa", round3(units.HPa(lo)), round3(units.HPa(hi)))
+	case units.Speed:
+		return fmt.Sprintf("%g to %g kt", round3(units.Knots(lo)), round3(units.Knots(hi)))
+	case units.Area:
+		return fmt.Sprintf("%g to %g m2", round3(lo), round3(hi))
+	case units.Power:
+		return fmt.Sprintf("%g to %g kW", round3(lo/1000), round3(hi/1000))
+	case units.Duration:
+		return fmt.Sprintf("%g to %g s", round3(lo), round3(hi))
+	case units.Slope, units.Percent:
+		return fmt.Sprintf("%g to %g %%", round3(lo), round3(hi))
+	}
+	return fmt.Sprintf("%g to %g deg", round3(lo), round3(hi))
+}
+
+func round3(x float64) float64 { return math.Round(x*1000) / 1000 }
+
+// number reads a plain number (no unit) in [lo, hi].
+func (m *mapping) number(k string, required bool, lo, hi float64) (float64, bool) {
+	v := m.get(k, required)
+	if v == nil {
+		return 0, false
+	}
+	return m.d.number(v, m.field(k), lo, hi)
+}
+
+func (d *decoder) number(v *yaml.Node, field string, lo, hi float64) (float64, bool) {
+	if v.Kind != yaml.ScalarNode || (v.Tag != "!!int" && v.Tag != "!!float") {
+		d.errorf(v, field, "expected a plain number, found %s", describe(v))
+		return 0, false
+	}
+	x, err := strconv.ParseFloat(strings.ReplaceAll(v.Value, "_", ""), 64)
+	if err != nil || math.IsNaN(x) || math.IsInf(x, 0) {
+		d.errorf(v, field, "%q is not a finite number", v.Value)
+		return 0, false
+	}
+	if x < lo || x > hi {
+		d.errorf(v, field, "%s is outside the accepted range %g to %g", v.Value, lo, hi)
+		return 0, false
+	}
+	return x, true
+}
+
+// boolean reads true or false.
+func (m *mapping) boolean(k string, required bool) (bool, bool) {
+	v := m.get(k, required)
+	if v == nil {
+		return false, false
+	}
+	if v.Kind != yaml.ScalarNode || v.Tag != "!!bool" {
+		m.d.errorf(v, m.field(k), "expected true or false, found %s", describe(v))
+		return false, false
+	}
+	return v.Value == "true", true
+}
+
+// list reads a sequence; a missing required list or a non-list is an error.
+func (m *mapping) list(k string, required bool) []*yaml.Node {
+	v := m.get(k, required)
+	if v == nil {
+		return nil
+	}
+	if v.Kind != yaml.SequenceNode {
+		m.d.errorf(v, m.field(k), "expected a list, found %s", describe(v))
+		return nil
+	}
+	if len(v.Content) == 0 && required {
+		m.d.errorf(v, m.field(k), "list is empty")
+	}
+	return v.Content
+}
+
+// quantities reads a list of values with units.
+func (m *mapping) quantities(k string, dim units.Dimension, required bool, lo, hi float64) ([]float64, []*yaml.Node, bool) {
+	items := m.list(k, required)
+	if items == nil {
+		return nil, nil, false
+	}
+	out := make([]float64, 0, len(items))
+	ok := true
+	for i, it := range items {
+		x, good := m.d.quantity(it, fmt.Sprintf("%s[%d]", m.field(k), i), dim, lo, hi)
+		ok = ok && good
+		out = append(out, x)
+	}
+	return out, items, ok
+}
+
+// increasing reports, as an error at the offending element, axes that are not
+// strictly increasing.
+func (d *decoder) increasing(field string, xs []float64, nodes []*yaml.Node) bool {
+	for i := 1; i < len(xs); i++ {
+		if !(xs[i] > xs[i-1]) {
+			d.errorf(nodes[i], fmt.Sprintf("%s[%d]", field, i), "axis values must be strictly increasing: %s does not follow %s", nodes[i].Value, nodes[i-1].Value)
+			return false
+		}
+	}
+	return true
+}

@@ -1,0 +1,186 @@
+package spec
+
+import (
+	"errors"
+	"io/fs"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"kneeprint/airfields"
+	"kneeprint/perf"
+	"kneeprint/templates"
+)
+
+// TestBadFiles: every file of the corpus is rejected with the file, line, column and
+// field of the problem, and a message saying what is expected.
+func TestBadFiles(t *testing.T) {
+	cases := []struct {
+		file string
+		want []string // each must appear as a line of the error
+	}{
+		{"af-bare-number.yaml", []string{`af-bare-number.yaml:4:12: elevation: "300" has no unit: write it with one of m, ft`}},
+		{"af-negative-tora.yaml", []string{
+			"af-negative-tora.yaml:9:15: runways[0].ends[0].tora: -800 m is outside the accepted range 1 to 6000 m",
+			"af-negative-tora.yaml:11:15: runways[0].ends[1].tora: -800 m is outside the accepted range",
+		}},
+		{"af-toda-short.yaml", []string{"af-toda-short.yaml:10:15: runways[0].ends[0].toda: TODA 700 m is shorter than TORA 800 m"}},
+		{"af-heading-range.yaml", []string{"af-heading-range.yaml:11:18: runways[0].ends[1].heading: 400 deg is outside the accepted range 1 to 360 deg"}},
+		{"af-duplicate-key.yaml", []string{"af-duplicate-key.yaml:3:1: name: duplicate key (first at line 2)"}},
+		{"af-unknown-key.yaml", []string{`af-unknown-key.yaml:4:1: icao: unknown field "icao"; known fields here: elevation, ident, kind, name, runways, variation`}},
+		{"af-bad-surface.yaml", []string{`af-bad-surface.yaml:6:14: runways[0].surface: "tarmac" is not one of: paved, grass, gravel`}},
+		{"af-missing-name.yaml", []string{`af-missing-name.yaml:1:1: name: missing required field "name"`}},
+		{"af-bad-designator.yaml", []string{`af-bad-designator.yaml:10:21: runways[0].ends[1].designator: "37" is not a runway designator`}},
+		{"af-nan.yaml", []string{`af-nan.yaml:4:12: elevation: "NaN ft" is not a length`}},
+		{"af-wrong-type.yaml", []string{
+			"af-wrong-type.yaml:9:15: runways[0].ends[0].tora: expected a length with a unit (m, ft), found a list",
+			"af-wrong-type.yaml:11:15: runways[0].ends[1].tora: expected a length with a unit (m, ft), found a list",
+		}},
+		{"af-duplicate-end.yaml", []string{"af-duplicate-end.yaml:10:21: runways[0].ends[1].designator: runway end 09 is already described at line 8"}},
+		{"af-slope-and-elev.yaml", []string{"af-slope-and-elev.yaml:7:12: runways[0].slope: give either slope or threshold elevations, not both"}},
+		{"af-bad-kind.yaml", []string{`af-bad-kind.yaml:1:7: kind: "airport" is not a kind of kneeprint file`}},
+		{"af-wrong-unit.yaml", []string{`af-wrong-unit.yaml:9:15: runways[0].ends[0].tora: "2690 kg": unknown length unit "kg", accepted: m, ft`}},
+		{"af-bad-ident.yaml", []string{`af-bad-ident.yaml:3:8: ident: "../../etc": use 2 to 10 letters`}},
+		{"ac-weight-above-mtow.yaml", []string{"ac-weight-above-mtow.yaml:5:20: weights[1]: 1100 kg is above the MTOW 1000 kg"}},
+		{"ac-axis-order.yaml", []string{"ac-axis-order.yaml:12:24: table.temperatures[1]: axis values must be strictly increasing: 0 C does not follow 30 C"}},
+		{"ac-ragged.yaml", []string{"ac-ragged.yaml:17:11: table.weights[0].ground_roll[1]: row has 1 values, the table has 2 temperatures (ragged table)"}},
+		{"ac-nonmonotone.yaml", []string{
+			"ac-nonmonotone.yaml:20:17: table.weights (1000 kg).to_50ft[1][1]: distance falls as temperature rises",
+			"ac-nonmonotone.yaml:20:17: table.weights (1000 kg).to_50ft[1][1]: distance falls as pressure altitude rises",
+		}},
+		{"ac-missing-crosswind.yaml", []string{"ac-missing-crosswind.yaml:5:8: limits: has no value"}},
+		{"ac-bad-bool.yaml", []string{`ac-bad-bool.yaml:9:28: table.wind_factoring_included: expected true or false, found "yes please"`}},
+		{"ac-duplicate-mtow.yaml", []string{"ac-duplicate-mtow.yaml:5:1: mtow: duplicate key (first at line 4)"}},
+		{"ac-nan-cell.yaml", []string{`ac-nan-cell.yaml:16:17: table.weights[0].ground_roll[0][1]: ".nan" is not a finite number`}},
+		{"ac-no-model.yaml", []string{"ac-no-model.yaml:1:1: table: a profile needs a performance model"}},
+		{"ac-both-no-model.yaml", []string{`ac-both-no-model.yaml:1:1: model: missing required field "model"`, `ac-both-no-model.yaml:7:15: takeoff_flap: "0" is not in the flaps list`}},
+		{"ac-alias.yaml", []string{"ac-alias.yaml:2:7: anchors and aliases (& and *) are not accepted"}},
+		{"empty.yaml", []string{"empty.yaml: file is empty"}},
+		{"syntax.yaml", []string{"syntax.yaml:1:1: not valid YAML: did not find expected ',' or ']'"}},
+		{"not-mapping.yaml", []string{`not-mapping.yaml:1:1: expected a mapping of key: value lines, found "just a string"`}},
+	}
+	require.GreaterOrEqual(t, len(cases), 20)
+	for _, tc := range cases {
+		t.Run(tc.file, func(t *testing.T) {
+			_, err := Load(os.DirFS("testdata/bad"), tc.file)
+			require.Error(t, err)
+			var list ErrorList
+			require.True(t, errors.As(err, &list), "got %T, want ErrorList", err)
+			lines := strings.Split(err.Error(), "\n")
+			assert.Len(t, lines, len(tc.want), "every error reported once: got\n%s", err)
+			for _, w := range tc.want {
+				found := false
+				for _, l := range lines {
+					found = found || strings.HasPrefix(l, w)
+				}
+				assert.True(t, found, "got\n%s\nwant a line starting %q", err, w)
+			}
+		})
+	}
+}
+
+// Every file in testdata/bad except the two good references must be in the table.
+func TestBadCorpusCovered(t *testing.T) {
+	entries, err := os.ReadDir("testdata/bad")
+	require.NoError(t, err)
+	for _, e := range entries {
+		if strings.HasPrefix(e.Name(), "ok-") {
+			_, err := Load(os.DirFS("testdata/bad"), e.Name())
+			assert.NoError(t, err, "reference file %s must load", e.Name())
+			continue
+		}
+		_, err := Load(os.DirFS("testdata/bad"), e.Name())
+		assert.Error(t, err, "%s must be rejected", e.Name())
+	}
+}
+
+func TestEmbeddedFilesValidate(t *testing.T) {
+	check := func(t *testing.T, fsys fs.FS, dir string) {
+		entries, err := fs.ReadDir(fsys, dir)
+		require.NoError(t, err)
+		require.NotEmpty(t, entries)
+		for _, e := range entries {
+			p := filepath.ToSlash(filepath.Join(dir, e.Name()))
+			t.Run(p, func(t *testing.T) {
+				doc, err := Load(fsys, p)
+				require.NoError(t, err)
+				assert.Empty(t, doc.Warnings)
+			})
+		}
+	}
+	check(t, templates.FS, "aircraft")
+	check(t, templates.FS, "starter")
+	check(t, airfields.FS, ".")
+}
+
+func TestAirfieldDerivedValues(t *testing.T) {
+	doc, err := Load(airfields.FS, "wrenmoor.yaml")
+	require.NoError(t, err)
+	a := doc.Airfield
+	require.Len(t, a.Runways, 2)
+	grass := a.Runways[1]
+	// Threshold elevations 252 ft and 272 ft over 610 m: (20 x 0.3048) / 610 = 0.999 %.
+	assert.InDelta(t, 0.9993, grass.Ends[0].SlopePct, 1e-3)
+	assert.InDelta(t, -grass.Ends[0].SlopePct, grass.Ends[1].SlopePct, 1e-12, "slope sign is per direction")
+	assert.Equal(t, 150.0, grass.Ends[0].HeadingDeg, "heading defaults to designator x 10 (common practice)")
+	assert.Equal(t, grass.Ends[0].TORAM, grass.Ends[0].TODAM, "TODA defaults to TORA")
+	assert.Equal(t, grass.Ends[0].TORAM, grass.Ends[0].ASDAM, "ASDA defaults to TORA")
+	assert.Equal(t, perf.Grass, grass.Ends[0].Surface)
+	assert.InDelta(t, -1, a.VariationDeg, 0, "1 deg W is -1, east positive")
+	assert.Contains(t, strings.Join(doc.Defaults, "\n"), "toda not given: TODA = TORA")
+}
+
+func TestAircraftTableInSI(t *testing.T) {
+	doc, err := Load(templates.FS, "aircraft/pipwing-pw2.yaml")
+	require.NoError(t, err)
+	a := doc.Aircraft
+	require.NotNil(t, a.Table)
+	// The table is typed in feet; the first cell is 415 ft = 126.492 m (1959 agreement).
+	assert.InDelta(t, 415*0.3048, a.Table.GroundRollM[0][0][0], 1e-9)
+	assert.Equal(t, []float64{1000, 900, 800}, a.WeightsKg, "heaviest first")
+	assert.Equal(t, []float64{800, 900, 1000}, a.Table.WeightKg, "table weights increasing")
+	assert.InDelta(t, 9*1852.0/3600, a.Table.Corrections.HeadwindPerMS, 1e-12)
+	assert.InDelta(t, 40+273.15, a.MaxTempK, 1e-9)
+	assert.False(t, math.IsNaN(a.MaxCrosswindMS))
+}
+
+func TestWrongKindForCommand(t *testing.T) {
+	_, err := LoadAircraft(airfields.FS, "wrenmoor.yaml")
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "wrenmoor.yaml: kind: this is an airfield file, an aircraft file is needed here")
+}
+
+func TestOversizeFile(t *testing.T) {
+	big := make([]byte, MaxFileBytes+10)
+	for i := range big {
+		big[i] = '#'
+	}
+	_, err := Parse("big.yaml", big)
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "big.yaml: file is")
+}
+
+func FuzzParse(f *testing.F) {
+	for _, p := range []string{"ok-airfield.yaml", "ok-aircraft.yaml", "ac-alias.yaml", "syntax.yaml"} {
+		data, err := os.ReadFile(filepath.Join("testdata/bad", p))
+		if err != nil {
+			f.Fatal(err)
+		}
+		f.Add(data)
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		doc, err := Parse("fuzz.yaml", data)
+		if err == nil && doc.Aircraft == nil && doc.Airfield == nil {
+			t.Fatalf("no error and nothing read")
+		}
+		var list ErrorList
+		if err != nil && !errors.As(err, &list) {
+			t.Fatalf("error of type %T, want ErrorList", err)
+		}
+	})
+}

@@ -1,0 +1,119 @@
+package spec
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"kneeprint/cmd/internal/units"
+	"kneeprint/perf"
+)
+
+// Summarize writes a plain-text account of what a document holds, the defaults that
+// were applied and the warnings raised, for validate.
+func Summarize(w io.Writer, doc *Document) {
+	switch {
+	case doc.Airfield != nil:
+		summarizeAirfield(w, doc.Airfield)
+	case doc.Aircraft != nil:
+		summarizeAircraft(w, doc.Aircraft)
+	}
+	if len(doc.Defaults) > 0 {
+		fmt.Fprintln(w, "  defaults applied:")
+		for _, s := range doc.Defaults {
+			fmt.Fprintf(w, "    - %s\n", s)
+		}
+	}
+	if len(doc.Warnings) > 0 {
+		fmt.Fprintln(w, "  warnings:")
+		for _, s := range doc.Warnings {
+			fmt.Fprintf(w, "    ! %s\n", s)
+		}
+	}
+}
+
+func summarizeAirfield(w io.Writer, a *perf.Airfield) {
+	ew := "E"
+	if a.VariationDeg < 0 {
+		ew = "W"
+	}
+	fmt.Fprintf(w, "  airfield %q (%s), elevation %.0f ft / %.0f m, variation %g° %s\n",
+		a.Name, a.Ident, units.Feet(a.ElevationM), a.ElevationM, abs(a.VariationDeg), ew)
+	for _, r := range a.Runways {
+		var ds []string
+		for _, e := range r.Ends {
+			ds = append(ds, e.Designator)
+		}
+		fmt.Fprintf(w, "  runway %s: %s, %s\n", strings.Join(ds, "/"), r.Surface, r.Condition)
+		for _, e := range r.Ends {
+			lda := "-"
+			if e.LDAM > 0 {
+				lda = fmt.Sprintf("%.0f m", e.LDAM)
+			}
+			fmt.Fprintf(w, "    %-4s heading %03.0f° M  TORA %.0f m  TODA %.0f m  ASDA %.0f m  LDA %s  slope %+.2f %%  threshold %.0f ft\n",
+				e.Designator, e.HeadingDeg, e.TORAM, e.TODAM, e.ASDAM, lda, e.SlopePct, units.Feet(e.ElevationM))
+			if e.Notes != "" {
+				fmt.Fprintf(w, "         note: %s\n", e.Notes)
+			}
+		}
+	}
+}
+
+func summarizeAircraft(w io.Writer, a *perf.Aircraft) {
+	fmt.Fprintf(w, "  aircraft %q: %s\n", a.Name, a.Type)
+	var ws []string
+	for _, x := range a.WeightsKg {
+		ws = append(ws, fmt.Sprintf("%.0f", x))
+	}
+	fmt.Fprintf(w, "  MTOW %.0f kg; card weights %s kg; takeoff flap %s\n", a.MTOWKg, strings.Join(ws, ", "), a.TakeoffFlap)
+	fmt.Fprintf(w, "  limits: crosswind %.0f kt demonstrated, tailwind %.0f kt, data %.0f to %.0f C\n",
+		units.Knots(a.MaxCrosswindMS), units.Knots(a.MaxTailwindMS), units.Celsius(a.MinTempK), units.Celsius(a.MaxTempK))
+	if a.RotateIASMS > 0 || a.At50ftIASMS > 0 {
+		fmt.Fprintf(w, "  speeds: rotation %.0f kt, at 50 ft %.0f kt (IAS)\n", units.Knots(a.RotateIASMS), units.Knots(a.At50ftIASMS))
+	}
+	fmt.Fprintf(w, "  cards use the %s model\n", a.Model)
+	if t := a.Table; t != nil {
+		fmt.Fprintf(w, "  table: %d pressure altitudes (%.0f to %.0f ft) x %d temperatures (%.0f to %.0f C) x %d weights (%.0f to %.0f kg); wind factoring in the data: %v\n",
+			len(t.PressureAltM), units.Feet(first(t.PressureAltM)), units.Feet(last(t.PressureAltM)),
+			len(t.TempK), units.Celsius(first(t.TempK)), units.Celsius(last(t.TempK)),
+			len(t.WeightKg), first(t.WeightKg), last(t.WeightKg), t.WindInData)
+		c := t.Corrections
+		if c.HeadwindPerMS > 0 {
+			fmt.Fprintf(w, "    headwind: -%g %% per %.0f kt\n", c.HeadwindPct, units.Knots(c.HeadwindPerMS))
+		}
+		if c.TailwindPerMS > 0 {
+			fmt.Fprintf(w, "    tailwind: +%g %% per %.0f kt up to %.0f kt\n", c.TailwindPct, units.Knots(c.TailwindPerMS), units.Knots(c.TailwindMaxMS))
+		}
+		if c.GrassPctOfGroundRoll > 0 {
+			fmt.Fprintf(w, "    dry grass: add %g %% of the ground roll\n", c.GrassPctOfGroundRoll)
+		}
+		if c.WetGrassPctOfGroundRoll > 0 {
+			fmt.Fprintf(w, "    wet grass: add %g %% of the ground roll\n", c.WetGrassPctOfGroundRoll)
+		}
+	}
+	if p := a.Physics; p != nil {
+		fmt.Fprintf(w, "  physics: S %.1f m², b %.1f m, h %.1f m, CD0 %.3f, e %.2f, CL ground %.2f, CLmax %.2f, P %.0f kW, %s propeller %.2f m (eta %.2f, static %.2f of ideal)\n",
+			p.WingAreaM2, p.SpanM, p.WingHeightM, p.CD0, p.Oswald, p.CLGround, p.CLMax, p.PowerW/1000, p.Propeller, p.PropDiameterM, p.PropEfficiency, p.StaticThrustFac)
+	}
+}
+
+func first(xs []float64) float64 {
+	if len(xs) == 0 {
+		return 0
+	}
+	return xs[0]
+}
+
+func last(xs []float64) float64 {
+	if len(xs) == 0 {
+		return 0
+	}
+	return xs[len(xs)-1]
+}
+
+func abs(x float64) float64 {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
