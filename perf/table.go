@@ -1,5 +1,10 @@
 package perf
 
+import (
+	"fmt"
+	"math"
+)
+
 // Table is a flight-manual takeoff table: ground roll and total distance to 50 ft over
 // pressure altitude x temperature x weight, for a paved, dry, level runway, plus the
 // manual's own correction notes.
@@ -33,4 +38,172 @@ type Corrections struct {
 	GrassPctOfGroundRoll float64
 	// The same for wet grass; zero means no note.
 	WetGrassPctOfGroundRoll float64
+}
+
+// TableModel answers takeoff questions from a flight-manual table.
+type TableModel struct {
+	Table *Table
+	// LiftoffIASMS is the manual's rotation speed, used for the accelerate check;
+	// zero means unknown (the still-air estimate is then used).
+	LiftoffIASMS float64
+}
+
+// WindFactoringIncluded reports whether the table's wind notes already factor the wind.
+func (m *TableModel) WindFactoringIncluded() bool { return m.Table.WindInData }
+
+// Takeoff interpolates the table multilinearly over pressure altitude x temperature x
+// weight, then applies the manual's correction notes in the manual's order: wind
+// (per knot, to both distances), then the grass note (a percentage of the corrected
+// ground roll added to both distances).
+//
+// Outside the axes: above the highest pressure altitude, temperature or weight the
+// answer is ErrNoData, never an extrapolation. Below the lowest value of an axis the
+// figures of the lowest value are used, which is conservative because the loader
+// guarantees distances never fall as that quantity rises; a note says so.
+//
+// The accelerate check uses the constant-acceleration estimate (domain notes sec. 4):
+// reaching airspeed 0.7 V_LO with headwind w takes
+//
+//	s70 = GR ((0.7 V_LO - w) / (V_LO - w))^2      (= 0.49 GR in still air)
+//
+// of the ground roll GR, with V_LO the manual's rotation speed as true airspeed.
+func (m *TableModel) Takeoff(c Conditions) (Result, error) {
+	t := m.Table
+	var r Result
+	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "weight", func(x float64) string { return fmt.Sprintf("%.0f kg", x) })
+	if err != nil {
+		return r, err
+	}
+	if note != "" {
+		r.Notes = append(r.Notes, note)
+	}
+	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "pressure altitude", func(x float64) string { return fmt.Sprintf("%.0f ft", x/0.3048) })
+	if err != nil {
+		return r, err
+	}
+	if note != "" {
+		r.Notes = append(r.Notes, note)
+	}
+	ti, tf, note, err := axisPos(t.TempK, c.TempK, "temperature", func(x float64) string { return fmt.Sprintf("%.0f C", x-273.15) })
+	if err != nil {
+		return r, err
+	}
+	if note != "" {
+		r.Notes = append(r.Notes, note)
+	}
+	gr := trilinear(t.GroundRollM, wi, wf, pi, pf, ti, tf)
+	to := trilinear(t.To50ftM, wi, wf, pi, pf, ti, tf)
+
+	k := t.Corrections
+	factor := 1.0
+	switch {
+	case c.HeadwindMS > 0 && k.HeadwindPerMS > 0:
+		factor = 1 - k.HeadwindPct/100*c.HeadwindMS/k.HeadwindPerMS
+		if factor < 0.5 {
+			// No manual's linear headwind note is meant to halve the distance;
+			// keep the credit bounded (conservative, common practice).
+			factor = 0.5
+			r.Notes = append(r.Notes, "headwind credit limited to half the distance")
+		}
+	case c.HeadwindMS < 0:
+		tail := -c.HeadwindMS
+		if k.TailwindPerMS <= 0 {
+			return r, fmt.Errorf("%w: the manual gives no tailwind correction", ErrNoData)
+		}
+		if tail > k.TailwindMaxMS+1e-9 {
+			return r, fmt.Errorf("%w: tailwind %.1f kt beyond the manual's correction (up to %.0f kt)", ErrNoData, tail/knot, k.TailwindMaxMS/knot)
+		}
+		factor = 1 + k.TailwindPct/100*tail/k.TailwindPerMS
+	}
+	gr *= factor
+	to *= factor
+
+	if c.Surface != Paved {
+		pct := k.GrassPctOfGroundRoll
+		if c.Condition == Wet {
+			pct = k.WetGrassPctOfGroundRoll
+		}
+		if c.Surface == Grass && pct > 0 {
+			add := pct / 100 * gr
+			gr += add
+			to += add
+			r.Covers.Surface = true
+			r.Notes = append(r.Notes, fmt.Sprintf("manual's %s grass note: +%g %% of ground roll", c.Condition, pct))
+		}
+	} else if c.Condition == Dry {
+		r.Covers.Surface = true // the table is for a paved, dry runway
+	}
+	r.GroundRollM, r.To50ftM = gr, to
+
+	ratio := 0.49 // (0.7)^2, still air, constant acceleration
+	if m.LiftoffIASMS > 0 {
+		sigma := DensityKgM3(c.PressureAltM, c.TempK) / isaDensity0()
+		vlo := m.LiftoffIASMS / math.Sqrt(sigma) // IAS ~ EAS at these speeds (common practice)
+		w := c.HeadwindMS
+		r.LiftoffTASMS = vlo
+		if 0.7*vlo <= w {
+			ratio = 0
+		} else {
+			q := (0.7*vlo - w) / (vlo - w)
+			ratio = q * q
+		}
+	}
+	r.AccelCheckM = ratio * gr
+	return r, nil
+}
+
+const knot = 1852.0 / 3600.0
+
+// axisPos finds x on a strictly increasing axis: the index i and fraction f with
+// x = xs[i] + f (xs[i+1]-xs[i]). Below the first value it returns (0, 0) and a note
+// (conservative use of the lowest column); above the last, ErrNoData.
+func axisPos(xs []float64, x float64, name string, show func(float64) string) (int, float64, string, error) {
+	n := len(xs)
+	const eps = 1e-9
+	if x > xs[n-1]+eps {
+		return 0, 0, "", fmt.Errorf("%w: %s %s above the table's highest, %s", ErrNoData, name, show(x), show(xs[n-1]))
+	}
+	if x < xs[0]-eps {
+		return 0, 0, fmt.Sprintf("%s %s below the table: figures for %s used (conservative)", name, show(x), show(xs[0])), nil
+	}
+	if n == 1 || x <= xs[0] {
+		return 0, 0, "", nil
+	}
+	for i := 0; i < n-1; i++ {
+		if x <= xs[i+1] {
+			return i, (x - xs[i]) / (xs[i+1] - xs[i]), "", nil
+		}
+	}
+	return n - 1, 0, "", nil
+}
+
+// trilinear interpolates g[w][p][t] at index/fraction positions.
+func trilinear(g [][][]float64, wi int, wf float64, pi int, pf float64, ti int, tf float64) float64 {
+	at := func(w, p, t int) float64 {
+		if w >= len(g) {
+			w = len(g) - 1
+		}
+		if p >= len(g[w]) {
+			p = len(g[w]) - 1
+		}
+		if t >= len(g[w][p]) {
+			t = len(g[w][p]) - 1
+		}
+		return g[w][p][t]
+	}
+	lerp := func(a, b, f float64) float64 { return a + (b-a)*f }
+	v := 0.0
+	for dw := 0; dw <= 1; dw++ {
+		fw := 1 - wf
+		if dw == 1 {
+			fw = wf
+		}
+		if fw == 0 {
+			continue
+		}
+		c00 := lerp(at(wi+dw, pi, ti), at(wi+dw, pi, ti+1), tf)
+		c10 := lerp(at(wi+dw, pi+1, ti), at(wi+dw, pi+1, ti+1), tf)
+		v += fw * lerp(c00, c10, pf)
+	}
+	return v
 }

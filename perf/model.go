@@ -1,0 +1,83 @@
+package perf
+
+import (
+	"errors"
+	"fmt"
+)
+
+// ErrNoData marks a question outside the data a model holds (a table's axes, the ISA
+// troposphere, a correction the manual does not give). The answer is "no data", never
+// an extrapolated number.
+var ErrNoData = errors.New("no data")
+
+// ErrCannotTakeOff marks conditions in which the model says the aircraft does not
+// reach lift-off speed or cannot climb: a no-go, not a gap in the data.
+var ErrCannotTakeOff = errors.New("cannot take off")
+
+// Conditions are the conditions of one takeoff, in SI.
+type Conditions struct {
+	PressureAltM float64
+	TempK        float64 // outside air temperature
+	MassKg       float64
+	// HeadwindMS is the along-runway wind the model uses, after any wind factoring
+	// (see CreditedWindMS); negative is a tailwind.
+	HeadwindMS float64
+	SlopePct   float64 // uphill positive
+	Surface    Surface
+	Condition  Condition
+}
+
+// Effects says which conditions a model's figures include. Effects a model does not
+// include are left to the safety policy's published factors; effects it does include
+// are never factored a second time.
+type Effects struct {
+	Surface bool // the surface and its condition
+	Slope   bool
+}
+
+// Result is a model's answer, unfactored.
+type Result struct {
+	GroundRollM float64 // start of roll to lift-off
+	To50ftM     float64 // start of roll to 50 ft (15 m) above the runway
+	// AccelCheckM is the distance from the start of the roll by which 70 % of the
+	// lift-off airspeed should be reached (FAA AIM runway half-way guidance).
+	AccelCheckM  float64
+	LiftoffTASMS float64 // lift-off true airspeed, 0 when the model does not know it
+	Covers       Effects
+	Notes        []string // what the model assumed (a clamped axis, a correction applied)
+}
+
+// Model is a takeoff model: the handbook table and the physics integration both
+// satisfy it; the grid and the check see only this.
+type Model interface {
+	Takeoff(Conditions) (Result, error)
+}
+
+// windFactored is implemented by models whose data may already include the 50 %/150 %
+// wind factoring.
+type windFactored interface {
+	WindFactoringIncluded() bool
+}
+
+// WindFactoringIncluded reports whether model m's data already factor the wind.
+func WindFactoringIncluded(m Model) bool {
+	wf, ok := m.(windFactored)
+	return ok && wf.WindFactoringIncluded()
+}
+
+// ModelFor returns the takeoff model the aircraft's profile selects.
+func ModelFor(a *Aircraft) (Model, error) {
+	switch a.Model {
+	case ModelTable:
+		if a.Table == nil {
+			return nil, fmt.Errorf("aircraft %q: table model selected but no table", a.Name)
+		}
+		return &TableModel{Table: a.Table, LiftoffIASMS: a.RotateIASMS}, nil
+	case ModelPhysics:
+		if a.Physics == nil {
+			return nil, fmt.Errorf("aircraft %q: physics model selected but no physics section", a.Name)
+		}
+		return &PhysicsModel{P: *a.Physics}, nil
+	}
+	return nil, fmt.Errorf("aircraft %q: unknown model %q", a.Name, a.Model)
+}
