@@ -130,9 +130,9 @@ func Evaluate(k Case) Cell {
 	c.HasDistance = true
 	switch {
 	case c.RequiredM > c.AvailableM:
-		c.worsen(NoGo, fmt.Sprintf("%s: %.0f m required, %.0f m available", c.Limiting, c.RequiredM, c.AvailableM))
+		c.worsen(NoGo, fmt.Sprintf("%s: %.0f m required, %.0f m available", c.Limiting, math.Ceil(c.RequiredM), math.Floor(c.AvailableM)))
 	case c.RequiredM*(1+k.TightMargin) > c.AvailableM:
-		c.worsen(Tight, fmt.Sprintf("%s: %.0f m required, %.0f m available, less than %.0f %% spare", c.Limiting, c.RequiredM, c.AvailableM, k.TightMargin*100))
+		c.worsen(Tight, fmt.Sprintf("%s: %.0f m required, %.0f m available, less than %.0f %% spare", c.Limiting, math.Ceil(c.RequiredM), math.Floor(c.AvailableM), k.TightMargin*100))
 	}
 	return c
 }

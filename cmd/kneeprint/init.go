@@ -9,6 +9,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"kneeprint/cmd/internal/inputs"
 	"kneeprint/templates"
 )
 
@@ -71,16 +72,16 @@ func initStarterRun(e env, opts *initOptions) error {
 }
 
 func initDemoRun(e env, opts *initOptions) error {
-	ac, af := demoSources()
+	ac, af := inputs.Demo()
 	if err := os.MkdirAll(opts.demoDir, 0o755); err != nil {
 		return dataError{err}
 	}
 	for _, s := range append(ac, af...) {
-		data, err := fs.ReadFile(s.fsys, s.path)
+		data, err := fs.ReadFile(s.FS, s.Path)
 		if err != nil {
 			return err
 		}
-		dst := filepath.Join(opts.demoDir, filepath.Base(s.path))
+		dst := filepath.Join(opts.demoDir, filepath.Base(s.Path))
 		if err := writeNew(dst, data, opts.force); err != nil {
 			return dataError{err}
 		}

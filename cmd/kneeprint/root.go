@@ -72,6 +72,8 @@ applies the published corrections and safety factors, and prints kneeboard cards
 	root.AddCommand(
 		newValidateCmd(e),
 		newInitCmd(e),
+		newCheckCmd(e),
+		newGridCmd(e),
 		newVersionCmd(e),
 	)
 	return root

@@ -6,6 +6,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"kneeprint/cmd/internal/inputs"
 	"kneeprint/cmd/internal/spec"
 )
 
@@ -37,20 +38,24 @@ and every error with file:line:column and field. It exits 1 if any file has an e
 }
 
 func validateRun(e env, opts *validateOptions) error {
-	var srcs []source
+	var srcs []inputs.Source
 	if opts.demo {
-		ac, af := demoSources()
+		ac, af := inputs.Demo()
 		srcs = append(append(srcs, ac...), af...)
 	}
 	for _, f := range opts.files {
-		srcs = append(srcs, fileSource(f))
+		src, err := inputs.Resolve(f)
+		if err != nil {
+			return err
+		}
+		srcs = append(srcs, src)
 	}
 	failed := 0
 	for _, s := range srcs {
-		doc, err := s.load()
+		doc, err := s.Load()
 		if err != nil {
 			failed++
-			fmt.Fprintf(e.stdout, "%s: ERRORS\n", s.name)
+			fmt.Fprintf(e.stdout, "%s: ERRORS\n", s.Name)
 			var list spec.ErrorList
 			if errors.As(err, &list) {
 				for _, fe := range list {
@@ -61,7 +66,7 @@ func validateRun(e env, opts *validateOptions) error {
 			}
 			continue
 		}
-		fmt.Fprintf(e.stdout, "%s: ok, %s\n", s.name, doc.Kind)
+		fmt.Fprintf(e.stdout, "%s: ok, %s\n", s.Name, doc.Kind)
 		spec.Summarize(e.stdout, doc)
 	}
 	fmt.Fprintf(e.stdout, "\n%d file(s) read, %d with errors\n", len(srcs), failed)

@@ -141,9 +141,9 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 	switch {
 	case a.Table != nil && len(a.Table.TempK) > 0:
 		lo, hi := a.Table.TempK[0], a.Table.TempK[len(a.Table.TempK)-1]
-		a.MinTempK, a.MaxTempK = lo, hi
+		a.MinTempK, a.MaxTempK = math.Min(lo, defaultMinTempC+units.KelvinAtZeroCelsius), hi
 		if !haveMinT || !haveMaxT {
-			d.notef("limits: temperature range of the data taken from the table: %.0f to %.0f C (colder than the table uses the coldest column, which is conservative)", units.Celsius(lo), units.Celsius(hi))
+			d.notef("limits: temperature range %.0f to %.0f C: the table's hottest column is the upper limit; colder than the table's coldest column (%.0f C) uses that column, which is conservative", units.Celsius(a.MinTempK), units.Celsius(hi), units.Celsius(lo))
 		}
 		if haveMinT {
 			a.MinTempK = minT

@@ -1,0 +1,156 @@
+// Package report writes kneeprint's answers for a terminal, as CSV and as JSON. The
+// JSON field names are stable and documented in the README.
+package report
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"strings"
+
+	"kneeprint/cmd/internal/units"
+	"kneeprint/perf"
+)
+
+// Caution is the one-line caution every output carries.
+const Caution = "Not a substitute for the approved flight manual. The pilot in command decides. Local rules and licensed practice prevail."
+
+// CheckInput is what the check was asked, for printing.
+type CheckInput struct {
+	Aircraft *perf.Aircraft
+	Airfield *perf.Airfield
+	Policy   perf.Policy
+	Question perf.Question
+	WindText string // as the user wrote it
+}
+
+// CheckRun is the JSON form of one check.
+type CheckRun struct {
+	Aircraft           string     `json:"aircraft"`
+	Airfield           string     `json:"airfield"`
+	Ident              string     `json:"ident"`
+	Policy             string     `json:"policy"`
+	Model              string     `json:"model"`
+	ElevationFt        float64    `json:"elevation_ft"`
+	QNHhPa             float64    `json:"qnh_hpa"`
+	PressureAltitudeFt float64    `json:"pressure_altitude_ft"`
+	DensityAltitudeFt  float64    `json:"density_altitude_ft"`
+	TemperatureC       float64    `json:"temperature_c"`
+	ISADeviationC      float64    `json:"isa_deviation_c"`
+	WeightKg           float64    `json:"weight_kg"`
+	Wind               string     `json:"wind"`
+	WindTrue           bool       `json:"wind_true"`
+	Ends               []CheckEnd `json:"runway_ends"`
+	Caution            string     `json:"caution"`
+}
+
+// CheckEnd is the JSON form of one runway end's answer.
+type CheckEnd struct {
+	Rank              int      `json:"rank"`
+	Designator        string   `json:"designator"`
+	HeadingDeg        float64  `json:"heading_deg"`
+	Surface           string   `json:"surface"`
+	Condition         string   `json:"condition"`
+	SlopePct          float64  `json:"slope_pct"`
+	HeadwindKt        float64  `json:"headwind_kt"`
+	CrosswindKt       float64  `json:"crosswind_kt"`
+	GustCrosswindKt   float64  `json:"gust_crosswind_kt"`
+	CreditedWindKt    float64  `json:"credited_headwind_kt"`
+	GroundRollM       *float64 `json:"ground_roll_m"`
+	Distance50ftM     *float64 `json:"distance_50ft_m"`
+	AccelerateCheckM  *float64 `json:"accelerate_check_m"`
+	RequiredM         *float64 `json:"required_m"`
+	AvailableM        *float64 `json:"available_m"`
+	Limiting          string   `json:"limiting"`
+	TORAM             float64  `json:"tora_m"`
+	TODAM             float64  `json:"toda_m"`
+	ASDAM             float64  `json:"asda_m"`
+	Factors           []string `json:"factors"`
+	Status            string   `json:"status"`
+	Reasons           []string `json:"reasons"`
+}
+
+func round1(x float64) float64 { return math.Round(x*10) / 10 }
+
+// ceilM rounds a distance up to the whole metre: a printed distance is never shorter
+// than the one computed.
+func ceilM(x float64) float64 { return math.Ceil(x - 1e-9) }
+
+func ptr(x float64) *float64 { return &x }
+
+// BuildCheck turns an answer into its JSON form.
+func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
+	r := CheckRun{
+		Aircraft: in.Aircraft.Name, Airfield: in.Airfield.Name, Ident: in.Airfield.Ident,
+		Policy: in.Policy.ID, Model: string(in.Aircraft.Model),
+		ElevationFt:        math.Round(units.Feet(ans.ElevationM)),
+		QNHhPa:             round1(units.HPa(in.Question.QNHPa)),
+		PressureAltitudeFt: math.Round(units.Feet(ans.PressureAltM)),
+		DensityAltitudeFt:  math.Round(units.Feet(ans.DensityAltM)),
+		TemperatureC:       round1(units.Celsius(in.Question.TempK)),
+		ISADeviationC:      round1(ans.ISADevK),
+		WeightKg:           math.Round(in.Question.MassKg),
+		Wind:               in.WindText, WindTrue: in.Question.Wind.True,
+		Caution: Caution,
+	}
+	for i, ea := range ans.Ends {
+		c := ea.Cell
+		e := CheckEnd{
+			Rank: i + 1, Designator: ea.End.Designator, HeadingDeg: ea.End.HeadingDeg,
+			Surface: string(ea.End.Surface), Condition: string(ea.End.Condition), SlopePct: math.Round(ea.End.SlopePct*100) / 100,
+			HeadwindKt: round1(units.Knots(ea.Wind.HeadwindMS)), CrosswindKt: round1(units.Knots(ea.Wind.CrosswindMS)),
+			GustCrosswindKt: round1(units.Knots(ea.Wind.GustCrosswindMS)), CreditedWindKt: round1(units.Knots(c.CreditedWindMS)),
+			TORAM: ea.End.TORAM, TODAM: ea.End.TODAM, ASDAM: ea.End.ASDAM,
+			Status: c.State.String(), Reasons: c.Reasons, Factors: []string{},
+		}
+		if e.Reasons == nil {
+			e.Reasons = []string{}
+		}
+		if c.HasDistance {
+			e.GroundRollM, e.Distance50ftM, e.AccelerateCheckM = ptr(ceilM(c.GroundRollM)), ptr(ceilM(c.To50ftM)), ptr(ceilM(c.AccelCheckM))
+			e.RequiredM, e.AvailableM, e.Limiting = ptr(ceilM(c.RequiredM)), ptr(math.Floor(c.AvailableM)), c.Limiting
+			for _, f := range c.Requirement.Factors {
+				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f (%s)", f.Name, f.Value, f.Source))
+			}
+			for _, ch := range c.Requirement.Checks {
+				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f", ch.Declared, ch.Multiplier))
+			}
+		}
+		r.Ends = append(r.Ends, e)
+	}
+	return r
+}
+
+// WriteCheckJSON writes the check as indented JSON.
+func WriteCheckJSON(w io.Writer, run CheckRun) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(run)
+}
+
+// WriteCheckText writes the check for a terminal.
+func WriteCheckText(w io.Writer, run CheckRun) error {
+	b := &strings.Builder{}
+	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s model)\n", run.Aircraft, run.Airfield, run.Ident, run.Policy, run.Model)
+	fmt.Fprintf(b, "elevation %.0f ft, QNH %.1f hPa -> pressure altitude %.0f ft; %.0f C (ISA%+.0f) -> density altitude %.0f ft; weight %.0f kg; wind %s%s\n\n",
+		run.ElevationFt, run.QNHhPa, run.PressureAltitudeFt, run.TemperatureC, run.ISADeviationC, run.DensityAltitudeFt, run.WeightKg, run.Wind, map[bool]string{true: " (true)", false: ""}[run.WindTrue])
+	fmt.Fprintf(b, "%-4s %-4s %-13s %7s %7s %8s %8s %9s %9s %-5s  %s\n", "rank", "rwy", "surface", "head", "cross", "roll m", "50ft m", "required", "available", "limit", "status")
+	for _, e := range run.Ends {
+		dist := func(p *float64) string {
+			if p == nil {
+				return "-"
+			}
+			return fmt.Sprintf("%.0f", *p)
+		}
+		fmt.Fprintf(b, "%-4d %-4s %-13s %6.1fkt %6.1fkt %8s %8s %9s %9s %-5s  %s\n",
+			e.Rank, e.Designator, e.Surface+" "+e.Condition, e.HeadwindKt, e.CrosswindKt,
+			dist(e.GroundRollM), dist(e.Distance50ftM), dist(e.RequiredM), dist(e.AvailableM), e.Limiting, strings.ToUpper(e.Status))
+		for _, r := range e.Reasons {
+			fmt.Fprintf(b, "         - %s\n", r)
+		}
+	}
+	fmt.Fprintf(b, "\nheadwind: the reported component (negative: tailwind); distances rounded up.\n%s\n", Caution)
+	_, err := io.WriteString(w, b.String())
+	return err
+}

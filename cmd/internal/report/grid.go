@@ -1,0 +1,184 @@
+package report
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+
+	"kneeprint/cmd/internal/units"
+	"kneeprint/perf"
+)
+
+// GridInput names what the grids are for.
+type GridInput struct {
+	Aircraft *perf.Aircraft
+	Airfield *perf.Airfield
+	Policy   perf.Policy
+	Grids    []*perf.Grid
+}
+
+// GridRun is the JSON form of the grids of one aircraft at one airfield.
+type GridRun struct {
+	Aircraft           string    `json:"aircraft"`
+	Airfield           string    `json:"airfield"`
+	Ident              string    `json:"ident"`
+	Policy             string    `json:"policy"`
+	Model              string    `json:"model"`
+	ElevationFt        float64   `json:"elevation_ft"`
+	QNHhPa             float64   `json:"qnh_hpa"`
+	PressureAltitudeFt float64   `json:"pressure_altitude_ft"`
+	TightMarginPct     float64   `json:"tight_margin_pct"`
+	Ends               []GridEnd `json:"runway_ends"`
+	Caution            string    `json:"caution"`
+}
+
+// GridEnd is one runway end's grid.
+type GridEnd struct {
+	Designator string     `json:"designator"`
+	HeadingDeg float64    `json:"heading_deg"`
+	Surface    string     `json:"surface"`
+	Condition  string     `json:"condition"`
+	SlopePct   float64    `json:"slope_pct"`
+	TORAM      float64    `json:"tora_m"`
+	TODAM      float64    `json:"toda_m"`
+	ASDAM      float64    `json:"asda_m"`
+	Cells      []GridCell `json:"cells"`
+}
+
+// GridCell is one cell.
+type GridCell struct {
+	WeightKg       float64  `json:"weight_kg"`
+	HeadwindKt     float64  `json:"headwind_kt"`
+	TemperatureC   float64  `json:"temperature_c"`
+	CreditedWindKt float64  `json:"credited_headwind_kt"`
+	GroundRollM    *float64 `json:"ground_roll_m"`
+	Distance50ftM  *float64 `json:"distance_50ft_m"`
+	RequiredM      *float64 `json:"required_m"`
+	AvailableM     *float64 `json:"available_m"`
+	Limiting       string   `json:"limiting"`
+	Status         string   `json:"status"`
+	Reasons        []string `json:"reasons"`
+}
+
+// BuildGrid turns grids into their JSON form.
+func BuildGrid(in GridInput) GridRun {
+	r := GridRun{
+		Aircraft: in.Aircraft.Name, Airfield: in.Airfield.Name, Ident: in.Airfield.Ident,
+		Policy: in.Policy.ID, Model: string(in.Aircraft.Model),
+		ElevationFt: math.Round(units.Feet(in.Airfield.ElevationM)), Caution: Caution,
+	}
+	for _, g := range in.Grids {
+		r.QNHhPa = round1(units.HPa(g.Spec.QNHPa))
+		r.PressureAltitudeFt = math.Round(units.Feet(g.PressureAltM))
+		r.TightMarginPct = round1(g.Spec.TightMargin * 100)
+		ge := GridEnd{
+			Designator: g.End.Designator, HeadingDeg: g.End.HeadingDeg, Surface: string(g.End.Surface),
+			Condition: string(g.End.Condition), SlopePct: math.Round(g.End.SlopePct*100) / 100,
+			TORAM: g.End.TORAM, TODAM: g.End.TODAM, ASDAM: g.End.ASDAM,
+		}
+		for _, blk := range g.Cells {
+			for _, row := range blk {
+				for _, c := range row {
+					gc := GridCell{
+						WeightKg: c.MassKg, HeadwindKt: round1(units.Knots(c.HeadwindMS)),
+						TemperatureC: round1(units.Celsius(c.TempK)), CreditedWindKt: round1(units.Knots(c.CreditedWindMS)),
+						Status: c.State.String(), Reasons: c.Reasons,
+					}
+					if gc.Reasons == nil {
+						gc.Reasons = []string{}
+					}
+					if c.HasDistance {
+						gc.GroundRollM, gc.Distance50ftM = ptr(ceilM(c.GroundRollM)), ptr(ceilM(c.To50ftM))
+						gc.RequiredM, gc.AvailableM, gc.Limiting = ptr(ceilM(c.RequiredM)), ptr(math.Floor(c.AvailableM)), c.Limiting
+					}
+					ge.Cells = append(ge.Cells, gc)
+				}
+			}
+		}
+		r.Ends = append(r.Ends, ge)
+	}
+	return r
+}
+
+// WriteGridJSON writes the grids as indented JSON.
+func WriteGridJSON(w io.Writer, run GridRun) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(run)
+}
+
+// WriteGridCSV writes one row per cell, with a header row.
+func WriteGridCSV(w io.Writer, run GridRun) error {
+	cw := csv.NewWriter(w)
+	_ = cw.Write([]string{"ident", "designator", "weight_kg", "headwind_kt", "temperature_c", "credited_headwind_kt",
+		"ground_roll_m", "distance_50ft_m", "required_m", "available_m", "limiting", "status", "reasons"})
+	num := func(p *float64) string {
+		if p == nil {
+			return ""
+		}
+		return strconv.FormatFloat(*p, 'f', -1, 64)
+	}
+	for _, e := range run.Ends {
+		for _, c := range e.Cells {
+			_ = cw.Write([]string{run.Ident, e.Designator, strconv.FormatFloat(c.WeightKg, 'f', -1, 64),
+				strconv.FormatFloat(c.HeadwindKt, 'f', -1, 64), strconv.FormatFloat(c.TemperatureC, 'f', -1, 64),
+				strconv.FormatFloat(c.CreditedWindKt, 'f', -1, 64), num(c.GroundRollM), num(c.Distance50ftM),
+				num(c.RequiredM), num(c.AvailableM), c.Limiting, c.Status, strings.Join(c.Reasons, "; ")})
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// Terminal marks after a number: our own, plain ASCII so any terminal shows them.
+var textMarks = map[perf.State]string{
+	perf.Go:           " ",
+	perf.Tight:        "~",
+	perf.NoGo:         "X",
+	perf.NoData:       "?",
+	perf.BeyondLimits: "L",
+}
+
+// WriteGridText writes each runway end's grid as a table: one block per weight, rows
+// of wind, columns of temperature, each cell the required distance in metres rounded
+// up, marked by its state.
+func WriteGridText(w io.Writer, in GridInput) error {
+	b := &strings.Builder{}
+	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s model)\n", in.Aircraft.Name, in.Airfield.Name, in.Airfield.Ident, in.Policy.ID, in.Aircraft.Model)
+	fmt.Fprintf(b, "required distance in m (rounded up).  ~ tight (less than the margin spare)  X no-go  ? no data  L beyond limits\n")
+	for _, g := range in.Grids {
+		e := g.End
+		fmt.Fprintf(b, "\nrunway %s, %03.0f° M, %s %s, slope %+.1f %%; TORA %.0f TODA %.0f ASDA %.0f m; QNH %.0f hPa assumed -> PA %.0f ft\n",
+			e.Designator, e.HeadingDeg, e.Surface, e.Condition, e.SlopePct, e.TORAM, e.TODAM, e.ASDAM, units.HPa(g.Spec.QNHPa), units.Feet(g.PressureAltM))
+		for wi, blk := range g.Cells {
+			fmt.Fprintf(b, "  %.0f kg      ", g.Spec.WeightsKg[wi])
+			for _, t := range g.Spec.TempsK {
+				fmt.Fprintf(b, "%6.0fC", units.Celsius(t))
+			}
+			b.WriteString("\n")
+			for hi, row := range blk {
+				kt := units.Knots(g.Spec.HeadwindsMS[hi])
+				label := fmt.Sprintf("head %2.0f kt", kt)
+				if kt < 0 {
+					label = fmt.Sprintf("tail %2.0f kt", -kt)
+				}
+				fmt.Fprintf(b, "  %-12s", label)
+				for _, c := range row {
+					if c.HasDistance && c.State != perf.BeyondLimits {
+						fmt.Fprintf(b, "%6.0f%s", ceilM(c.RequiredM), textMarks[c.State])
+					} else {
+						fmt.Fprintf(b, "%6s%s", "--", textMarks[c.State])
+					}
+				}
+				b.WriteString("\n")
+			}
+		}
+	}
+	fmt.Fprintf(b, "\n%s\n", Caution)
+	_, err := io.WriteString(w, b.String())
+	return err
+}

@@ -1,0 +1,113 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+
+	"github.com/spf13/cobra"
+
+	"kneeprint/cmd/internal/report"
+	"kneeprint/cmd/internal/units"
+	"kneeprint/perf"
+)
+
+type gridOptions struct {
+	aircraft, airfield string
+	runway             string
+	qnh                string
+	temps, winds       string
+	weights            string
+	surface            string
+	policy             string
+	margin             string
+	csv, json          bool
+}
+
+func newGridCmd(e env) *cobra.Command {
+	opts := &gridOptions{}
+	cmd := &cobra.Command{
+		Use:   "grid --aircraft FILE --airfield FILE [flags]",
+		Short: "Print the takeoff grid of every runway end: temperature x wind x weight",
+		Long: `grid computes, for every runway end (or one with --runway), the required takeoff
+distance over temperature x wind component x weight at an assumed QNH (default a
+conservative 1000 hPa), marks each cell go, tight, no-go, no data or beyond limits,
+and prints it as a terminal table, --csv or --json. Winds are reported along-runway
+components in knots, negative for a tailwind.
+
+` + caution,
+		Example: `  kneeprint grid --aircraft demo:quillwing-qt6 --airfield demo:saltpan
+  kneeprint grid --aircraft demo:pipwing-pw2 --airfield demo:wrenmoor --runway 25 --temps 10C,20C,30C --winds=-5kt,0kt,10kt --csv`,
+		Args: cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, _ []string) error { return gridRun(e, opts) },
+	}
+	f := cmd.Flags()
+	f.StringVar(&opts.aircraft, "aircraft", "", "aircraft profile file, or demo:NAME")
+	f.StringVar(&opts.airfield, "airfield", "", "airfield file, or demo:NAME")
+	f.StringVar(&opts.runway, "runway", "", "only this runway end, e.g. 24 (default: all)")
+	f.StringVar(&opts.qnh, "qnh", "1000hPa", "QNH assumed for the whole grid")
+	f.StringVar(&opts.temps, "temps", "0C,5C,10C,15C,20C,25C,30C,35C", "temperature columns")
+	f.StringVar(&opts.winds, "winds", "-10kt,-5kt,0kt,5kt,10kt,15kt,20kt", "wind-component rows, negative = tailwind")
+	f.StringVar(&opts.weights, "weights", "", "weight blocks (default: the profile's weights)")
+	f.StringVar(&opts.surface, "surface", "", "runway condition dry|wet (default: as the airfield file declares)")
+	f.StringVar(&opts.policy, "policy", defaultPolicy, "safety policy: "+policyList())
+	f.StringVar(&opts.margin, "margin", "10%", "spare margin below which a fitting cell is marked tight")
+	f.BoolVar(&opts.csv, "csv", false, "write CSV, one row per cell")
+	f.BoolVar(&opts.json, "json", false, "write JSON (fields documented in the README)")
+	return cmd
+}
+
+func gridRun(e env, opts *gridOptions) error {
+	if opts.csv && opts.json {
+		return errors.New("--csv and --json: choose one")
+	}
+	j, err := loadJob(opts.aircraft, opts.airfield, opts.policy)
+	if err != nil {
+		return err
+	}
+	spec := perf.DefaultGridSpec(j.aircraft)
+	if spec.QNHPa, err = quantity("qnh", opts.qnh, units.Pressure); err != nil {
+		return err
+	}
+	if spec.TempsK, err = quantityList("temps", opts.temps, units.Temperature); err != nil {
+		return err
+	}
+	if spec.HeadwindsMS, err = quantityList("winds", opts.winds, units.Speed); err != nil {
+		return err
+	}
+	if opts.weights != "" {
+		if spec.WeightsKg, err = quantityList("weights", opts.weights, units.Mass); err != nil {
+			return err
+		}
+	}
+	if spec.TightMargin, err = marginFlag(opts.margin); err != nil {
+		return err
+	}
+	cond, err := conditionFlag(opts.surface)
+	if err != nil {
+		return err
+	}
+	in := report.GridInput{Aircraft: j.aircraft, Airfield: j.airfield, Policy: j.policy}
+	for _, end := range j.airfield.Ends() {
+		if opts.runway != "" && end.Designator != opts.runway {
+			continue
+		}
+		if cond != "" {
+			end.Condition = cond
+		}
+		g, err := perf.ComputeGrid(j.aircraft, j.model, j.policy, *j.airfield, end, spec)
+		if err != nil {
+			return err
+		}
+		in.Grids = append(in.Grids, g)
+	}
+	if len(in.Grids) == 0 {
+		return fmt.Errorf("--runway %s: no such runway end at %s", opts.runway, j.airfield.Ident)
+	}
+	switch {
+	case opts.json:
+		return report.WriteGridJSON(e.stdout, report.BuildGrid(in))
+	case opts.csv:
+		return report.WriteGridCSV(e.stdout, report.BuildGrid(in))
+	}
+	return report.WriteGridText(e.stdout, in)
+}
