@@ -109,4 +109,3 @@ func load(arg string, kind spec.Kind) (*spec.Document, error) {
 	}
 	return doc, nil
 }
-

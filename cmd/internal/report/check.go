@@ -47,28 +47,28 @@ type CheckRun struct {
 
 // CheckEnd is the JSON form of one runway end's answer.
 type CheckEnd struct {
-	Rank              int      `json:"rank"`
-	Designator        string   `json:"designator"`
-	HeadingDeg        float64  `json:"heading_deg"`
-	Surface           string   `json:"surface"`
-	Condition         string   `json:"condition"`
-	SlopePct          float64  `json:"slope_pct"`
-	HeadwindKt        float64  `json:"headwind_kt"`
-	CrosswindKt       float64  `json:"crosswind_kt"`
-	GustCrosswindKt   float64  `json:"gust_crosswind_kt"`
-	CreditedWindKt    float64  `json:"credited_headwind_kt"`
-	GroundRollM       *float64 `json:"ground_roll_m"`
-	Distance50ftM     *float64 `json:"distance_50ft_m"`
-	AccelerateCheckM  *float64 `json:"accelerate_check_m"`
-	RequiredM         *float64 `json:"required_m"`
-	AvailableM        *float64 `json:"available_m"`
-	Limiting          string   `json:"limiting"`
-	TORAM             float64  `json:"tora_m"`
-	TODAM             float64  `json:"toda_m"`
-	ASDAM             float64  `json:"asda_m"`
-	Factors           []string `json:"factors"`
-	Status            string   `json:"status"`
-	Reasons           []string `json:"reasons"`
+	Rank             int      `json:"rank"`
+	Designator       string   `json:"designator"`
+	HeadingDeg       float64  `json:"heading_deg"`
+	Surface          string   `json:"surface"`
+	Condition        string   `json:"condition"`
+	SlopePct         float64  `json:"slope_pct"`
+	HeadwindKt       float64  `json:"headwind_kt"`
+	CrosswindKt      float64  `json:"crosswind_kt"`
+	GustCrosswindKt  float64  `json:"gust_crosswind_kt"`
+	CreditedWindKt   float64  `json:"credited_headwind_kt"`
+	GroundRollM      *float64 `json:"ground_roll_m"`
+	Distance50ftM    *float64 `json:"distance_50ft_m"`
+	AccelerateCheckM *float64 `json:"accelerate_check_m"`
+	RequiredM        *float64 `json:"required_m"`
+	AvailableM       *float64 `json:"available_m"`
+	Limiting         string   `json:"limiting"`
+	TORAM            float64  `json:"tora_m"`
+	TODAM            float64  `json:"toda_m"`
+	ASDAM            float64  `json:"asda_m"`
+	Factors          []string `json:"factors"`
+	Status           string   `json:"status"`
+	Reasons          []string `json:"reasons"`
 }
 
 func round1(x float64) float64 { return math.Round(x*10) / 10 }
