@@ -66,8 +66,9 @@ type Cell struct {
 	Requirement Requirement
 	RequiredM   float64 // of the limiting declared distance
 	AvailableM  float64
-	Limiting    string // TORA, TODA or ASDA
-	HasDistance bool   // a required distance was computed
+	Limiting    string  // TORA, TODA or ASDA
+	HasDistance bool    // a required distance was computed
+	Covers      Effects // what the model's figure already includes
 	Reasons     []string
 }
 
@@ -123,6 +124,7 @@ func Evaluate(k Case) Cell {
 		return c
 	}
 	c.GroundRollM, c.To50ftM, c.AccelCheckM, c.LiftoffTASMS = actual.GroundRollM, actual.To50ftM, actual.AccelCheckM, actual.LiftoffTASMS
+	c.Covers = actual.Covers
 	c.Reasons = append(c.Reasons, actual.Notes...)
 	req := k.Policy.Require(actual, ref, k.End)
 	c.Requirement = req

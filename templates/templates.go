@@ -4,9 +4,10 @@ package templates
 
 import "embed"
 
-// FS holds starter/*.yaml and aircraft/*.yaml (the demo aircraft, invented).
+// FS holds starter/*.yaml, aircraft/*.yaml (the demo aircraft, invented) and
+// cards/*.yaml (the card presets).
 //
-//go:embed starter/*.yaml aircraft/*.yaml
+//go:embed starter/*.yaml aircraft/*.yaml cards/*.yaml
 var FS embed.FS
 
 // Starter file names in FS, by kind.
@@ -17,3 +18,10 @@ const (
 
 // DemoAircraftDir is the folder of FS holding the invented demo aircraft.
 const DemoAircraftDir = "aircraft"
+
+// CardsDir is the folder of FS holding the card presets; DefaultCard the one used
+// when none is named.
+const (
+	CardsDir    = "cards"
+	DefaultCard = "a5"
+)

@@ -74,6 +74,7 @@ applies the published corrections and safety factors, and prints kneeboard cards
 		newInitCmd(e),
 		newCheckCmd(e),
 		newGridCmd(e),
+		newCardsCmd(e),
 		newVersionCmd(e),
 	)
 	return root

@@ -27,6 +27,7 @@ type Document struct {
 	Kind     Kind
 	Aircraft *perf.Aircraft
 	Airfield *perf.Airfield
+	Template *CardTemplate
 	Defaults []string // defaults applied, one sentence each
 	Warnings []string // things that are legal but look wrong
 }
@@ -44,15 +45,19 @@ func Parse(name string, data []byte) (*Document, error) {
 		case root.Kind != yaml.MappingNode:
 			// reported by mapping
 		case kindNode == nil:
-			d.errorf(root, "kind", "missing required field \"kind\": say what this file is (kind: aircraft or kind: airfield)")
+			d.errorf(root, "kind", "missing required field \"kind\": say what this file is (kind: aircraft, airfield or card-template)")
 		case kindNode.Value == string(KindAircraft):
 			doc.Kind = KindAircraft
 			doc.Aircraft = d.aircraft(m)
 		case kindNode.Value == string(KindAirfield):
 			doc.Kind = KindAirfield
 			doc.Airfield = d.airfield(m)
+		case kindNode.Value == string(KindCardTemplate):
+			doc.Kind = KindCardTemplate
+			m.get("kind", true)
+			doc.Template = d.cardTemplate(m)
 		default:
-			d.errorf(kindNode, "kind", "%q is not a kind of kneeprint file: aircraft or airfield", kindNode.Value)
+			d.errorf(kindNode, "kind", "%q is not a kind of kneeprint file: aircraft, airfield or card-template", kindNode.Value)
 		}
 	}
 	doc.Defaults, doc.Warnings = d.notes, d.warns

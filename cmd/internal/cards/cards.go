@@ -1,0 +1,365 @@
+// Package cards makes kneeboard cards: it computes each runway end's grid with perf,
+// turns it into layout.CardData (units, rounding up, the accelerate check, the
+// crosswind helper, the fingerprint) and writes the PDF atomically.
+package cards
+
+import (
+	"bytes"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+	"time"
+	"unicode"
+
+	"kneeprint/cmd/internal/spec"
+	"kneeprint/cmd/internal/units"
+	"kneeprint/layout"
+	"kneeprint/perf"
+)
+
+// Caution is printed on every card.
+const Caution = "CAUTION: planning figures, not a substitute for the approved flight manual: verify against it. " +
+	"The pilot in command decides. Figures assume the profile's aircraft, engine and technique; a worn aircraft, " +
+	"soft or contaminated ground or a rushed takeoff needs more. Local regulations and licensed practice take precedence."
+
+// Job is one aircraft at one airfield with one card template.
+type Job struct {
+	Aircraft   *perf.Aircraft
+	Airfield   *perf.Airfield
+	Template   spec.CardTemplate
+	Page       layout.Page
+	Sheet      *layout.Sheet // 2-up imposition when set
+	Date       time.Time
+	ValidUntil time.Time
+	Version    string
+	Compress   bool
+}
+
+// EndSummary counts the states of one runway end's cells.
+type EndSummary struct {
+	Designator  string
+	Fingerprint string
+	Counts      map[perf.State]int
+}
+
+// Result is what a job wrote.
+type Result struct {
+	Path  string
+	Pages int
+	Ends  []EndSummary
+}
+
+// Card computes one runway end's grid and card data.
+func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
+	a, f, t := j.Aircraft, j.Airfield, j.Template
+	var d layout.CardData
+	model, err := perf.ModelFor(a)
+	if err != nil {
+		return d, nil, err
+	}
+	pol, err := perf.PolicyByID(t.Policy)
+	if err != nil {
+		return d, nil, err
+	}
+	weights := append([]float64(nil), a.WeightsKg...)
+	sort.Sort(sort.Reverse(sort.Float64Slice(weights)))
+	if len(weights) > t.MaxBlocks {
+		d.OmittedKg = weights[t.MaxBlocks:]
+		weights = weights[:t.MaxBlocks]
+	}
+	gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin}
+	g, err := perf.ComputeGrid(a, model, pol, *f, e, gs)
+	if err != nil {
+		return d, nil, err
+	}
+
+	d.AirfieldName, d.Ident, d.ElevationFt = f.Name, f.Ident, units.Feet(f.ElevationM)
+	d.Designator, d.HeadingDeg = e.Designator, e.HeadingDeg
+	d.Surface, d.Condition, d.SlopePct = string(e.Surface), string(e.Condition), e.SlopePct
+	d.TORAM, d.TODAM, d.ASDAM, d.LDAM = e.TORAM, e.TODAM, e.ASDAM, e.LDAM
+	d.RunwayNotes = e.Notes
+	d.AircraftName, d.Flap = a.Name, a.TakeoffFlap
+	d.ModelName = "flight-manual table"
+	if a.Model == perf.ModelPhysics {
+		d.ModelName = "physics model"
+	}
+	d.RotateKIAS = units.Knots(a.RotateIASMS)
+	d.MaxCrosswindKt, d.MaxTailwindKt = units.Knots(a.MaxCrosswindMS), units.Knots(a.MaxTailwindMS)
+	var covers perf.Effects
+	for _, blk := range g.Cells {
+		for _, row := range blk {
+			for _, c := range row {
+				if c.HasDistance {
+					covers = c.Covers
+				}
+			}
+		}
+	}
+	d.PolicyTitle, d.PolicyLine = pol.Title, policyLine(pol, e, covers)
+	d.QNHhPa = units.HPa(t.QNHPa)
+	d.PressureAltFt = units.Feet(g.PressureAltM)
+	d.FtPerHPa = units.Feet(perf.PressureAltitudeFromQNH(t.QNHPa-100, f.ElevationM) - g.PressureAltM)
+	d.Unit = t.Unit
+	d.TightMarginPct = t.TightMargin * 100
+	for _, k := range t.TempsK {
+		d.TempsC = append(d.TempsC, units.Celsius(k))
+	}
+	for _, w := range t.WindsMS {
+		d.WindsKt = append(d.WindsKt, math.Round(units.Knots(w)*10)/10)
+	}
+	limiting := map[string]int{}
+	for wi, blk := range g.Cells {
+		wb := layout.WeightBlock{WeightKg: weights[wi], MTOW: math.Abs(weights[wi]-a.MTOWKg) < 0.5}
+		for _, row := range blk {
+			var cells []layout.CellData
+			for _, c := range row {
+				cd := layout.CellData{State: c.State, HasDistance: c.HasDistance}
+				if c.HasDistance {
+					cd.Distance = roundUp10(c.RequiredM, t.Unit)
+					limiting[c.Limiting]++
+				}
+				cells = append(cells, cd)
+			}
+			wb.Cells = append(wb.Cells, cells)
+		}
+		d.Blocks = append(d.Blocks, wb)
+	}
+	best := 0
+	for _, name := range []string{"TORA", "TODA", "ASDA"} {
+		if limiting[name] > best {
+			d.Limiting, best = name, limiting[name]
+		}
+	}
+	d.Accel = accelCheck(a, model, pol, e, g, weights[0], t)
+	d.Crosswind = crosswindHelper(t)
+	d.Generated = j.Date.Format("2006-01-02")
+	d.ValidUntil = j.ValidUntil.Format("2006-01-02")
+	d.Fingerprint = j.Fingerprint(e)
+	d.Version = j.Version
+	d.Caution = Caution
+	return d, g, nil
+}
+
+// roundUp10 converts metres to the card's unit and rounds up to the next 10: a
+// printed distance is never shorter than the one computed.
+func roundUp10(m float64, unit string) float64 {
+	v := m
+	if unit == "ft" {
+		v = units.Feet(m)
+	}
+	return math.Ceil(v/10-1e-9) * 10
+}
+
+func accelCheck(a *perf.Aircraft, m perf.Model, p perf.Policy, e perf.RunwayEnd, g *perf.Grid, kg float64, t spec.CardTemplate) layout.AccelCheck {
+	c := perf.Evaluate(perf.Case{Aircraft: a, Model: m, Policy: p, End: e, PressureAltM: g.PressureAltM, TempK: t.AccelTempK, MassKg: kg, TightMargin: t.TightMargin})
+	ac := layout.AccelCheck{WeightKg: kg, TempC: units.Celsius(t.AccelTempK)}
+	if !c.HasDistance || c.AccelCheckM <= 0 {
+		ac.Reason = fmt.Sprintf("no figure at %.0f kg, %.0f °C: %s", kg, ac.TempC, strings.Join(c.Reasons, "; "))
+		return ac
+	}
+	ac.Available = true
+	ac.Distance = roundUp10(c.AccelCheckM, t.Unit)
+	ac.FractionTORA = c.AccelCheckM / e.TORAM
+	if c.LiftoffTASMS > 0 {
+		sigma := perf.DensityKgM3(g.PressureAltM, t.AccelTempK) / perf.ISASeaLevelDensity
+		ac.SpeedKIAS = math.Round(0.7 * units.Knots(c.LiftoffTASMS*math.Sqrt(sigma)))
+	}
+	return ac
+}
+
+func crosswindHelper(t spec.CardTemplate) layout.CrosswindHelper {
+	h := layout.CrosswindHelper{}
+	for _, a := range t.CrosswindAnglesDeg {
+		h.AnglesDeg = append(h.AnglesDeg, a)
+	}
+	for _, s := range t.CrosswindSpeedsMS {
+		h.SpeedsKt = append(h.SpeedsKt, math.Round(units.Knots(s)))
+		var row []float64
+		for _, a := range t.CrosswindAnglesDeg {
+			c := perf.WindComponents(perf.Wind{FromDeg: 180 + a, SpeedMS: s}, 180, 0)
+			// Rounded up: the helper never shows less crosswind than there is.
+			row = append(row, math.Ceil(units.Knots(math.Abs(c.CrosswindMS))-1e-6))
+		}
+		h.Kt = append(h.Kt, row)
+	}
+	return h
+}
+
+func policyLine(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) string {
+	var parts []string
+	sf, slf := p.SurfaceFactor(e.Surface, e.Condition), p.SlopeFactor(e.SlopePct)
+	for _, f := range []struct {
+		f       perf.Factor
+		covered bool
+	}{{sf, covers.Surface}, {slf, covers.Slope}} {
+		if f.f.Value == 1 {
+			continue
+		}
+		s := fmt.Sprintf("%s ×%.2f", f.f.Name, f.f.Value)
+		if f.covered {
+			s += " (or the model's own figure if longer)"
+		}
+		parts = append(parts, s)
+	}
+	checks := p.OverallMultipliers(e)
+	var cs []string
+	for _, c := range checks {
+		if c.Multiplier == 1 {
+			cs = append(cs, "TOD ≤ "+c.Declared)
+		} else {
+			cs = append(cs, fmt.Sprintf("TOD ×%.2f ≤ %s", c.Multiplier, c.Declared))
+		}
+	}
+	parts = append(parts, strings.Join(cs, ", "))
+	return strings.Join(parts, " · ")
+}
+
+// Fingerprint is a short hash of the canonical form of every input that affects the
+// card of runway end e: the profile, the airfield's identity and elevation, this
+// runway end, the template (with its policy) and the kneeprint version.
+func (j *Job) Fingerprint(e perf.RunwayEnd) string {
+	canon := struct {
+		Aircraft *perf.Aircraft
+		Airfield struct {
+			Name, Ident string
+			ElevationM  float64
+		}
+		End      perf.RunwayEnd
+		Template spec.CardTemplate
+		Page     string
+		Version  string
+	}{Aircraft: j.Aircraft, End: e, Template: j.Template, Page: j.Page.Name, Version: j.Version}
+	canon.Airfield.Name, canon.Airfield.Ident, canon.Airfield.ElevationM = j.Airfield.Name, j.Airfield.Ident, j.Airfield.ElevationM
+	data, err := json.Marshal(canon)
+	if err != nil {
+		panic("kneeprint: fingerprint of plain data failed: " + err.Error()) // a programming defect
+	}
+	sum := sha256.Sum256(data)
+	return hex.EncodeToString(sum[:])[:12]
+}
+
+// Render computes every runway end and writes one PDF of all their cards.
+func (j *Job) Render(fonts *layout.Fonts) ([]byte, []EndSummary, int, error) {
+	var cards []*layout.Card
+	var sums []EndSummary
+	for _, e := range j.Airfield.Ends() {
+		d, g, err := j.Card(e)
+		if err != nil {
+			return nil, nil, 0, fmt.Errorf("airfield %s runway %s: %w", j.Airfield.Ident, e.Designator, err)
+		}
+		c, err := layout.Build(d, j.Page, fonts)
+		if err != nil {
+			return nil, nil, 0, err
+		}
+		if probs := c.Check(); len(probs) > 0 {
+			more := ""
+			if len(probs) > 3 {
+				probs, more = probs[:3], fmt.Sprintf(" and %d more", len(probs)-3)
+			}
+			return nil, nil, 0, fmt.Errorf("card %s %s: layout check failed: %v%s", j.Airfield.Ident, e.Designator, probs, more)
+		}
+		cards = append(cards, c)
+		sum := EndSummary{Designator: e.Designator, Fingerprint: d.Fingerprint, Counts: map[perf.State]int{}}
+		for _, blk := range g.Cells {
+			for _, row := range blk {
+				for _, c := range row {
+					sum.Counts[c.State]++
+				}
+			}
+		}
+		sums = append(sums, sum)
+	}
+	var buf bytes.Buffer
+	opt := layout.RenderOptions{Sheet: j.Sheet, Compress: j.Compress, Date: j.Date,
+		Title: fmt.Sprintf("kneeprint cards: %s at %s", j.Aircraft.Name, j.Airfield.Name), Author: "kneeprint " + j.Version}
+	if err := layout.RenderPDF(&buf, cards, opt); err != nil {
+		return nil, nil, 0, err
+	}
+	pages := len(cards)
+	if j.Sheet != nil {
+		pages = (len(cards) + 1) / 2
+	}
+	return buf.Bytes(), sums, pages, nil
+}
+
+// FileName is the job's PDF name: airfield identifier, aircraft name and page,
+// each reduced to lower-case letters, digits and hyphens.
+func (j *Job) FileName() string {
+	name := Slug(j.Airfield.Ident) + "_" + Slug(j.Aircraft.Name) + "_" + Slug(j.Page.Name)
+	if j.Sheet != nil {
+		name += "_" + Slug(j.Sheet.Name) + "-2up"
+	}
+	return name + ".pdf"
+}
+
+// Slug keeps letters and digits (lower-cased, ASCII only) and turns every other run
+// of characters into one hyphen, at most 40 characters: nothing in a name can leave
+// the output folder or differ only by case.
+func Slug(s string) string {
+	var b strings.Builder
+	dash := false
+	for _, r := range strings.ToLower(s) {
+		if r < 128 && (unicode.IsLetter(r) || unicode.IsDigit(r)) {
+			b.WriteRune(r)
+			dash = false
+		} else if !dash && b.Len() > 0 {
+			b.WriteByte('-')
+			dash = true
+		}
+		if b.Len() >= 40 {
+			break
+		}
+	}
+	out := strings.Trim(b.String(), "-")
+	if out == "" {
+		out = "unnamed"
+	}
+	return out
+}
+
+// Write renders the job and writes it into dir atomically: to a temporary file in
+// dir, synced, then renamed into place, so no reader ever sees half a PDF.
+func (j *Job) Write(dir string, fonts *layout.Fonts) (Result, error) {
+	data, sums, pages, err := j.Render(fonts)
+	if err != nil {
+		return Result{}, err
+	}
+	path := filepath.Join(dir, j.FileName())
+	if err := WriteAtomic(path, data); err != nil {
+		return Result{}, err
+	}
+	return Result{Path: path, Pages: pages, Ends: sums}, nil
+}
+
+// WriteAtomic writes data to path through a temporary file in the same folder.
+func WriteAtomic(path string, data []byte) (err error) {
+	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
+	if err != nil {
+		return err
+	}
+	defer func() {
+		if err != nil {
+			tmp.Close()
+			os.Remove(tmp.Name())
+		}
+	}()
+	if _, err = tmp.Write(data); err != nil {
+		return err
+	}
+	if err = tmp.Sync(); err != nil {
+		return err
+	}
+	if err = tmp.Close(); err != nil {
+		return err
+	}
+	if err = os.Chmod(tmp.Name(), 0o644); err != nil {
+		return err
+	}
+	return os.Rename(tmp.Name(), path)
+}

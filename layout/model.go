@@ -1,0 +1,173 @@
+// Package layout turns a computed takeoff grid into a kneeboard card: first a
+// device-independent card model (blocks, boxes and text runs in millimetres), then a
+// PDF. layout computes no physics: every number it prints arrives in CardData.
+package layout
+
+import (
+	"fmt"
+	"math"
+)
+
+// Rect is a box in millimetres from the top-left corner of the card.
+type Rect struct{ X, Y, W, H float64 }
+
+// Inside reports whether r lies within o (with a hair of tolerance for rounding).
+func (r Rect) Inside(o Rect) bool {
+	const eps = 1e-6
+	return r.X >= o.X-eps && r.Y >= o.Y-eps && r.X+r.W <= o.X+o.W+eps && r.Y+r.H <= o.Y+o.H+eps
+}
+
+// Overlaps reports whether r and o share any area.
+func (r Rect) Overlaps(o Rect) bool {
+	const eps = 1e-6
+	return r.X < o.X+o.W-eps && o.X < r.X+r.W-eps && r.Y < o.Y+o.H-eps && o.Y < r.Y+r.H-eps
+}
+
+// Color is an RGB colour.
+type Color struct{ R, G, B uint8 }
+
+// Colours the card uses. State is never carried by colour alone (see legend.go).
+var (
+	Black = Color{0, 0, 0}
+	White = Color{255, 255, 255}
+	Grey  = Color{110, 110, 110}
+	Light = Color{225, 225, 225}
+)
+
+// FontStyle selects a face of the embedded Go fonts.
+type FontStyle int
+
+// Font faces.
+const (
+	Regular FontStyle = iota
+	Bold
+)
+
+// Align is horizontal text alignment within a text's box.
+type Align int
+
+// Alignments.
+const (
+	Left Align = iota
+	Center
+	Right
+)
+
+// Role says what a text is, for the legibility checks.
+type Role int
+
+// Text roles: a Number a pilot must read (9 pt at least), other Text (6.5 pt at least).
+const (
+	Label Role = iota
+	Number
+)
+
+// Minimum sizes: numbers a pilot must read at least 9 pt, nothing below 6.5 pt
+// (UK CAA CAP 676 and FAA HF-STD-001 as summarised in the domain notes, sec. 6).
+const (
+	MinNumberPt = 9.0
+	MinTextPt   = 6.5
+)
+
+// Text is one line of text in a box; Y is the top of the box.
+type Text struct {
+	Box    Rect
+	S      string
+	SizePt float64
+	Style  FontStyle
+	Align  Align
+	Color  Color
+	Role   Role
+	WidthMM float64 // the measured width of S at SizePt
+}
+
+// ShapeKind is a drawing primitive.
+type ShapeKind int
+
+// Shapes.
+const (
+	FillRect   ShapeKind = iota // a filled rectangle
+	StrokeRect                  // a rectangle outline
+	Line                        // a line from (X, Y) to (X+W, Y+H)
+	Hatch                       // 45-degree lines clipped to the rectangle
+)
+
+// Shape is one drawing primitive.
+type Shape struct {
+	Kind    ShapeKind
+	Box     Rect
+	Color   Color
+	LineMM  float64
+	SpaceMM float64 // hatch spacing
+}
+
+// Block is a named part of the card; blocks never overlap.
+type Block struct {
+	Name   string
+	Box    Rect
+	Shapes []Shape
+	Texts  []Text
+}
+
+// Card is the device-independent model of one kneeboard card.
+type Card struct {
+	Title  string // what the card is, for the PDF outline
+	Page   Page
+	Blocks []Block
+}
+
+// Problem is one failed layout check.
+type Problem struct {
+	Block string
+	Msg   string
+}
+
+func (p Problem) String() string { return p.Block + ": " + p.Msg }
+
+// Check runs the layout checks: every block inside the page, no two blocks
+// overlapping, every shape and text inside its block, every text narrower than its
+// box, and the minimum font sizes.
+func (c *Card) Check() []Problem {
+	var out []Problem
+	page := Rect{0, 0, c.Page.WidthMM, c.Page.HeightMM}
+	for i, b := range c.Blocks {
+		if !b.Box.Inside(page) {
+			out = append(out, Problem{b.Name, fmt.Sprintf("block %+v leaves the page %+v", b.Box, page)})
+		}
+		for _, o := range c.Blocks[i+1:] {
+			if b.Box.Overlaps(o.Box) {
+				out = append(out, Problem{b.Name, "overlaps block " + o.Name})
+			}
+		}
+		for _, s := range b.Shapes {
+			box := s.Box
+			if s.Kind == Line {
+				box = Rect{math.Min(s.Box.X, s.Box.X+s.Box.W), math.Min(s.Box.Y, s.Box.Y+s.Box.H), math.Abs(s.Box.W), math.Abs(s.Box.H)}
+			}
+			if !box.Inside(b.Box) {
+				out = append(out, Problem{b.Name, fmt.Sprintf("shape %+v leaves the block", s.Box)})
+			}
+		}
+		for _, t := range b.Texts {
+			if !t.Box.Inside(b.Box) {
+				out = append(out, Problem{b.Name, fmt.Sprintf("text %q box leaves the block", t.S)})
+			}
+			if t.WidthMM > t.Box.W+1e-6 {
+				out = append(out, Problem{b.Name, fmt.Sprintf("text %q is %.1f mm wide in a %.1f mm box", t.S, t.WidthMM, t.Box.W)})
+			}
+			if t.SizePt < MinTextPt-1e-9 {
+				out = append(out, Problem{b.Name, fmt.Sprintf("text %q at %.1f pt, below %.1f pt", t.S, t.SizePt, MinTextPt)})
+			}
+			if t.Role == Number && t.SizePt < MinNumberPt-1e-9 {
+				out = append(out, Problem{b.Name, fmt.Sprintf("number %q at %.1f pt, below %.1f pt", t.S, t.SizePt, MinNumberPt)})
+			}
+			if t.SizePt*ptMM > t.Box.H+1e-6 {
+				out = append(out, Problem{b.Name, fmt.Sprintf("text %q at %.1f pt is taller than its %.1f mm box", t.S, t.SizePt, t.Box.H)})
+			}
+		}
+	}
+	return out
+}
+
+// ptMM is one typographic point in millimetres (1/72 inch).
+const ptMM = 25.4 / 72

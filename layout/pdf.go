@@ -1,0 +1,156 @@
+package layout
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"time"
+
+	"codeberg.org/go-pdf/fpdf"
+)
+
+// RenderOptions controls the PDF.
+type RenderOptions struct {
+	// Sheet, when set, imposes two cards side by side on each landscape sheet with
+	// cut marks; otherwise each card is one page of its own size.
+	Sheet *Sheet
+	// Compress deflates page streams: smaller files, more CPU per page.
+	Compress bool
+	// Date is written as creation and modification date, so that the same inputs
+	// give a byte-identical file.
+	Date   time.Time
+	Title  string
+	Author string
+}
+
+const fontFamily = "go"
+
+// RenderPDF writes cards to w as one PDF. fpdf keeps a sticky error: it is checked
+// once, at Output.
+func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
+	if len(cards) == 0 {
+		return errors.New("no cards to render")
+	}
+	p := cards[0].Page
+	for _, c := range cards[1:] {
+		if c.Page != p {
+			return errors.New("all cards of one PDF must have the same page size")
+		}
+	}
+	size := fpdf.SizeType{Wd: p.WidthMM, Ht: p.HeightMM}
+	orient := "P"
+	if opt.Sheet != nil {
+		if !opt.Sheet.Fits(p) {
+			return fmt.Errorf("two %s cards do not fit side by side on a %s sheet", p.Name, opt.Sheet.Name)
+		}
+		// fpdf swaps width and height for "L": give the portrait size.
+		size, orient = fpdf.SizeType{Wd: opt.Sheet.HeightMM, Ht: opt.Sheet.WidthMM}, "L"
+	}
+	pdf := fpdf.NewCustom(&fpdf.InitType{OrientationStr: orient, UnitStr: "mm", Size: size})
+	pdf.SetCompression(opt.Compress)
+	pdf.SetCatalogSort(true)
+	pdf.SetCreationDate(opt.Date)
+	pdf.SetModificationDate(opt.Date)
+	pdf.SetProducer("kneeprint", true)
+	pdf.SetCreator("kneeprint", true)
+	pdf.SetTitle(opt.Title, true)
+	pdf.SetAuthor(opt.Author, true)
+	pdf.SetAutoPageBreak(false, 0)
+	pdf.SetMargins(0, 0, 0)
+	pdf.AddUTF8FontFromBytes(fontFamily, "", fontBytes(Regular))
+	pdf.AddUTF8FontFromBytes(fontFamily, "B", fontBytes(Bold))
+
+	if opt.Sheet == nil {
+		for _, c := range cards {
+			pdf.AddPageFormat("P", size)
+			pdf.Bookmark(c.Title, 0, 0)
+			drawCard(pdf, c, 0, 0)
+		}
+	} else {
+		s := *opt.Sheet
+		offX, offY := (s.WidthMM-2*p.WidthMM)/2, (s.HeightMM-p.HeightMM)/2
+		for i := 0; i < len(cards); i += 2 {
+			pdf.AddPageFormat("L", size)
+			for j := 0; j < 2 && i+j < len(cards); j++ {
+				pdf.Bookmark(cards[i+j].Title, 0, 0)
+				drawCard(pdf, cards[i+j], offX+float64(j)*p.WidthMM, offY)
+			}
+			cutMarks(pdf, s, p, offX, offY)
+		}
+	}
+	return pdf.Output(w)
+}
+
+func setColor(pdf *fpdf.Fpdf, c Color) {
+	pdf.SetDrawColor(int(c.R), int(c.G), int(c.B))
+	pdf.SetFillColor(int(c.R), int(c.G), int(c.B))
+	pdf.SetTextColor(int(c.R), int(c.G), int(c.B))
+}
+
+func drawCard(pdf *fpdf.Fpdf, c *Card, dx, dy float64) {
+	for _, b := range c.Blocks {
+		for _, s := range b.Shapes {
+			drawShape(pdf, s, dx, dy)
+		}
+		for _, t := range b.Texts {
+			style := ""
+			if t.Style == Bold {
+				style = "B"
+			}
+			pdf.SetFont(fontFamily, style, t.SizePt)
+			setColor(pdf, t.Color)
+			x := t.Box.X
+			switch t.Align {
+			case Center:
+				x += (t.Box.W - t.WidthMM) / 2
+			case Right:
+				x += t.Box.W - t.WidthMM
+			}
+			// Baseline: digits and capitals (about 0.7 em tall) centred in the box.
+			base := t.Box.Y + t.Box.H/2 + 0.35*t.SizePt*ptMM
+			pdf.Text(x+dx, base+dy, t.S)
+		}
+	}
+}
+
+func drawShape(pdf *fpdf.Fpdf, s Shape, dx, dy float64) {
+	setColor(pdf, s.Color)
+	r := s.Box
+	r.X += dx
+	r.Y += dy
+	switch s.Kind {
+	case FillRect:
+		pdf.Rect(r.X, r.Y, r.W, r.H, "F")
+	case StrokeRect:
+		pdf.SetLineWidth(s.LineMM)
+		pdf.Rect(r.X, r.Y, r.W, r.H, "D")
+	case Line:
+		pdf.SetLineWidth(s.LineMM)
+		pdf.Line(r.X, r.Y, r.X+r.W, r.Y+r.H)
+	case Hatch:
+		pdf.SetLineWidth(s.LineMM)
+		pdf.ClipRect(r.X, r.Y, r.W, r.H, false)
+		for off := -r.H; off < r.W; off += s.SpaceMM {
+			pdf.Line(r.X+off, r.Y+r.H, r.X+off+r.H, r.Y)
+		}
+		pdf.ClipEnd()
+	}
+}
+
+// cutMarks draws short marks on the sheet's edges along every cut line.
+func cutMarks(pdf *fpdf.Fpdf, s Sheet, p Page, offX, offY float64) {
+	setColor(pdf, Grey)
+	pdf.SetLineWidth(0.2)
+	const l = 4.0
+	for i := 0; i <= 2; i++ {
+		x := offX + float64(i)*p.WidthMM
+		pdf.Line(x, 0, x, l)
+		pdf.Line(x, s.HeightMM-l, x, s.HeightMM)
+	}
+	if offY > 0.5 {
+		for _, y := range []float64{offY, offY + p.HeightMM} {
+			pdf.Line(0, y, l, y)
+			pdf.Line(s.WidthMM-l, y, s.WidthMM, y)
+		}
+	}
+}
