@@ -71,13 +71,13 @@ const (
 
 // Text is one line of text in a box; Y is the top of the box.
 type Text struct {
-	Box    Rect
-	S      string
-	SizePt float64
-	Style  FontStyle
-	Align  Align
-	Color  Color
-	Role   Role
+	Box     Rect
+	S       string
+	SizePt  float64
+	Style   FontStyle
+	Align   Align
+	Color   Color
+	Role    Role
 	WidthMM float64 // the measured width of S at SizePt
 }
 

@@ -52,7 +52,9 @@ func SheetByName(name string) (Sheet, error) {
 }
 
 // Fits reports whether two cards of page p fit side by side on sheet s.
-func (s Sheet) Fits(p Page) bool { return 2*p.WidthMM <= s.WidthMM+1e-9 && p.HeightMM <= s.HeightMM+1e-9 }
+func (s Sheet) Fits(p Page) bool {
+	return 2*p.WidthMM <= s.WidthMM+1e-9 && p.HeightMM <= s.HeightMM+1e-9
+}
 
 func keys[V any](m map[string]V) []string {
 	var out []string

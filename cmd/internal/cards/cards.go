@@ -363,3 +363,7 @@ func WriteAtomic(path string, data []byte) (err error) {
 	}
 	return os.Rename(tmp.Name(), path)
 }
+
+// SampleVersion is the version printed on the committed sample cards, so that they
+// do not change with every release.
+const SampleVersion = "sample"
