@@ -28,6 +28,7 @@ type Document struct {
 	Aircraft *perf.Aircraft
 	Airfield *perf.Airfield
 	Template *CardTemplate
+	Plan     *Plan
 	Defaults []string // defaults applied, one sentence each
 	Warnings []string // things that are legal but look wrong
 }
@@ -45,19 +46,23 @@ func Parse(name string, data []byte) (*Document, error) {
 		case root.Kind != yaml.MappingNode:
 			// reported by mapping
 		case kindNode == nil:
-			d.errorf(root, "kind", "missing required field \"kind\": say what this file is (kind: aircraft, airfield or card-template)")
+			d.errorf(root, "kind", "missing required field \"kind\": say what this file is (kind: aircraft, airfield, card-template or plan)")
 		case kindNode.Value == string(KindAircraft):
 			doc.Kind = KindAircraft
 			doc.Aircraft = d.aircraft(m)
 		case kindNode.Value == string(KindAirfield):
 			doc.Kind = KindAirfield
 			doc.Airfield = d.airfield(m)
+		case kindNode.Value == string(KindPlan):
+			doc.Kind = KindPlan
+			m.get("kind", true)
+			doc.Plan = d.plan(m)
 		case kindNode.Value == string(KindCardTemplate):
 			doc.Kind = KindCardTemplate
 			m.get("kind", true)
 			doc.Template = d.cardTemplate(m)
 		default:
-			d.errorf(kindNode, "kind", "%q is not a kind of kneeprint file: aircraft, airfield or card-template", kindNode.Value)
+			d.errorf(kindNode, "kind", "%q is not a kind of kneeprint file: aircraft, airfield, card-template or plan", kindNode.Value)
 		}
 	}
 	doc.Defaults, doc.Warnings = d.notes, d.warns

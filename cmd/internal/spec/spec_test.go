@@ -175,7 +175,7 @@ func FuzzParse(f *testing.F) {
 	}
 	f.Fuzz(func(t *testing.T, data []byte) {
 		doc, err := Parse("fuzz.yaml", data)
-		if err == nil && doc.Aircraft == nil && doc.Airfield == nil {
+		if err == nil && doc.Aircraft == nil && doc.Airfield == nil && doc.Template == nil && doc.Plan == nil {
 			t.Fatalf("no error and nothing read")
 		}
 		var list ErrorList
