@@ -5,15 +5,17 @@ package templates
 import "embed"
 
 // FS holds starter/*.yaml, aircraft/*.yaml (the demo aircraft, invented) and
-// cards/*.yaml (the card presets).
+// cards/*.yaml (the card presets) and plans/*.yaml (the demo season plan).
 //
-//go:embed starter/*.yaml aircraft/*.yaml cards/*.yaml
+//go:embed starter/*.yaml aircraft/*.yaml cards/*.yaml plans/*.yaml
 var FS embed.FS
 
 // Starter file names in FS, by kind.
 const (
 	StarterAircraft = "starter/aircraft.yaml"
 	StarterAirfield = "starter/airfield.yaml"
+	StarterPlan     = "starter/plan.yaml"
+	DemoPlan        = "plans/demo-season.yaml"
 )
 
 // DemoAircraftDir is the folder of FS holding the invented demo aircraft.

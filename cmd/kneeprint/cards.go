@@ -1,17 +1,20 @@
 package main
 
 import (
+	"context"
 	"errors"
 	"fmt"
-	"io/fs"
 	"os"
-	"sort"
+	"os/signal"
+	"path/filepath"
 	"strings"
+	"syscall"
 	"time"
 
 	"github.com/spf13/cobra"
+	"golang.org/x/term"
 
-	"kneeprint/cmd/internal/cards"
+	"kneeprint/cmd/internal/batch"
 	"kneeprint/cmd/internal/inputs"
 	"kneeprint/cmd/internal/spec"
 	"kneeprint/layout"
@@ -21,6 +24,7 @@ import (
 
 type cardsOptions struct {
 	demo               bool
+	plan               string
 	aircraft, airfield string
 	template           string
 	page, sheet        string
@@ -28,21 +32,28 @@ type cardsOptions struct {
 	date, validUntil   string
 	out                string
 	noCompress         bool
+	workers            int
 }
 
 func newCardsCmd(e env) *cobra.Command {
 	opts := &cardsOptions{}
 	cmd := &cobra.Command{
-		Use:   "cards (--demo | --aircraft FILE --airfield FILE) -o DIR [flags]",
+		Use:   "cards (--demo | --aircraft FILE --airfield FILE | --plan PLAN) -o DIR [flags]",
 		Short: "Write kneeboard cards: one PDF per aircraft and airfield, one card per runway end",
 		Long: `cards computes every runway end's grid and writes printable kneeboard cards, one PDF
 per aircraft x airfield and one page per runway end (or one sheet per two cards with
---sheet). The same inputs and --date give a byte-identical PDF. Card presets (page,
-unit, axes, margin, policy) are YAML: a5 (default), half-letter, 5x8, or your own file.
-Files are written atomically: a crash never leaves half a PDF.
+--sheet). A plan file (kind: plan) names a whole season: every aircraft at every
+airfield with every card template. Cards are made in parallel; each file is written
+to a temporary name and renamed into place, so a crash or Ctrl-C never leaves half a
+PDF. The folder gets an index (kneeprint-index.json) that 'kneeprint stale' reads.
+The same inputs and --date give byte-identical PDFs. Exit 1 if any card failed.
+
+Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-letter,
+5x8, or your own file (copy one from templates/cards/).
 
 ` + caution,
 		Example: `  kneeprint cards --demo -o cards
+  kneeprint cards --plan season-2027.yaml
   kneeprint cards --aircraft my-plane.yaml --airfield home.yaml --template half-letter --date 2027-03-01 --valid-until 2027-10-31 -o cards
   kneeprint cards --demo --sheet a4 -o print`,
 		Args: cobra.NoArgs,
@@ -50,38 +61,29 @@ Files are written atomically: a crash never leaves half a PDF.
 	}
 	f := cmd.Flags()
 	f.BoolVar(&opts.demo, "demo", false, "every embedded demo aircraft at every demo airfield (invented data)")
+	f.StringVar(&opts.plan, "plan", "", "a plan file: aircraft, airfields, templates, dates, output folder")
 	f.StringVar(&opts.aircraft, "aircraft", "", "aircraft profile file, or demo:NAME")
 	f.StringVar(&opts.airfield, "airfield", "", "airfield file, or demo:NAME")
 	f.StringVar(&opts.template, "template", templates.DefaultCard, "card preset: a5, half-letter, 5x8, or a card-template file")
 	f.StringVar(&opts.page, "page", "", "card size a5|half-letter|5x8 (default: the template's)")
 	f.StringVar(&opts.sheet, "sheet", "", "print two cards per a4|letter sheet, with cut marks")
 	f.StringVar(&opts.policy, "policy", "", "safety policy (default: the template's): "+policyList())
-	f.StringVar(&opts.date, "date", "", "card date YYYY-MM-DD (default: today)")
+	f.StringVar(&opts.date, "date", "", "card date YYYY-MM-DD (default: today; a plan gives its own)")
 	f.StringVar(&opts.validUntil, "valid-until", "", "valid-until date YYYY-MM-DD (default: date + the template's valid_days)")
-	f.StringVarP(&opts.out, "out", "o", "", "output folder (created if needed)")
+	f.StringVarP(&opts.out, "out", "o", "", "output folder, created if needed (a plan gives its own)")
 	f.BoolVar(&opts.noCompress, "no-compress", false, "do not deflate page streams (faster, larger files)")
+	f.IntVar(&opts.workers, "workers", 0, "cards made at once (default: the number of CPUs)")
 	return cmd
 }
 
 // loadTemplate resolves a preset name or a file.
 func loadTemplate(arg string) (*spec.CardTemplate, error) {
-	var doc *spec.Document
-	var err error
-	if _, statErr := fs.Stat(templates.FS, templates.CardsDir+"/"+arg+".yaml"); statErr == nil {
-		doc, err = spec.Load(templates.FS, templates.CardsDir+"/"+arg+".yaml")
-	} else {
-		if _, statErr := os.Stat(arg); statErr != nil {
-			return nil, fmt.Errorf("--template %q: not a preset (a5, half-letter, 5x8) nor a readable file", arg)
-		}
-		doc, err = spec.LoadFile(arg)
-	}
-	if err != nil {
+	t, err := inputs.Template(arg)
+	var list spec.ErrorList
+	if errors.As(err, &list) {
 		return nil, fileError(err)
 	}
-	if doc.Kind != spec.KindCardTemplate {
-		return nil, dataError{fmt.Errorf("%s: kind: this is an %s file, a card-template file is needed here", arg, doc.Kind)}
-	}
-	return doc.Template, nil
+	return t, err
 }
 
 func parseDate(flag, s string) (time.Time, error) {
@@ -92,115 +94,121 @@ func parseDate(flag, s string) (time.Time, error) {
 	return t, nil
 }
 
-func cardsRun(e env, opts *cardsOptions) error {
+// planFromFlags builds the plan a command line describes.
+func planFromFlags(e env, opts *cardsOptions) (*spec.Plan, error) {
+	modes := 0
+	for _, on := range []bool{opts.demo, opts.plan != "", opts.aircraft != "" || opts.airfield != ""} {
+		if on {
+			modes++
+		}
+	}
+	if modes != 1 {
+		return nil, errors.New("give one of --demo, --plan FILE, or --aircraft and --airfield")
+	}
+	if opts.plan != "" {
+		p, err := batch.LoadPlan(opts.plan)
+		if err != nil {
+			return nil, fileError(err)
+		}
+		return p, nil
+	}
 	if opts.out == "" {
-		return errors.New("-o DIR is required: the folder the cards are written to")
+		return nil, errors.New("-o DIR is required: the folder the cards are written to")
 	}
-	if opts.demo == (opts.aircraft != "" || opts.airfield != "") {
-		return errors.New("give either --demo, or --aircraft and --airfield")
+	p := &spec.Plan{Name: "command line", Templates: []string{opts.template}, Output: opts.out}
+	if opts.demo {
+		ac, af := inputs.Demo()
+		for _, s := range ac {
+			p.Aircraft = append(p.Aircraft, inputs.DemoPrefix+strings.TrimSuffix(filepath.Base(s.Path), ".yaml"))
+		}
+		for _, s := range af {
+			p.Airfields = append(p.Airfields, inputs.DemoPrefix+strings.TrimSuffix(filepath.Base(s.Path), ".yaml"))
+		}
+	} else {
+		if opts.aircraft == "" || opts.airfield == "" {
+			return nil, errors.New("--aircraft and --airfield are both needed")
+		}
+		p.Aircraft, p.Airfields = []string{opts.aircraft}, []string{opts.airfield}
 	}
-	tmpl, err := loadTemplate(opts.template)
+	now := e.now().UTC()
+	p.Date = time.Date(now.Year(), now.Month(), now.Day(), 0, 0, 0, 0, time.UTC)
+	return p, nil
+}
+
+func cardsRun(e env, opts *cardsOptions) error {
+	plan, err := planFromFlags(e, opts)
 	if err != nil {
 		return err
+	}
+	planDir := ""
+	if opts.plan != "" {
+		planDir = filepath.Dir(opts.plan)
+	}
+	// Command-line settings override the plan's.
+	if opts.date != "" {
+		if plan.Date, err = parseDate("date", opts.date); err != nil {
+			return err
+		}
+	}
+	if opts.validUntil != "" {
+		if plan.ValidUntil, err = parseDate("valid-until", opts.validUntil); err != nil {
+			return err
+		}
+	}
+	if !plan.ValidUntil.IsZero() && !plan.ValidUntil.After(plan.Date) {
+		return errors.New("--valid-until must be after --date")
 	}
 	if opts.policy != "" {
 		if _, err := perf.PolicyByID(opts.policy); err != nil {
 			return err
 		}
-		tmpl.Policy = opts.policy
+		plan.Policy = opts.policy
 	}
-	pageName := tmpl.Page
-	if opts.page != "" {
-		pageName = opts.page
-	}
-	page, err := layout.PageByName(pageName)
-	if err != nil {
-		return err
-	}
-	var sheet *layout.Sheet
 	if opts.sheet != "" {
-		s, err := layout.SheetByName(opts.sheet)
-		if err != nil {
+		if _, err := layout.SheetByName(opts.sheet); err != nil {
 			return err
 		}
-		sheet = &s
+		plan.Sheet = opts.sheet
 	}
-	now := e.now().UTC()
-	date := time.Date(now.Year(), now.Month(), now.Day(), 0, 0, 0, 0, time.UTC)
-	if opts.date != "" {
-		if date, err = parseDate("date", opts.date); err != nil {
+	if opts.plan == "" {
+		// Check the template now: a wrong name is a usage error, not a failed card.
+		if _, err := loadTemplate(opts.template); err != nil {
 			return err
 		}
 	}
-	valid := date.AddDate(0, 0, tmpl.ValidDays)
-	if opts.validUntil != "" {
-		if valid, err = parseDate("valid-until", opts.validUntil); err != nil {
+	if opts.page != "" {
+		if _, err := layout.PageByName(opts.page); err != nil {
 			return err
 		}
-		if !valid.After(date) {
-			return errors.New("--valid-until must be after --date")
-		}
 	}
-
-	var acArgs, afArgs []string
-	if opts.demo {
-		ac, af := inputs.Demo()
-		for _, s := range ac {
-			acArgs = append(acArgs, inputs.DemoPrefix+strings.TrimSuffix(s.Path[strings.LastIndex(s.Path, "/")+1:], ".yaml"))
-		}
-		for _, s := range af {
-			afArgs = append(afArgs, inputs.DemoPrefix+strings.TrimSuffix(s.Path[strings.LastIndex(s.Path, "/")+1:], ".yaml"))
-		}
-	} else {
-		acArgs, afArgs = []string{opts.aircraft}, []string{opts.airfield}
-	}
-	if err := os.MkdirAll(opts.out, 0o755); err != nil {
+	prep, err := batch.Prepare(plan, planDir, opts.out, version, !opts.noCompress)
+	if err != nil {
 		return dataError{err}
 	}
-	fonts, err := layout.NewFonts()
-	if err != nil {
-		return err
-	}
-	failed := 0
-	for _, aa := range acArgs {
-		a, _, err := inputs.Aircraft(aa)
-		if err != nil {
-			failed++
-			fmt.Fprintf(e.stderr, "%s: %v\n", aa, err)
-			continue
-		}
-		for _, fa := range afArgs {
-			f, _, err := inputs.Airfield(fa)
-			if err != nil {
-				failed++
-				fmt.Fprintf(e.stderr, "%s: %v\n", fa, err)
-				continue
-			}
-			job := &cards.Job{Aircraft: a, Airfield: f, Template: *tmpl, Page: page, Sheet: sheet,
-				Date: date, ValidUntil: valid, Version: version, Compress: !opts.noCompress}
-			res, err := job.Write(opts.out, fonts)
-			if err != nil {
-				failed++
-				fmt.Fprintf(e.stderr, "%s at %s: %v\n", a.Name, f.Ident, err)
-				continue
-			}
-			fmt.Fprintf(e.stdout, "wrote %s (%d page(s))\n", res.Path, res.Pages)
-			for _, s := range res.Ends {
-				fmt.Fprintf(e.stdout, "  %-4s %s  fingerprint %s\n", s.Designator, countsText(s.Counts), s.Fingerprint)
-			}
+	if opts.page != "" {
+		page, _ := layout.PageByName(opts.page)
+		for _, en := range prep.Entries {
+			en.Job.Page = page
+			en.Job.Template.Page = page.Name
+			en.Name = en.Job.FileName()
 		}
 	}
-	if failed > 0 {
-		return dataError{fmt.Errorf("%d card file(s) could not be made", failed)}
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
+	progress := batch.NewProgress(e.stderr, isTerminal(e.stderr))
+	if opts.plan == "" {
+		progress = batch.NewProgress(e.stdout, false)
+	}
+	sum := prep.Run(ctx, batch.Options{Workers: opts.workers, Progress: progress})
+	sum.WriteSummary(e.stdout)
+	if sum.Failed() {
+		return dataError{errors.New("not every card was made: see the errors above")}
 	}
 	return nil
 }
 
-func countsText(c map[perf.State]int) string {
-	var parts []string
-	for _, s := range perf.States() {
-		parts = append(parts, fmt.Sprintf("%s %d", s, c[s]))
-	}
-	sort.Strings(nil)
-	return strings.Join(parts, ", ")
+// isTerminal reports whether w is a terminal (for the progress bar).
+func isTerminal(w any) bool {
+	f, ok := w.(*os.File)
+	return ok && term.IsTerminal(int(f.Fd()))
 }

@@ -16,9 +16,9 @@ func TestCardsDemo(t *testing.T) {
 	require.Equal(t, exitOK, code, errOut)
 	entries, err := os.ReadDir(dir)
 	require.NoError(t, err)
-	assert.Len(t, entries, 4, "2 aircraft x 2 airfields")
+	assert.Len(t, entries, 5, "2 aircraft x 2 airfields, and the index")
 	for _, e := range entries {
-		assert.True(t, strings.HasSuffix(e.Name(), ".pdf"), "no temporary file left: %s", e.Name())
+		assert.True(t, strings.HasSuffix(e.Name(), ".pdf") || e.Name() == "kneeprint-index.json", "no temporary file left: %s", e.Name())
 	}
 	assert.Contains(t, out, "kp-spm_pipwing-pw-2-demo-trainer_a5.pdf (2 page(s))")
 	assert.Contains(t, out, "no-go")
@@ -48,9 +48,9 @@ func TestCardsBadInput(t *testing.T) {
 		assert.Equal(t, exitUsage, code, strings.Join(args, " ")+": "+errOut)
 	}
 	// A bad airfield file is reported with file and line, and nothing is written for it.
-	code, _, errOut := runCLI(t, "cards", "--aircraft", "demo:pipwing-pw2", "--airfield", "../internal/spec/testdata/bad/af-toda-short.yaml", "-o", dir)
+	code, out, _ := runCLI(t, "cards", "--aircraft", "demo:pipwing-pw2", "--airfield", "../internal/spec/testdata/bad/af-toda-short.yaml", "-o", dir)
 	assert.Equal(t, exitFailure, code)
-	assert.Contains(t, errOut, "af-toda-short.yaml:10:15: runways[0].ends[0].toda")
+	assert.Contains(t, out, "af-toda-short.yaml:10:15: runways[0].ends[0].toda")
 	entries, _ := os.ReadDir(dir)
 	assert.Empty(t, entries)
 }

@@ -23,16 +23,18 @@ type initOptions struct {
 func newInitCmd(e env) *cobra.Command {
 	opts := &initOptions{}
 	cmd := &cobra.Command{
-		Use:   "init (aircraft|airfield FILE | --demo DIR)",
+		Use:   "init (aircraft|airfield|plan FILE | --demo DIR)",
 		Short: "Write a commented starter file, or copy the demo files to a folder",
 		Long: `init aircraft FILE writes a commented aircraft profile to fill in from your own flight
 manual; init airfield FILE writes an airfield file to fill in from your aerodrome's
-published data. init --demo DIR copies every embedded demo file (invented aircraft
-and airfields) into DIR so you can copy and adapt them. Existing files are never
+published data; init plan FILE writes a season plan. init --demo DIR copies every
+embedded demo file (invented aircraft and airfields, and a plan naming them) into DIR
+so you can copy and adapt them. Existing files are never
 overwritten unless --force is given.`,
 		Example: `  kneeprint init aircraft my-trainer.yaml
   kneeprint init airfield home.yaml
-  kneeprint init --demo ./demo-files`,
+  kneeprint init plan season-2027.yaml
+  kneeprint init --demo ./demo-files && kneeprint cards --plan ./demo-files/demo-season.yaml`,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			switch {
 			case opts.demoDir != "" && len(args) == 0:
@@ -41,7 +43,7 @@ overwritten unless --force is given.`,
 				opts.kind, opts.file = args[0], args[1]
 				return initStarterRun(e, opts)
 			default:
-				return errors.New("init takes either aircraft|airfield FILE, or --demo DIR")
+				return errors.New("init takes either aircraft|airfield|plan FILE, or --demo DIR")
 			}
 		},
 	}
@@ -57,8 +59,10 @@ func initStarterRun(e env, opts *initOptions) error {
 		name = templates.StarterAircraft
 	case "airfield":
 		name = templates.StarterAirfield
+	case "plan":
+		name = templates.StarterPlan
 	default:
-		return fmt.Errorf("init: %q is not a kind of starter: aircraft or airfield", opts.kind)
+		return fmt.Errorf("init: %q is not a kind of starter: aircraft, airfield or plan", opts.kind)
 	}
 	data, err := fs.ReadFile(templates.FS, name)
 	if err != nil {
@@ -76,7 +80,9 @@ func initDemoRun(e env, opts *initOptions) error {
 	if err := os.MkdirAll(opts.demoDir, 0o755); err != nil {
 		return dataError{err}
 	}
-	for _, s := range append(ac, af...) {
+	all := append(ac, af...)
+	all = append(all, inputs.Source{FS: templates.FS, Path: templates.DemoPlan})
+	for _, s := range all {
 		data, err := fs.ReadFile(s.FS, s.Path)
 		if err != nil {
 			return err

@@ -35,7 +35,7 @@ func TestValidateDemo(t *testing.T) {
 
 func TestInitStartersValidate(t *testing.T) {
 	dir := t.TempDir()
-	for _, kind := range []string{"aircraft", "airfield"} {
+	for _, kind := range []string{"aircraft", "airfield", "plan"} {
 		p := filepath.Join(dir, kind+".yaml")
 		code, _, errOut := runCLI(t, "init", kind, p)
 		require.Equal(t, exitOK, code, errOut)
@@ -54,7 +54,7 @@ func TestInitDemoRoundTrip(t *testing.T) {
 	require.Equal(t, exitOK, code, errOut)
 	entries, err := os.ReadDir(dir)
 	require.NoError(t, err)
-	require.Len(t, entries, 4)
+	require.Len(t, entries, 5)
 	args := []string{"validate"}
 	for _, e := range entries {
 		args = append(args, filepath.Join(dir, e.Name()))

@@ -75,6 +75,8 @@ applies the published corrections and safety factors, and prints kneeboard cards
 		newCheckCmd(e),
 		newGridCmd(e),
 		newCardsCmd(e),
+		newStaleCmd(e),
+		newDiffCmd(e),
 		newVersionCmd(e),
 	)
 	return root

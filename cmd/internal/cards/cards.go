@@ -5,6 +5,7 @@ package cards
 
 import (
 	"bytes"
+	"context"
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
@@ -39,6 +40,8 @@ type Job struct {
 	ValidUntil time.Time
 	Version    string
 	Compress   bool
+
+	aircraftHash, templateHash string // cached by Fingerprint
 }
 
 // EndSummary counts the states of one runway end's cells.
@@ -222,25 +225,54 @@ func policyLine(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) string {
 
 // Fingerprint is a short hash of the canonical form of every input that affects the
 // card of runway end e: the profile, the airfield's identity and elevation, this
-// runway end, the template (with its policy) and the kneeprint version.
+// runway end, the template (with its policy and page) and the kneeprint version. It is
+// built from the three component hashes, so that a stale card can say which input
+// changed.
 func (j *Job) Fingerprint(e perf.RunwayEnd) string {
-	canon := struct {
-		Aircraft *perf.Aircraft
-		Airfield struct {
-			Name, Ident string
-			ElevationM  float64
-		}
-		End      perf.RunwayEnd
-		Template spec.CardTemplate
-		Page     string
-		Version  string
-	}{Aircraft: j.Aircraft, End: e, Template: j.Template, Page: j.Page.Name, Version: j.Version}
-	canon.Airfield.Name, canon.Airfield.Ident, canon.Airfield.ElevationM = j.Airfield.Name, j.Airfield.Ident, j.Airfield.ElevationM
-	data, err := json.Marshal(canon)
-	if err != nil {
-		panic("kneeprint: fingerprint of plain data failed: " + err.Error()) // a programming defect
+	if j.aircraftHash == "" {
+		j.aircraftHash = AircraftHash(j.Aircraft)
+		j.templateHash = TemplateHash(j.Template, j.Page)
 	}
-	sum := sha256.Sum256(data)
+	return CombineFingerprint(j.aircraftHash, EndHash(j.Airfield, e), j.templateHash, j.Version)
+}
+
+// CombineFingerprint joins component hashes into a card fingerprint.
+func CombineFingerprint(aircraft, end, template, version string) string {
+	return shortHash(aircraft + "|" + end + "|" + template + "|" + version)
+}
+
+// AircraftHash is a short hash of the canonical form (JSON of the SI values) of a
+// profile: comments, key order and units written do not change it.
+func AircraftHash(a *perf.Aircraft) string { return canonicalHash(a) }
+
+// EndHash is a short hash of what a runway end's card depends on in the airfield file:
+// the airfield's name, identifier and elevation, and the end itself.
+func EndHash(f *perf.Airfield, e perf.RunwayEnd) string {
+	return canonicalHash(struct {
+		Name, Ident string
+		ElevationM  float64
+		End         perf.RunwayEnd
+	}{f.Name, f.Ident, f.ElevationM, e})
+}
+
+// TemplateHash is a short hash of a card template and the page it is printed on.
+func TemplateHash(t spec.CardTemplate, p layout.Page) string {
+	return canonicalHash(struct {
+		T    spec.CardTemplate
+		Page string
+	}{t, p.Name})
+}
+
+func canonicalHash(v any) string {
+	data, err := json.Marshal(v)
+	if err != nil {
+		panic("kneeprint: canonical form of plain data failed: " + err.Error()) // a programming defect
+	}
+	return shortHash(string(data))
+}
+
+func shortHash(s string) string {
+	sum := sha256.Sum256([]byte(s))
 	return hex.EncodeToString(sum[:])[:12]
 }
 
@@ -337,8 +369,19 @@ func (j *Job) Write(dir string, fonts *layout.Fonts) (Result, error) {
 	return Result{Path: path, Pages: pages, Ends: sums}, nil
 }
 
-// WriteAtomic writes data to path through a temporary file in the same folder.
-func WriteAtomic(path string, data []byte) (err error) {
+// WriteAtomic writes data to path through a temporary file in the same folder,
+// synced, then renamed into place: no reader ever sees half a file.
+func WriteAtomic(path string, data []byte) error {
+	return WriteAtomicCtx(context.Background(), path, data)
+}
+
+// SampleVersion is the version printed on the committed sample cards, so that they
+// do not change with every release.
+const SampleVersion = "sample"
+
+// WriteAtomicCtx is WriteAtomic that gives up, leaving nothing behind, when ctx is
+// cancelled before the file is renamed into place.
+func WriteAtomicCtx(ctx context.Context, path string, data []byte) (err error) {
 	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
 	if err != nil {
 		return err
@@ -361,9 +404,8 @@ func WriteAtomic(path string, data []byte) (err error) {
 	if err = os.Chmod(tmp.Name(), 0o644); err != nil {
 		return err
 	}
+	if err = ctx.Err(); err != nil {
+		return err
+	}
 	return os.Rename(tmp.Name(), path)
 }
-
-// SampleVersion is the version printed on the committed sample cards, so that they
-// do not change with every release.
-const SampleVersion = "sample"

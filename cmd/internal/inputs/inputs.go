@@ -5,7 +5,9 @@ package inputs
 import (
 	"fmt"
 	"io/fs"
+	"os"
 	"path"
+	"path/filepath"
 	"sort"
 	"strings"
 
@@ -108,4 +110,44 @@ func load(arg string, kind spec.Kind) (*spec.Document, error) {
 		return doc, spec.ErrorList{{File: src.Name, Field: "kind", Msg: fmt.Sprintf("this is an %s file, an %s file is needed here", doc.Kind, kind)}}
 	}
 	return doc, nil
+}
+
+// In resolves a file argument written in a file at dir (a plan): relative paths are
+// taken from dir; demo:NAME and absolute paths are kept.
+func In(dir, arg string) string {
+	if strings.HasPrefix(arg, DemoPrefix) || filepath.IsAbs(arg) || dir == "" {
+		return arg
+	}
+	return filepath.Join(dir, arg)
+}
+
+// Template loads a card template: a preset name (a5, half-letter, 5x8) or a file.
+func Template(arg string) (*spec.CardTemplate, error) {
+	var doc *spec.Document
+	var err error
+	preset := templates.CardsDir + "/" + arg + ".yaml"
+	if _, statErr := fs.Stat(templates.FS, preset); statErr == nil && !strings.ContainsAny(arg, `/\.`) {
+		doc, err = spec.Load(templates.FS, preset)
+	} else {
+		if _, statErr := os.Stat(arg); statErr != nil {
+			return nil, fmt.Errorf("template %q: not a preset (%s) nor a readable file", arg, strings.Join(Presets(), ", "))
+		}
+		doc, err = spec.LoadFile(arg)
+	}
+	if err != nil {
+		return nil, err
+	}
+	if doc.Kind != spec.KindCardTemplate {
+		return nil, spec.ErrorList{{File: arg, Field: "kind", Msg: fmt.Sprintf("this is an %s file, a card-template file is needed here", doc.Kind)}}
+	}
+	return doc.Template, nil
+}
+
+// Presets lists the embedded card presets.
+func Presets() []string {
+	var out []string
+	for _, s := range list(templates.FS, templates.CardsDir, "templates") {
+		out = append(out, strings.TrimSuffix(path.Base(s.Path), ".yaml"))
+	}
+	return out
 }

@@ -115,6 +115,8 @@ func TestEmbeddedFilesValidate(t *testing.T) {
 	}
 	check(t, templates.FS, "aircraft")
 	check(t, templates.FS, "starter")
+	check(t, templates.FS, "cards")
+	check(t, templates.FS, "plans")
 	check(t, airfields.FS, ".")
 }
 

@@ -17,6 +17,10 @@ func Summarize(w io.Writer, doc *Document) {
 		summarizeAirfield(w, doc.Airfield)
 	case doc.Aircraft != nil:
 		summarizeAircraft(w, doc.Aircraft)
+	case doc.Template != nil:
+		summarizeTemplate(w, doc.Template)
+	case doc.Plan != nil:
+		summarizePlan(w, doc.Plan)
 	}
 	if len(doc.Defaults) > 0 {
 		fmt.Fprintln(w, "  defaults applied:")
@@ -116,4 +120,19 @@ func abs(x float64) float64 {
 		return -x
 	}
 	return x
+}
+
+func summarizeTemplate(w io.Writer, t *CardTemplate) {
+	fmt.Fprintf(w, "  card template %q: page %s, unit %s, policy %s, QNH %.0f hPa, tight margin %.0f %%\n",
+		t.Name, t.Page, t.Unit, t.Policy, units.HPa(t.QNHPa), t.TightMargin*100)
+	fmt.Fprintf(w, "  %d temperatures x %d winds, up to %d weight blocks; valid %d days\n", len(t.TempsK), len(t.WindsMS), t.MaxBlocks, t.ValidDays)
+}
+
+func summarizePlan(w io.Writer, p *Plan) {
+	fmt.Fprintf(w, "  plan %q: %d aircraft x %d airfields x %d template(s) -> %s\n", p.Name, len(p.Aircraft), len(p.Airfields), len(p.Templates), p.Output)
+	fmt.Fprintf(w, "  date %s", p.Date.Format("2006-01-02"))
+	if !p.ValidUntil.IsZero() {
+		fmt.Fprintf(w, ", valid until %s", p.ValidUntil.Format("2006-01-02"))
+	}
+	fmt.Fprintln(w)
 }
