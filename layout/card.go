@@ -101,7 +101,8 @@ type builder struct {
 }
 
 func (b *builder) text(blk *Block, box Rect, s string, pt float64, st FontStyle, al Align, col Color, role Role) {
-	blk.Texts = append(blk.Texts, Text{Box: box, S: s, SizePt: pt, Style: st, Align: al, Color: col, Role: role, WidthMM: b.f.WidthMM(s, pt, st)})
+	blk.Texts = append(blk.Texts, Text{Box: box, S: s, SizePt: pt, Style: st, Align: al, Color: col, Role: role,
+		WidthMM: b.f.WidthMM(s, pt, st), Missing: string(b.f.Missing(s, st))})
 }
 
 // fitPt returns the largest size from pt down to minPt at which s fits maxW, or minPt.
@@ -139,10 +140,11 @@ func (b *builder) wrap(s string, maxW, pt float64, st FontStyle) []string {
 // paragraph places s at the top of box, wrapped, and returns the height used.
 func (b *builder) paragraph(blk *Block, x, y, w float64, s string, pt float64, st FontStyle) float64 {
 	lh := pt * ptMM * 1.25
-	for i, l := range b.wrap(s, w, pt, st) {
+	lines := b.wrap(s, w, pt, st)
+	for i, l := range lines {
 		b.text(blk, Rect{x, y + float64(i)*lh, w, lh}, l, pt, st, Left, Black, Label)
 	}
-	return float64(len(b.wrap(s, w, pt, st))) * lh
+	return float64(len(lines)) * lh
 }
 
 // Build lays out one card on page p. It fails when the grid cannot be printed with

@@ -79,6 +79,7 @@ type Text struct {
 	Color   Color
 	Role    Role
 	WidthMM float64 // the measured width of S at SizePt
+	Missing string  // characters of S the embedded font cannot print
 }
 
 // ShapeKind is a drawing primitive.
@@ -154,6 +155,9 @@ func (c *Card) Check() []Problem {
 			}
 			if t.WidthMM > t.Box.W+1e-6 {
 				out = append(out, Problem{b.Name, fmt.Sprintf("text %q is %.1f mm wide in a %.1f mm box", t.S, t.WidthMM, t.Box.W)})
+			}
+			if t.Missing != "" {
+				out = append(out, Problem{b.Name, fmt.Sprintf("text %q has characters the embedded font cannot print: %q", t.S, t.Missing)})
 			}
 			if t.SizePt < MinTextPt-1e-9 {
 				out = append(out, Problem{b.Name, fmt.Sprintf("text %q at %.1f pt, below %.1f pt", t.S, t.SizePt, MinTextPt)})

@@ -21,6 +21,8 @@ type RenderOptions struct {
 	Date   time.Time
 	Title  string
 	Author string
+	// Fonts supplies the embedded fonts, subset to what cards use; nil makes one.
+	Fonts *Fonts
 }
 
 const fontFamily = "go"
@@ -57,8 +59,25 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 	pdf.SetAuthor(opt.Author, true)
 	pdf.SetAutoPageBreak(false, 0)
 	pdf.SetMargins(0, 0, 0)
-	pdf.AddUTF8FontFromBytes(fontFamily, "", fontBytes(Regular))
-	pdf.AddUTF8FontFromBytes(fontFamily, "B", fontBytes(Bold))
+	fonts := opt.Fonts
+	if fonts == nil {
+		var err error
+		if fonts, err = NewFonts(); err != nil {
+			return err
+		}
+	}
+	used := [2]map[rune]bool{{}, {}}
+	for _, c := range cards {
+		for _, b := range c.Blocks {
+			for _, t := range b.Texts {
+				for _, r := range t.S {
+					used[t.Style][r] = true
+				}
+			}
+		}
+	}
+	pdf.AddUTF8FontFromBytes(fontFamily, "", fonts.pdfFont(Regular, used[Regular]))
+	pdf.AddUTF8FontFromBytes(fontFamily, "B", fonts.pdfFont(Bold, used[Bold]))
 
 	if opt.Sheet == nil {
 		for _, c := range cards {

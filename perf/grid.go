@@ -69,16 +69,62 @@ type Cell struct {
 	Limiting    string  // TORA, TODA or ASDA
 	HasDistance bool    // a required distance was computed
 	Covers      Effects // what the model's figure already includes
-	Reasons     []string
+	reasons     []reason
 }
 
-func (c *Cell) worsen(s State, reason string) {
+// reason is why a cell has its state, kept as numbers and formatted only when asked:
+// a season's cards hold millions of cells and print none of these sentences.
+type reason struct {
+	kind    reasonKind
+	a, b, c float64
+	s       string
+}
+
+type reasonKind int
+
+const (
+	reasonText reasonKind = iota
+	reasonMTOW
+	reasonTailwind
+	reasonCrosswind
+	reasonTemperature
+	reasonNoGo
+	reasonTight
+)
+
+func (r reason) String() string {
+	switch r.kind {
+	case reasonMTOW:
+		return fmt.Sprintf("weight %.0f kg above MTOW %.0f kg", r.a, r.b)
+	case reasonTailwind:
+		return fmt.Sprintf("tailwind %.0f kt above the %.0f kt limit", r.a/knot, r.b/knot)
+	case reasonCrosswind:
+		return fmt.Sprintf("crosswind %.0f kt above the demonstrated %.0f kt", r.a/knot, r.b/knot)
+	case reasonTemperature:
+		return fmt.Sprintf("temperature %.0f C outside the data's %.0f to %.0f C", r.a-273.15, r.b-273.15, r.c-273.15)
+	case reasonNoGo:
+		return fmt.Sprintf("%s: %.0f m required, %.0f m available", r.s, math.Ceil(r.a), math.Floor(r.b))
+	case reasonTight:
+		return fmt.Sprintf("%s: %.0f m required, %.0f m available, less than %.0f %% spare", r.s, math.Ceil(r.a), math.Floor(r.b), r.c*100)
+	}
+	return r.s
+}
+
+// Reasons says, in words, why the cell has its state: limits passed, the limiting
+// declared distance, notes from the model.
+func (c *Cell) Reasons() []string {
+	out := make([]string, len(c.reasons))
+	for i, r := range c.reasons {
+		out[i] = r.String()
+	}
+	return out
+}
+
+func (c *Cell) worsen(s State, r reason) {
 	if s > c.State {
 		c.State = s
 	}
-	if reason != "" {
-		c.Reasons = append(c.Reasons, reason)
-	}
+	c.reasons = append(c.reasons, r)
 }
 
 // Evaluate answers one Case: limits, wind factoring, the model (twice when the policy
@@ -87,16 +133,16 @@ func Evaluate(k Case) Cell {
 	a := k.Aircraft
 	c := Cell{TempK: k.TempK, HeadwindMS: k.Wind.HeadwindMS, CrosswindMS: math.Abs(k.Wind.GustCrosswindMS), MassKg: k.MassKg}
 	if k.MassKg > a.MTOWKg+1e-9 {
-		c.worsen(BeyondLimits, fmt.Sprintf("weight %.0f kg above MTOW %.0f kg", k.MassKg, a.MTOWKg))
+		c.worsen(BeyondLimits, reason{kind: reasonMTOW, a: k.MassKg, b: a.MTOWKg})
 	}
 	if tail := -k.Wind.HeadwindMS; tail > a.MaxTailwindMS+1e-9 {
-		c.worsen(BeyondLimits, fmt.Sprintf("tailwind %.0f kt above the %.0f kt limit", tail/knot, a.MaxTailwindMS/knot))
+		c.worsen(BeyondLimits, reason{kind: reasonTailwind, a: tail, b: a.MaxTailwindMS})
 	}
 	if a.MaxCrosswindMS > 0 && c.CrosswindMS > a.MaxCrosswindMS+1e-9 {
-		c.worsen(BeyondLimits, fmt.Sprintf("crosswind %.0f kt above the demonstrated %.0f kt", c.CrosswindMS/knot, a.MaxCrosswindMS/knot))
+		c.worsen(BeyondLimits, reason{kind: reasonCrosswind, a: c.CrosswindMS, b: a.MaxCrosswindMS})
 	}
 	if k.TempK > a.MaxTempK+1e-9 || k.TempK < a.MinTempK-1e-9 {
-		c.worsen(BeyondLimits, fmt.Sprintf("temperature %.0f C outside the data's %.0f to %.0f C", k.TempK-273.15, a.MinTempK-273.15, a.MaxTempK-273.15))
+		c.worsen(BeyondLimits, reason{kind: reasonTemperature, a: k.TempK, b: a.MinTempK, c: a.MaxTempK})
 	}
 
 	c.CreditedWindMS = CreditedWindMS(k.Wind.HeadwindMS, WindFactoringIncluded(k.Model))
@@ -114,27 +160,27 @@ func Evaluate(k Case) Cell {
 	}
 	if err != nil {
 		switch {
-		case errors.Is(err, ErrNoData):
-			c.worsen(NoData, err.Error())
 		case errors.Is(err, ErrCannotTakeOff):
-			c.worsen(NoGo, err.Error())
-		default:
-			c.worsen(NoData, err.Error())
+			c.worsen(NoGo, reason{s: err.Error()})
+		default: // ErrNoData, and anything unexpected: never a figure
+			c.worsen(NoData, reason{s: err.Error()})
 		}
 		return c
 	}
 	c.GroundRollM, c.To50ftM, c.AccelCheckM, c.LiftoffTASMS = actual.GroundRollM, actual.To50ftM, actual.AccelCheckM, actual.LiftoffTASMS
 	c.Covers = actual.Covers
-	c.Reasons = append(c.Reasons, actual.Notes...)
+	for _, n := range actual.Notes {
+		c.reasons = append(c.reasons, reason{s: n})
+	}
 	req := k.Policy.Require(actual, ref, k.End)
 	c.Requirement = req
 	c.RequiredM, c.AvailableM, c.Limiting = req.Limiting.RequiredM, req.Limiting.AvailableM, req.Limiting.Declared
 	c.HasDistance = true
 	switch {
 	case c.RequiredM > c.AvailableM:
-		c.worsen(NoGo, fmt.Sprintf("%s: %.0f m required, %.0f m available", c.Limiting, math.Ceil(c.RequiredM), math.Floor(c.AvailableM)))
+		c.worsen(NoGo, reason{kind: reasonNoGo, s: c.Limiting, a: c.RequiredM, b: c.AvailableM})
 	case c.RequiredM*(1+k.TightMargin) > c.AvailableM:
-		c.worsen(Tight, fmt.Sprintf("%s: %.0f m required, %.0f m available, less than %.0f %% spare", c.Limiting, math.Ceil(c.RequiredM), math.Floor(c.AvailableM), k.TightMargin*100))
+		c.worsen(Tight, reason{kind: reasonTight, s: c.Limiting, a: c.RequiredM, b: c.AvailableM, c: k.TightMargin})
 	}
 	return c
 }

@@ -31,7 +31,7 @@ func TestEvaluateStates(t *testing.T) {
 	k := Case{Aircraft: a, Model: m, Policy: eu, End: end, TempK: 273.15, MassKg: 900, TightMargin: 0.1}
 
 	c := Evaluate(k) // 400 x 1.25 = 500 <= 700 with 10 % spare
-	assert.Equal(t, Go, c.State, c.Reasons)
+	assert.Equal(t, Go, c.State, c.Reasons())
 	assert.InDelta(t, 500, c.RequiredM, 1e-9)
 	assert.Equal(t, "TORA", c.Limiting)
 
@@ -42,12 +42,12 @@ func TestEvaluateStates(t *testing.T) {
 	k.End.TORAM, k.End.TODAM, k.End.ASDAM = 480, 480, 480
 	c = Evaluate(k)
 	assert.Equal(t, NoGo, c.State)
-	assert.Contains(t, c.Reasons[len(c.Reasons)-1], "TORA: 500 m required, 480 m available")
+	assert.Contains(t, c.Reasons()[len(c.Reasons())-1], "TORA: 500 m required, 480 m available")
 
 	k.MassKg = 1150
 	c = Evaluate(k)
 	assert.Equal(t, BeyondLimits, c.State)
-	assert.Contains(t, c.Reasons[0], "above MTOW")
+	assert.Contains(t, c.Reasons()[0], "above MTOW")
 
 	k.MassKg = 900
 	k.Wind = Components{HeadwindMS: -12 * knot}
@@ -57,7 +57,7 @@ func TestEvaluateStates(t *testing.T) {
 	k.Wind = Components{GustCrosswindMS: 18 * knot}
 	c = Evaluate(k)
 	assert.Equal(t, BeyondLimits, c.State)
-	assert.Contains(t, c.Reasons[0], "crosswind 18 kt above the demonstrated 15 kt")
+	assert.Contains(t, c.Reasons()[0], "crosswind 18 kt above the demonstrated 15 kt")
 
 	k.Wind = Components{}
 	k.PressureAltM = 1500

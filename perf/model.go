@@ -81,3 +81,42 @@ func ModelFor(a *Aircraft) (Model, error) {
 	}
 	return nil, fmt.Errorf("aircraft %q: unknown model %q", a.Name, a.Model)
 }
+
+// Memo wraps a model so that the paved, dry, level reference figures are computed
+// once: a grid asks the same reference question for every runway end of an airfield,
+// so a memoized model answers it once per card file. Other conditions pass straight
+// through. Not safe for concurrent use: make one per goroutine.
+func Memo(m Model) Model {
+	if _, ok := m.(*memo); ok {
+		return m
+	}
+	return &memo{m: m, seen: make(map[memoKey]memoEntry, 256)}
+}
+
+type memoKey struct{ pa, temp, mass, wind float64 }
+
+type memoEntry struct {
+	r   Result
+	err error
+}
+
+type memo struct {
+	m    Model
+	seen map[memoKey]memoEntry
+}
+
+func (mm *memo) Takeoff(c Conditions) (Result, error) {
+	if !isReference(c) {
+		return mm.m.Takeoff(c)
+	}
+	k := memoKey{c.PressureAltM, c.TempK, c.MassKg, c.HeadwindMS}
+	if e, ok := mm.seen[k]; ok {
+		return e.r, e.err
+	}
+	r, err := mm.m.Takeoff(c)
+	mm.seen[k] = memoEntry{r, err}
+	return r, err
+}
+
+// WindFactoringIncluded passes the wrapped model's answer through.
+func (mm *memo) WindFactoringIncluded() bool { return WindFactoringIncluded(mm.m) }

@@ -54,7 +54,7 @@ func TestGroundRunClosedForm(t *testing.T) {
 		got, _, _, err := groundRun(constantThrustForces(tc.kt, tc.ka), 0, tc.vf, 0.7*tc.vf, DefaultStepMS, nil)
 		require.NoError(t, err)
 		assert.InEpsilon(t, want, got, 0.001, "got %.3f m, closed form %.3f m", got, want)
-		assert.InEpsilon(t, want, got, 1e-5, "the default step is far inside 0.1 %%: got %.6f m, want %.6f m", got, want)
+		assert.InEpsilon(t, want, got, 5e-5, "the default step is far inside 0.1 %%: got %.6f m, want %.6f m", got, want)
 	}
 }
 
@@ -169,12 +169,18 @@ func TestPhysicsCannotTakeOff(t *testing.T) {
 }
 
 func TestPhysicsStepIndependence(t *testing.T) {
-	c := Conditions{PressureAltM: 500, TempK: 300, MassKg: 1150, HeadwindMS: -3, SlopePct: 1, Surface: Grass, Condition: Wet}
-	fine := demoPhysics()
-	fine.StepMS = 0.05
-	a, err := fine.Takeoff(c)
-	require.NoError(t, err)
-	b, err := demoPhysics().Takeoff(c)
-	require.NoError(t, err)
-	assert.InEpsilon(t, a.GroundRollM, b.GroundRollM, 1e-5)
+	for _, c := range []Conditions{
+		{PressureAltM: 500, TempK: 300, MassKg: 1150, HeadwindMS: -3, SlopePct: 1, Surface: Grass, Condition: Wet},
+		{PressureAltM: 1600, TempK: 308, MassKg: 1250, HeadwindMS: -7.7, SlopePct: 1.1, Surface: Gravel, Condition: Dry},
+		{PressureAltM: 0, TempK: 273, MassKg: 950, HeadwindMS: 10, SlopePct: -1, Surface: Paved, Condition: Dry},
+	} {
+		fine := demoPhysics()
+		fine.StepMS = 0.05
+		a, err := fine.Takeoff(c)
+		require.NoError(t, err)
+		b, err := demoPhysics().Takeoff(c)
+		require.NoError(t, err)
+		assert.InEpsilon(t, a.GroundRollM, b.GroundRollM, 1e-5, "%+v", c)
+		assert.InEpsilon(t, a.AccelCheckM, b.AccelCheckM, 1e-5, "%+v", c)
+	}
 }

@@ -9,9 +9,18 @@ import (
 
 // Factor is one multiplier a policy applies, with its published source.
 type Factor struct {
-	Name   string
+	Name   string  // "dry grass", "upslope", ...
+	Pct    float64 // the slope it is for, for slope factors
 	Value  float64
 	Source string
+}
+
+// Label names the factor with its slope, e.g. "upslope 1.0 %".
+func (f Factor) Label() string {
+	if f.Name == "upslope" {
+		return fmt.Sprintf("upslope %.1f %%", f.Pct)
+	}
+	return f.Name
 }
 
 // Check compares one declared distance with what the policy requires of it.
@@ -54,13 +63,13 @@ var policies = map[string]Policy{
 		surface: func(s Surface, c Condition) Factor {
 			switch {
 			case s != Paved && c == Wet:
-				return Factor{"wet grass", 1.3, "AMC1 CAT.POL.A.305(e): wet grass on firm soil x1.3"}
+				return Factor{Name: "wet grass", Value: 1.3, Source: "AMC1 CAT.POL.A.305(e): wet grass on firm soil x1.3"}
 			case s != Paved:
-				return Factor{"dry grass", 1.2, "AMC1 CAT.POL.A.305(e): dry grass on firm soil x1.2"}
+				return Factor{Name: "dry grass", Value: 1.2, Source: "AMC1 CAT.POL.A.305(e): dry grass on firm soil x1.2"}
 			case c == Wet:
-				return Factor{"wet paved", 1.0, "AMC1 CAT.POL.A.305(e): wet paved x1.0"}
+				return Factor{Name: "wet paved", Value: 1.0, Source: "AMC1 CAT.POL.A.305(e): wet paved x1.0"}
 			}
-			return Factor{"dry paved", 1.0, "flight-manual basis"}
+			return Factor{Name: "dry paved", Value: 1.0, Source: "flight-manual basis"}
 		},
 		slope: slopeFivePerPercent("AMC2 CAT.POL.A.305(e)"),
 		checks: func(tod float64, e RunwayEnd) []Check {
@@ -81,13 +90,13 @@ var policies = map[string]Policy{
 		surface: func(s Surface, c Condition) Factor {
 			switch {
 			case s != Paved && c == Wet:
-				return Factor{"wet grass", 1.3, "SSL 7c: wet grass x1.3"}
+				return Factor{Name: "wet grass", Value: 1.3, Source: "SSL 7c: wet grass x1.3"}
 			case s != Paved:
-				return Factor{"dry grass", 1.2, "SSL 7c: dry grass x1.2"}
+				return Factor{Name: "dry grass", Value: 1.2, Source: "SSL 7c: dry grass x1.2"}
 			case c == Wet:
-				return Factor{"wet paved", 1.0, "SSL 7c: no takeoff factor for wet paved (from memory)"}
+				return Factor{Name: "wet paved", Value: 1.0, Source: "SSL 7c: no takeoff factor for wet paved (from memory)"}
 			}
-			return Factor{"dry paved", 1.0, "flight-manual basis"}
+			return Factor{Name: "dry paved", Value: 1.0, Source: "flight-manual basis"}
 		},
 		slope: slopeFivePerPercent("SSL 7c: 2 % uphill x1.1"),
 		checks: func(tod float64, e RunwayEnd) []Check {
@@ -103,9 +112,9 @@ var policies = map[string]Policy{
 func slopeFivePerPercent(src string) func(float64) Factor {
 	return func(pct float64) Factor {
 		if pct <= 0 {
-			return Factor{"level or downslope", 1.0, src + ": no credit for downslope"}
+			return Factor{Name: "level or downslope", Pct: pct, Value: 1.0, Source: src + ": no credit for downslope"}
 		}
-		return Factor{fmt.Sprintf("upslope %.1f %%", pct), 1 + 0.05*pct, src + ": +5 % per 1 % upslope"}
+		return Factor{Name: "upslope", Pct: pct, Value: 1 + 0.05*pct, Source: src + ": +5 % per 1 % upslope"}
 	}
 }
 
@@ -143,7 +152,7 @@ type Requirement struct {
 	// FactoredTODM is the takeoff distance to 50 ft after surface and slope factors
 	// (or the model's own figure for those effects, whichever is longer).
 	FactoredTODM float64
-	Factors      []Factor
+	Factors      [2]Factor // surface, slope
 	Checks       []Check
 	Limiting     Check // the check with the largest required/available ratio
 }
@@ -172,7 +181,7 @@ func (p Policy) Require(actual, ref Result, e RunwayEnd) Requirement {
 	if actual.Covers.Surface || actual.Covers.Slope {
 		tod = math.Max(tod, ref.To50ftM*fs.Value*fsl.Value)
 	}
-	req := Requirement{FactoredTODM: tod, Factors: []Factor{fs, fsl}}
+	req := Requirement{FactoredTODM: tod, Factors: [2]Factor{fs, fsl}}
 	req.Checks = p.checks(tod, e)
 	req.Limiting = req.Checks[0]
 	for _, c := range req.Checks[1:] {

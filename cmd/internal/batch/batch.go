@@ -124,6 +124,7 @@ func Prepare(plan *spec.Plan, planDir, outDir, version string, compress bool) (*
 		}
 		sheet = &s
 	}
+	hashes := &cards.HashCache{}
 	for _, tm := range tms {
 		page, err := layout.PageByName(tm.t.Page)
 		if err != nil {
@@ -137,7 +138,7 @@ func Prepare(plan *spec.Plan, planDir, outDir, version string, compress bool) (*
 		for _, ac := range acs {
 			for _, af := range afs {
 				j := &cards.Job{Aircraft: ac.a, Airfield: af.f, Template: *tm.t, Page: page, Sheet: sheet,
-					Date: plan.Date, ValidUntil: valid, Version: version, Compress: compress}
+					Date: plan.Date, ValidUntil: valid, Version: version, Compress: compress, Hashes: hashes}
 				p.Entries = append(p.Entries, &Entry{Job: j, Name: j.FileName(), AircraftSrc: ac.src, AirfieldSrc: af.src, TemplateSrc: tm.src})
 			}
 		}
@@ -174,6 +175,8 @@ type JobResult struct {
 	SHA256   string
 	Err      error
 	Canceled bool
+	// Time spent per stage (see cards.Rendered).
+	Compute, Layout, PDFTime time.Duration
 }
 
 // Progress hears about a batch as it runs.
@@ -271,11 +274,13 @@ func (p *Prepared) Run(ctx context.Context, opts Options) *Summary {
 
 func (p *Prepared) runOne(ctx context.Context, e *Entry, fonts *layout.Fonts) JobResult {
 	r := JobResult{Entry: e}
-	data, sums, pages, err := e.Job.Render(fonts)
+	rd, err := e.Job.Render(fonts)
 	if err != nil {
 		r.Err = err
 		return r
 	}
+	r.Compute, r.Layout, r.PDFTime = rd.Compute, rd.Layout, rd.PDFTime
+	data, sums, pages := rd.PDF, rd.Ends, rd.Pages
 	if ctx.Err() != nil {
 		r.Canceled = true
 		return r

@@ -14,7 +14,9 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+	"strconv"
 	"strings"
+	"sync"
 	"time"
 	"unicode"
 
@@ -41,7 +43,45 @@ type Job struct {
 	Version    string
 	Compress   bool
 
-	aircraftHash, templateHash string // cached by Fingerprint
+	// Hashes, when set, shares component hashes with the other jobs of a batch.
+	Hashes *HashCache
+
+	aircraftHash, templateHash string        // cached by Fingerprint
+	model                      perf.Model    // memoized, made by Card
+	computeTime                time.Duration // spent in perf by Card, read by Render
+}
+
+// HashCache shares the canonical hashes of aircraft and runway ends between the jobs
+// of a batch (twenty aircraft at one airfield hash its runway ends once). Safe for
+// concurrent use.
+type HashCache struct {
+	mu sync.Mutex
+	m  map[any]string
+}
+
+func (h *HashCache) get(key any, f func() string) string {
+	if h == nil {
+		return f()
+	}
+	h.mu.Lock()
+	v, ok := h.m[key]
+	h.mu.Unlock()
+	if ok {
+		return v
+	}
+	v = f()
+	h.mu.Lock()
+	if h.m == nil {
+		h.m = map[any]string{}
+	}
+	h.m[key] = v
+	h.mu.Unlock()
+	return v
+}
+
+type endKey struct {
+	f *perf.Airfield
+	d string
 }
 
 // EndSummary counts the states of one runway end's cells.
@@ -62,10 +102,16 @@ type Result struct {
 func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
 	a, f, t := j.Aircraft, j.Airfield, j.Template
 	var d layout.CardData
-	model, err := perf.ModelFor(a)
-	if err != nil {
-		return d, nil, err
+	if j.model == nil {
+		m, err := perf.ModelFor(a)
+		if err != nil {
+			return d, nil, err
+		}
+		// One memo per job: the runway ends of an airfield share their reference
+		// (paved, dry, level) figures.
+		j.model = perf.Memo(m)
 	}
+	model := j.model
 	pol, err := perf.PolicyByID(t.Policy)
 	if err != nil {
 		return d, nil, err
@@ -77,7 +123,9 @@ func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
 		weights = weights[:t.MaxBlocks]
 	}
 	gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin}
+	t0 := time.Now()
 	g, err := perf.ComputeGrid(a, model, pol, *f, e, gs)
+	j.computeTime += time.Since(t0)
 	if err != nil {
 		return d, nil, err
 	}
@@ -139,7 +187,9 @@ func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
 			d.Limiting, best = name, limiting[name]
 		}
 	}
+	t0 = time.Now()
 	d.Accel = accelCheck(a, model, pol, e, g, weights[0], t)
+	j.computeTime += time.Since(t0)
 	d.Crosswind = crosswindHelper(t)
 	d.Generated = j.Date.Format("2006-01-02")
 	d.ValidUntil = j.ValidUntil.Format("2006-01-02")
@@ -163,7 +213,7 @@ func accelCheck(a *perf.Aircraft, m perf.Model, p perf.Policy, e perf.RunwayEnd,
 	c := perf.Evaluate(perf.Case{Aircraft: a, Model: m, Policy: p, End: e, PressureAltM: g.PressureAltM, TempK: t.AccelTempK, MassKg: kg, TightMargin: t.TightMargin})
 	ac := layout.AccelCheck{WeightKg: kg, TempC: units.Celsius(t.AccelTempK)}
 	if !c.HasDistance || c.AccelCheckM <= 0 {
-		ac.Reason = fmt.Sprintf("no figure at %.0f kg, %.0f °C: %s", kg, ac.TempC, strings.Join(c.Reasons, "; "))
+		ac.Reason = fmt.Sprintf("no figure at %.0f kg, %.0f °C: %s", kg, ac.TempC, strings.Join(c.Reasons(), "; "))
 		return ac
 	}
 	ac.Available = true
@@ -204,7 +254,7 @@ func policyLine(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) string {
 		if f.f.Value == 1 {
 			continue
 		}
-		s := fmt.Sprintf("%s ×%.2f", f.f.Name, f.f.Value)
+		s := fmt.Sprintf("%s ×%.2f", f.f.Label(), f.f.Value)
 		if f.covered {
 			s += " (or the model's own figure if longer)"
 		}
@@ -230,10 +280,11 @@ func policyLine(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) string {
 // changed.
 func (j *Job) Fingerprint(e perf.RunwayEnd) string {
 	if j.aircraftHash == "" {
-		j.aircraftHash = AircraftHash(j.Aircraft)
+		j.aircraftHash = j.Hashes.get(j.Aircraft, func() string { return AircraftHash(j.Aircraft) })
 		j.templateHash = TemplateHash(j.Template, j.Page)
 	}
-	return CombineFingerprint(j.aircraftHash, EndHash(j.Airfield, e), j.templateHash, j.Version)
+	end := j.Hashes.get(endKey{j.Airfield, e.Designator}, func() string { return EndHash(j.Airfield, e) })
+	return CombineFingerprint(j.aircraftHash, end, j.templateHash, j.Version)
 }
 
 // CombineFingerprint joins component hashes into a card fingerprint.
@@ -263,12 +314,44 @@ func TemplateHash(t spec.CardTemplate, p layout.Page) string {
 	}{t, p.Name})
 }
 
+// canonicalHash hashes the JSON form of v with every number rounded to 9 significant
+// digits, so that the same value written in other units (2755.9055 ft for 840 m)
+// hashes alike.
 func canonicalHash(v any) string {
 	data, err := json.Marshal(v)
 	if err != nil {
 		panic("kneeprint: canonical form of plain data failed: " + err.Error()) // a programming defect
 	}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.UseNumber()
+	var tree any
+	if err := dec.Decode(&tree); err != nil {
+		panic("kneeprint: canonical form of plain data failed: " + err.Error())
+	}
+	data, err = json.Marshal(roundNumbers(tree))
+	if err != nil {
+		panic("kneeprint: canonical form of plain data failed: " + err.Error())
+	}
 	return shortHash(string(data))
+}
+
+func roundNumbers(v any) any {
+	switch x := v.(type) {
+	case map[string]any:
+		for k, e := range x {
+			x[k] = roundNumbers(e)
+		}
+	case []any:
+		for i, e := range x {
+			x[i] = roundNumbers(e)
+		}
+	case json.Number:
+		f, err := x.Float64()
+		if err == nil {
+			return json.Number(strconv.FormatFloat(f, 'g', 9, 64))
+		}
+	}
+	return v
 }
 
 func shortHash(s string) string {
@@ -276,27 +359,41 @@ func shortHash(s string) string {
 	return hex.EncodeToString(sum[:])[:12]
 }
 
+// Rendered is a job's PDF and what went into it.
+type Rendered struct {
+	PDF   []byte
+	Ends  []EndSummary
+	Pages int
+	// Time spent computing (perf: models, policies, grids, the accelerate check),
+	// laying out (card data: units, rounding, fingerprint; card models) and writing
+	// the PDF, for the batch benchmark.
+	Compute, Layout, PDFTime time.Duration
+}
+
 // Render computes every runway end and writes one PDF of all their cards.
-func (j *Job) Render(fonts *layout.Fonts) ([]byte, []EndSummary, int, error) {
-	var cards []*layout.Card
-	var sums []EndSummary
+func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
+	out := &Rendered{}
+	j.computeTime = 0
+	var cs []*layout.Card
 	for _, e := range j.Airfield.Ends() {
+		t0 := time.Now()
 		d, g, err := j.Card(e)
 		if err != nil {
-			return nil, nil, 0, fmt.Errorf("airfield %s runway %s: %w", j.Airfield.Ident, e.Designator, err)
+			return nil, fmt.Errorf("airfield %s runway %s: %w", j.Airfield.Ident, e.Designator, err)
 		}
 		c, err := layout.Build(d, j.Page, fonts)
 		if err != nil {
-			return nil, nil, 0, err
+			return nil, err
 		}
 		if probs := c.Check(); len(probs) > 0 {
 			more := ""
 			if len(probs) > 3 {
 				probs, more = probs[:3], fmt.Sprintf(" and %d more", len(probs)-3)
 			}
-			return nil, nil, 0, fmt.Errorf("card %s %s: layout check failed: %v%s", j.Airfield.Ident, e.Designator, probs, more)
+			return nil, fmt.Errorf("card %s %s: layout check failed: %v%s", j.Airfield.Ident, e.Designator, probs, more)
 		}
-		cards = append(cards, c)
+		out.Layout += time.Since(t0)
+		cs = append(cs, c)
 		sum := EndSummary{Designator: e.Designator, Fingerprint: d.Fingerprint, Counts: map[perf.State]int{}}
 		for _, blk := range g.Cells {
 			for _, row := range blk {
@@ -305,19 +402,25 @@ func (j *Job) Render(fonts *layout.Fonts) ([]byte, []EndSummary, int, error) {
 				}
 			}
 		}
-		sums = append(sums, sum)
+		out.Ends = append(out.Ends, sum)
 	}
+	out.Compute = j.computeTime
+	out.Layout -= j.computeTime
+	t0 := time.Now()
 	var buf bytes.Buffer
 	opt := layout.RenderOptions{Sheet: j.Sheet, Compress: j.Compress, Date: j.Date,
-		Title: fmt.Sprintf("kneeprint cards: %s at %s", j.Aircraft.Name, j.Airfield.Name), Author: "kneeprint " + j.Version}
-	if err := layout.RenderPDF(&buf, cards, opt); err != nil {
-		return nil, nil, 0, err
+		Title: fmt.Sprintf("kneeprint cards: %s at %s", j.Aircraft.Name, j.Airfield.Name), Author: "kneeprint " + j.Version,
+		Fonts: fonts}
+	if err := layout.RenderPDF(&buf, cs, opt); err != nil {
+		return nil, err
 	}
-	pages := len(cards)
+	out.PDFTime = time.Since(t0)
+	out.PDF = buf.Bytes()
+	out.Pages = len(cs)
 	if j.Sheet != nil {
-		pages = (len(cards) + 1) / 2
+		out.Pages = (len(cs) + 1) / 2
 	}
-	return buf.Bytes(), sums, pages, nil
+	return out, nil
 }
 
 // FileName is the job's PDF name: airfield identifier, aircraft name and page,
@@ -358,15 +461,15 @@ func Slug(s string) string {
 // Write renders the job and writes it into dir atomically: to a temporary file in
 // dir, synced, then renamed into place, so no reader ever sees half a PDF.
 func (j *Job) Write(dir string, fonts *layout.Fonts) (Result, error) {
-	data, sums, pages, err := j.Render(fonts)
+	r, err := j.Render(fonts)
 	if err != nil {
 		return Result{}, err
 	}
 	path := filepath.Join(dir, j.FileName())
-	if err := WriteAtomic(path, data); err != nil {
+	if err := WriteAtomic(path, r.PDF); err != nil {
 		return Result{}, err
 	}
-	return Result{Path: path, Pages: pages, Ends: sums}, nil
+	return Result{Path: path, Pages: r.Pages, Ends: r.Ends}, nil
 }
 
 // WriteAtomic writes data to path through a temporary file in the same folder,

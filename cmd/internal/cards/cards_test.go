@@ -103,7 +103,7 @@ func TestNoGoCellMarked(t *testing.T) {
 		require.NoError(t, err)
 		// The hot-and-high demo has no-go cells at MTOW with a 10 kt tailwind.
 		cell := g.Cells[0][0][len(g.Spec.TempsK)-1]
-		require.Equal(t, perf.NoGo, cell.State, cell.Reasons)
+		require.Equal(t, perf.NoGo, cell.State, cell.Reasons())
 		want := fmt.Sprintf("%.0f", roundUp10(cell.RequiredM, "m"))
 		var grid layout.Block
 		for _, b := range c.Blocks {
@@ -137,8 +137,9 @@ func TestPDFValidAndPageCount(t *testing.T) {
 				s, _ := layout.SheetByName(sheet)
 				jj.Sheet = &s
 			}
-			data, _, pages, err := jj.Render(fonts)
+			rd, err := jj.Render(fonts)
 			require.NoError(t, err)
+			data, pages := rd.PDF, rd.Pages
 			require.NoError(t, api.Validate(bytes.NewReader(data), nil), "pdfcpu validates %s", jj.FileName())
 			n, err := api.PageCount(bytes.NewReader(data), nil)
 			require.NoError(t, err)
@@ -156,15 +157,16 @@ func TestPDFValidAndPageCount(t *testing.T) {
 func TestDeterministic(t *testing.T) {
 	fonts, _ := layout.NewFonts()
 	j := demoJobs(t, "a5")[0]
-	a, _, _, err := j.Render(fonts)
+	a, err := j.Render(fonts)
 	require.NoError(t, err)
 	fonts2, _ := layout.NewFonts()
-	b, _, _, err := j.Render(fonts2)
+	b, err := j.Render(fonts2)
 	require.NoError(t, err)
-	assert.True(t, bytes.Equal(a, b), "same inputs and date give the same bytes")
+	assert.True(t, bytes.Equal(a.PDF, b.PDF), "same inputs and date give the same bytes")
 	j.Date = j.Date.AddDate(0, 0, 1)
-	c, _, _, _ := j.Render(fonts)
-	assert.False(t, bytes.Equal(a, c), "the date is printed")
+	c, err := j.Render(fonts)
+	require.NoError(t, err)
+	assert.False(t, bytes.Equal(a.PDF, c.PDF), "the date is printed")
 }
 
 func TestFingerprintFollowsInputs(t *testing.T) {
@@ -199,8 +201,9 @@ func TestSampleOutput(t *testing.T) {
 	want := map[string]bool{}
 	for _, j := range demoJobs(t, "a5") {
 		j.Version = SampleVersion
-		data, _, _, err := j.Render(fonts)
+		rd, err := j.Render(fonts)
 		require.NoError(t, err)
+		data := rd.PDF
 		name := j.FileName()
 		want[name] = true
 		path := filepath.Join(dir, name)
@@ -218,4 +221,21 @@ func TestSampleOutput(t *testing.T) {
 	for _, e := range entries {
 		assert.True(t, want[e], "sample-output/%s is not produced by the demo any more", e)
 	}
+}
+
+// Characters outside the base subset are embedded on demand; characters no embedded
+// font has are refused with the text that holds them, never printed as blanks.
+func TestNamesInOtherScripts(t *testing.T) {
+	fonts, _ := layout.NewFonts()
+	j := demoJobs(t, "a5")[0]
+	f := *j.Airfield
+	f.Name = "Πεδίο Δοκιμής"
+	j.Airfield = &f
+	rd, err := j.Render(fonts)
+	require.NoError(t, err, "Greek is in the Go fonts")
+	require.NoError(t, api.Validate(bytes.NewReader(rd.PDF), nil))
+	f.Name = "試験飛行場"
+	_, err = j.Render(fonts)
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "cannot print")
 }

@@ -102,7 +102,7 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 			HeadwindKt: round1(units.Knots(ea.Wind.HeadwindMS)), CrosswindKt: round1(units.Knots(ea.Wind.CrosswindMS)),
 			GustCrosswindKt: round1(units.Knots(ea.Wind.GustCrosswindMS)), CreditedWindKt: round1(units.Knots(c.CreditedWindMS)),
 			TORAM: ea.End.TORAM, TODAM: ea.End.TODAM, ASDAM: ea.End.ASDAM,
-			Status: c.State.String(), Reasons: c.Reasons, Factors: []string{},
+			Status: c.State.String(), Reasons: c.Reasons(), Factors: []string{},
 		}
 		if e.Reasons == nil {
 			e.Reasons = []string{}
@@ -111,7 +111,7 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 			e.GroundRollM, e.Distance50ftM, e.AccelerateCheckM = ptr(ceilM(c.GroundRollM)), ptr(ceilM(c.To50ftM)), ptr(ceilM(c.AccelCheckM))
 			e.RequiredM, e.AvailableM, e.Limiting = ptr(ceilM(c.RequiredM)), ptr(math.Floor(c.AvailableM)), c.Limiting
 			for _, f := range c.Requirement.Factors {
-				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f (%s)", f.Name, f.Value, f.Source))
+				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f (%s)", f.Label(), f.Value, f.Source))
 			}
 			for _, ch := range c.Requirement.Checks {
 				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f", ch.Declared, ch.Multiplier))

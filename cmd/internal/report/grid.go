@@ -86,7 +86,7 @@ func BuildGrid(in GridInput) GridRun {
 					gc := GridCell{
 						WeightKg: c.MassKg, HeadwindKt: round1(units.Knots(c.HeadwindMS)),
 						TemperatureC: round1(units.Celsius(c.TempK)), CreditedWindKt: round1(units.Knots(c.CreditedWindMS)),
-						Status: c.State.String(), Reasons: c.Reasons,
+						Status: c.State.String(), Reasons: c.Reasons(),
 					}
 					if gc.Reasons == nil {
 						gc.Reasons = []string{}

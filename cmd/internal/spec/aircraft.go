@@ -23,6 +23,7 @@ const (
 	minTableAltM  = -2000 * units.MetresPerFoot
 	maxTableAltM  = 20000 * units.MetresPerFoot
 	maxTableCells = 4000 // axes product; a real manual table has under 200
+	maxWeights    = 8    // perf.MaxGridWeights
 )
 
 // Defaults applied when a profile does not say. Each is printed by validate.
@@ -55,7 +56,9 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 	mtow, mtowOK := m.quantity("mtow", units.Mass, true, minMassKg, maxMassKg)
 	a.MTOWKg = mtow
 
-	if ws, nodes, ok := m.quantities("weights", units.Mass, false, minMassKg, maxMassKg); ws != nil {
+	if ws, nodes, ok := m.quantities("weights", units.Mass, false, minMassKg, maxMassKg); len(ws) > maxWeights {
+		d.errorf(m.vals["weights"], "weights", "%d weights, at most %d: a card holds no more blocks", len(ws), maxWeights)
+	} else if ws != nil {
 		seen := map[float64]int{}
 		for i, w := range ws {
 			if !ok && w == 0 {

@@ -26,6 +26,7 @@ const (
 	maxDistanceM  = 6000.0 // longer than any light-aircraft runway (common practice)
 	maxSlopePct   = 10.0   // steeper than any runway kneeprint should serve (common practice)
 	maxVariation  = 60.0   // larger than inhabited-area magnetic variation (common practice)
+	maxRunways    = 12     // more than any airfield a light aircraft uses (common practice)
 )
 
 func (d *decoder) airfield(m *mapping) *perf.Airfield {
@@ -44,7 +45,12 @@ func (d *decoder) airfield(m *mapping) *perf.Airfield {
 		d.notef("variation not given: 0 deg assumed (needed only for winds given as true)")
 	}
 	seen := map[string]*yaml.Node{}
-	for i, rn := range m.list("runways", true) {
+	runways := m.list("runways", true)
+	if len(runways) > maxRunways {
+		d.errorf(m.vals["runways"], "runways", "%d runways, at most %d accepted", len(runways), maxRunways)
+		runways = nil
+	}
+	for i, rn := range runways {
 		r := d.runway(rn, fmt.Sprintf("runways[%d]", i), a.ElevationM, seen)
 		if r != nil {
 			a.Runways = append(a.Runways, *r)

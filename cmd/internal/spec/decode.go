@@ -1,7 +1,9 @@
 package spec
 
 import (
+	"bytes"
 	"fmt"
+	"io"
 	"math"
 	"sort"
 	"strconv"
@@ -24,9 +26,26 @@ type decoder struct {
 	errs  ErrorList
 	notes []string // defaults applied, for validate's summary
 	warns []string
+
+	suppressed int // errors past maxErrors
 }
 
+// result returns the errors, with a last line counting those not listed.
+func (d *decoder) result() ErrorList {
+	if d.suppressed > 0 {
+		return append(d.errs, &FieldError{File: d.file, Msg: fmt.Sprintf("%d more errors not listed: fix the ones above first", d.suppressed)})
+	}
+	return d.errs
+}
+
+// maxErrors is how many errors of one file are listed; the rest are counted.
+const maxErrors = 50
+
 func (d *decoder) errorf(n *yaml.Node, field, format string, args ...any) {
+	if len(d.errs) >= maxErrors {
+		d.suppressed++
+		return
+	}
 	e := &FieldError{File: d.file, Field: field, Msg: fmt.Sprintf(format, args...)}
 	if n != nil {
 		e.Line, e.Column = n.Line, n.Column
@@ -58,8 +77,18 @@ func (d *decoder) parseRoot(data []byte) *yaml.Node {
 		return nil
 	}
 	var doc yaml.Node
-	if err := yaml.Unmarshal(data, &doc); err != nil {
+	dec := yaml.NewDecoder(bytes.NewReader(data))
+	if err := dec.Decode(&doc); err != nil {
 		d.errs = append(d.errs, yamlError(d.file, err))
+		return nil
+	}
+	var second yaml.Node
+	if err := dec.Decode(&second); err != io.EOF {
+		line := 0
+		if err == nil {
+			line = second.Line
+		}
+		d.errs = append(d.errs, &FieldError{File: d.file, Line: line, Column: 1, Msg: "a kneeprint file holds one YAML document: remove the second (after ---)"})
 		return nil
 	}
 	if doc.Kind != yaml.DocumentNode || len(doc.Content) == 0 {

@@ -66,7 +66,7 @@ func Parse(name string, data []byte) (*Document, error) {
 		}
 	}
 	doc.Defaults, doc.Warnings = d.notes, d.warns
-	if err := d.errs.Err(); err != nil {
+	if err := d.result().Err(); err != nil {
 		return doc, err
 	}
 	return doc, nil

@@ -167,22 +167,81 @@ func TestOversizeFile(t *testing.T) {
 	assert.Contains(t, err.Error(), "big.yaml: file is")
 }
 
-func FuzzParse(f *testing.F) {
-	for _, p := range []string{"ok-airfield.yaml", "ok-aircraft.yaml", "ac-alias.yaml", "syntax.yaml"} {
-		data, err := os.ReadFile(filepath.Join("testdata/bad", p))
+// fuzzParse checks the contract every parser keeps on any input: no panic, and either
+// a document of the kind it declares or an ErrorList naming the file.
+func fuzzParse(t *testing.T, data []byte) {
+	doc, err := Parse("fuzz.yaml", data)
+	if err != nil {
+		var list ErrorList
+		if !errors.As(err, &list) || len(list) == 0 {
+			t.Fatalf("error of type %T, want a non-empty ErrorList", err)
+		}
+		for _, e := range list {
+			if e.File != "fuzz.yaml" || e.Msg == "" {
+				t.Fatalf("error without file or message: %+v", e)
+			}
+		}
+		return
+	}
+	switch doc.Kind {
+	case KindAircraft:
+		if doc.Aircraft == nil || doc.Aircraft.MTOWKg <= 0 || len(doc.Aircraft.WeightsKg) == 0 {
+			t.Fatalf("aircraft accepted without MTOW or weights: %+v", doc.Aircraft)
+		}
+	case KindAirfield:
+		if doc.Airfield == nil || len(doc.Airfield.Runways) == 0 {
+			t.Fatalf("airfield accepted without runways")
+		}
+		for _, e := range doc.Airfield.Ends() {
+			if !(e.TORAM > 0) || e.TODAM < e.TORAM || e.HeadingDeg < 1 || e.HeadingDeg > 360 {
+				t.Fatalf("impossible runway end accepted: %+v", e)
+			}
+		}
+	case KindCardTemplate:
+		if doc.Template == nil || len(doc.Template.TempsK) == 0 {
+			t.Fatalf("template accepted without temperatures")
+		}
+	case KindPlan:
+		if doc.Plan == nil || len(doc.Plan.Aircraft) == 0 {
+			t.Fatalf("plan accepted without aircraft")
+		}
+	default:
+		t.Fatalf("no error and no kind")
+	}
+}
+
+func seed(f *testing.F, fsys fs.FS, paths ...string) {
+	for _, p := range paths {
+		data, err := fs.ReadFile(fsys, p)
 		if err != nil {
 			f.Fatal(err)
 		}
 		f.Add(data)
 	}
-	f.Fuzz(func(t *testing.T, data []byte) {
-		doc, err := Parse("fuzz.yaml", data)
-		if err == nil && doc.Aircraft == nil && doc.Airfield == nil && doc.Template == nil && doc.Plan == nil {
-			t.Fatalf("no error and nothing read")
-		}
-		var list ErrorList
-		if err != nil && !errors.As(err, &list) {
-			t.Fatalf("error of type %T, want ErrorList", err)
-		}
-	})
+}
+
+func FuzzParse(f *testing.F) {
+	seed(f, os.DirFS("testdata/bad"), "ok-airfield.yaml", "ok-aircraft.yaml", "ac-alias.yaml", "syntax.yaml")
+	f.Fuzz(fuzzParse)
+}
+
+func FuzzAirfield(f *testing.F) {
+	seed(f, airfields.FS, "wrenmoor.yaml", "saltpan.yaml")
+	seed(f, templates.FS, "starter/airfield.yaml")
+	f.Fuzz(fuzzParse)
+}
+
+func FuzzAircraft(f *testing.F) {
+	seed(f, templates.FS, "aircraft/pipwing-pw2.yaml", "aircraft/quillwing-qt6.yaml", "starter/aircraft.yaml")
+	f.Fuzz(fuzzParse)
+}
+
+func FuzzTemplate(f *testing.F) {
+	seed(f, templates.FS, "cards/a5.yaml", "cards/5x8.yaml")
+	f.Fuzz(fuzzParse)
+}
+
+func FuzzPlan(f *testing.F) {
+	seed(f, templates.FS, "plans/demo-season.yaml", "starter/plan.yaml")
+	f.Fuzz(fuzzParse)
 }

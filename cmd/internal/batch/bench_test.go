@@ -1,0 +1,120 @@
+package batch
+
+import (
+	"context"
+	"fmt"
+	"io/fs"
+	"runtime"
+	"testing"
+	"time"
+
+	"kneeprint/airfields"
+	"kneeprint/cmd/internal/cards"
+	"kneeprint/cmd/internal/inputs"
+	"kneeprint/cmd/internal/spec"
+	"kneeprint/layout"
+	"kneeprint/perf"
+)
+
+// seasonEntries scales the demo to nAircraft x nAirfields card files: aircraft are
+// renamed copies of the two demo aircraft with their weights shifted, airfields renamed
+// copies of the four-runway demo field with shifted distances and elevation, so every
+// card is computed afresh. Four runway ends per airfield: 20 x 50 gives 4,000 pages.
+func seasonEntries(b *testing.B, nAircraft, nAirfields int, compress bool) []*Entry {
+	b.Helper()
+	ac, _ := inputs.Demo()
+	var base []*perf.Aircraft
+	for _, s := range ac {
+		d, err := s.Load()
+		if err != nil {
+			b.Fatal(err)
+		}
+		base = append(base, d.Aircraft)
+	}
+	fd, err := spec.Load(airfieldsFS(), "wrenmoor.yaml")
+	if err != nil {
+		b.Fatal(err)
+	}
+	tmpl, err := inputs.Template("a5")
+	if err != nil {
+		b.Fatal(err)
+	}
+	page, _ := layout.PageByName(tmpl.Page)
+	var acs []*perf.Aircraft
+	for i := 0; i < nAircraft; i++ {
+		a := *base[i%len(base)]
+		a.Name = fmt.Sprintf("%s %02d", a.Name, i)
+		a.WeightsKg = nil
+		for _, w := range base[i%len(base)].WeightsKg {
+			a.WeightsKg = append(a.WeightsKg, w-float64(i))
+		}
+		acs = append(acs, &a)
+	}
+	var afs []*perf.Airfield
+	for i := 0; i < nAirfields; i++ {
+		f := *fd.Airfield
+		f.Ident = fmt.Sprintf("KP-%03d", i)
+		f.ElevationM += float64(i * 20)
+		f.Runways = nil
+		for _, r := range fd.Airfield.Runways {
+			r2 := r
+			r2.Ends = nil
+			for _, e := range r.Ends {
+				e.TORAM += float64(i * 5)
+				e.TODAM += float64(i * 5)
+				e.ASDAM += float64(i * 5)
+				r2.Ends = append(r2.Ends, e)
+			}
+			f.Runways = append(f.Runways, r2)
+		}
+		afs = append(afs, &f)
+	}
+	date := time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC)
+	var es []*Entry
+	hashes := &cards.HashCache{}
+	for _, a := range acs {
+		for _, f := range afs {
+			j := &cards.Job{Aircraft: a, Airfield: f, Template: *tmpl, Page: page, Date: date,
+				ValidUntil: date.AddDate(0, 6, 0), Version: "bench", Compress: compress, Hashes: hashes}
+			es = append(es, &Entry{Job: j, Name: j.FileName(), AircraftSrc: a.Name, AirfieldSrc: f.Ident, TemplateSrc: "a5"})
+		}
+	}
+	return es
+}
+
+// BenchmarkSeason renders the demo plan scaled to 20 aircraft x 50 airfields (4,000
+// card pages) with every CPU, and reports card pages per second and the share of CPU
+// time spent computing (perf and card data) rather than laying out and writing PDFs.
+// Target on the 2-core CI machine: 4,000 pages in under 10 s, computation under 10 %.
+func BenchmarkSeason(b *testing.B) {
+	for _, compress := range []bool{false, true} {
+		b.Run(fmt.Sprintf("compress=%v", compress), func(b *testing.B) {
+			es := seasonEntries(b, 20, 50, compress)
+			b.ReportAllocs()
+			b.ResetTimer()
+			var pages int
+			var compute, lay, pdf time.Duration
+			for i := 0; i < b.N; i++ {
+				p := &Prepared{Dir: b.TempDir(), Entries: es}
+				s := p.Run(context.Background(), Options{Workers: runtime.GOMAXPROCS(0)})
+				if s.Failed() {
+					b.Fatalf("batch failed: %v %v", s.InputErrors, s.Results[0].Err)
+				}
+				for _, r := range s.Results {
+					pages += r.Pages
+					compute += r.Compute
+					lay += r.Layout
+					pdf += r.PDFTime
+				}
+			}
+			b.ReportMetric(float64(pages)/b.Elapsed().Seconds(), "pages/s")
+			b.ReportMetric(float64(pages)/float64(b.N), "pages/op")
+			total := compute + lay + pdf
+			b.ReportMetric(100*float64(compute)/float64(total), "compute-%")
+			b.ReportMetric(100*float64(lay)/float64(total), "layout-%")
+			b.ReportMetric(100*float64(pdf)/float64(total), "pdf-%")
+		})
+	}
+}
+
+func airfieldsFS() fs.FS { return airfields.FS }
