@@ -259,3 +259,18 @@ func TestNamesSafeAndUnique(t *testing.T) {
 	}
 	assert.Len(t, seen, 6)
 }
+
+func TestProgress(t *testing.T) {
+	e := &Entry{Name: "x.pdf"}
+	var term, plain strings.Builder
+	for _, p := range []Progress{NewProgress(&term, true), NewProgress(&plain, false)} {
+		p.Start(2)
+		p.Done(JobResult{Entry: e, Pages: 4})
+		p.Done(JobResult{Entry: e, Err: os.ErrPermission})
+		p.Finish()
+	}
+	assert.Contains(t, term.String(), "\r[###############...............] 1/2 card files")
+	assert.Contains(t, term.String(), "\r[##############################] 2/2 card files")
+	assert.NotContains(t, plain.String(), "\r")
+	assert.Contains(t, plain.String(), "[1/2] wrote x.pdf (4 page(s))\n[2/2] FAILED x.pdf: permission denied\n")
+}
