@@ -27,7 +27,9 @@ func newDiffCmd(e env) *cobra.Command {
 		Long: `diff lists the changed declared distances, slopes, surfaces, headings and notes of
 every runway end, and, for each aircraft, every grid cell whose state changes
 (e.g. go -> no-go at 30 C, 5 kt tailwind, 1100 kg) over the card template's grid.
-Exit 0 when nothing a pilot must know changed, 1 when something did.`,
+Exit 0 when nothing a pilot must know changed, 1 when something did.
+
+` + caution,
 		Example: `  kneeprint diff --aircraft demo:pipwing-pw2 home-2026.yaml home-2027.yaml
   kneeprint diff --aircraft a.yaml --aircraft b.yaml old.yaml new.yaml --template 5x8 --json`,
 		Args: cobra.ExactArgs(2),

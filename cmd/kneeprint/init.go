@@ -30,7 +30,9 @@ manual; init airfield FILE writes an airfield file to fill in from your aerodrom
 published data; init plan FILE writes a season plan. init --demo DIR copies every
 embedded demo file (invented aircraft and airfields, and a plan naming them) into DIR
 so you can copy and adapt them. Existing files are never
-overwritten unless --force is given.`,
+overwritten unless --force is given.
+
+` + caution,
 		Example: `  kneeprint init aircraft my-trainer.yaml
   kneeprint init airfield home.yaml
   kneeprint init plan season-2027.yaml

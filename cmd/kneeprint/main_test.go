@@ -80,8 +80,12 @@ func TestUsageErrors(t *testing.T) {
 }
 
 func TestHelpCarriesCaution(t *testing.T) {
-	code, out, _ := runCLI(t, "--help")
-	require.Equal(t, exitOK, code)
-	assert.Contains(t, out, "not a substitute for the approved")
-	assert.Contains(t, out, "The pilot in command decides")
+	for _, cmd := range [][]string{{"--help"}, {"validate", "--help"}, {"init", "--help"}, {"check", "--help"}, {"grid", "--help"},
+		{"cards", "--help"}, {"stale", "--help"}, {"diff", "--help"}} {
+		code, out, _ := runCLI(t, cmd...)
+		require.Equal(t, exitOK, code)
+		assert.Contains(t, out, "not a substitute for the approved", cmd)
+		assert.Contains(t, out, "The pilot in command decides", cmd)
+		assert.Contains(t, out, "Examples:", cmd)
+	}
 }

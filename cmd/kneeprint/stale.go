@@ -1,12 +1,12 @@
 package main
 
 import (
-	"encoding/json"
 	"path/filepath"
 
 	"github.com/spf13/cobra"
 
 	"kneeprint/cmd/internal/batch"
+	"kneeprint/cmd/internal/report"
 	"kneeprint/cmd/internal/spec"
 )
 
@@ -27,7 +27,9 @@ names now (for example after pointing the plan at an edited copy of an airfield)
 card is stale when its aircraft profile, its runway end (declared distances, heading,
 slope, surface...), its card template or the kneeprint version changed, or when the
 PDF itself is missing or was altered. Formatting and comments in the files do not
-count. Exit 0 when every card matches, 1 when any is stale.`,
+count. Exit 0 when every card matches, 1 when any is stale.
+
+` + caution,
 		Example: `  kneeprint stale cards-2027
   kneeprint stale cards-2027 --plan season-2027.yaml --json`,
 		Args: cobra.ExactArgs(1),
@@ -62,9 +64,7 @@ func staleRun(e env, opts *staleOptions) error {
 		if rep.Errors == nil {
 			rep.Errors = []string{}
 		}
-		enc := json.NewEncoder(e.stdout)
-		enc.SetIndent("", "  ")
-		if err := enc.Encode(rep); err != nil {
+		if err := report.WriteJSON(e.stdout, rep); err != nil {
 			return err
 		}
 	} else if err := rep.WriteText(e.stdout); err != nil {

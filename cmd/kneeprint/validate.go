@@ -22,7 +22,9 @@ func newValidateCmd(e env) *cobra.Command {
 		Short: "Read kneeprint files strictly and report what they hold, defaults and errors",
 		Long: `validate reads aircraft profiles and airfield files (any mix: each file says what it
 is with its kind: line), prints a summary of what was read and the defaults applied,
-and every error with file:line:column and field. It exits 1 if any file has an error.`,
+and every error with file:line:column and field. It exits 1 if any file has an error.
+
+` + caution,
 		Example: `  kneeprint validate --demo
   kneeprint validate my-aircraft.yaml home-field.yaml`,
 		RunE: func(cmd *cobra.Command, args []string) error {

@@ -3,13 +3,13 @@
 package changes
 
 import (
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
 	"sort"
 	"strings"
 
+	"kneeprint/cmd/internal/report"
 	"kneeprint/cmd/internal/spec"
 	"kneeprint/cmd/internal/units"
 	"kneeprint/perf"
@@ -258,7 +258,5 @@ func (r *Report) WriteJSON(w io.Writer) error {
 	if r.Cells == nil {
 		r.Cells = []CellChange{}
 	}
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	return enc.Encode(r)
+	return report.WriteJSON(w, r)
 }

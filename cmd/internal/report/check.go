@@ -3,7 +3,6 @@
 package report
 
 import (
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -123,11 +122,7 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 }
 
 // WriteCheckJSON writes the check as indented JSON.
-func WriteCheckJSON(w io.Writer, run CheckRun) error {
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	return enc.Encode(run)
-}
+func WriteCheckJSON(w io.Writer, run CheckRun) error { return WriteJSON(w, run) }
 
 // WriteCheckText writes the check for a terminal.
 func WriteCheckText(w io.Writer, run CheckRun) error {

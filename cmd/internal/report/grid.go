@@ -2,7 +2,6 @@ package report
 
 import (
 	"encoding/csv"
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -105,11 +104,7 @@ func BuildGrid(in GridInput) GridRun {
 }
 
 // WriteGridJSON writes the grids as indented JSON.
-func WriteGridJSON(w io.Writer, run GridRun) error {
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	return enc.Encode(run)
-}
+func WriteGridJSON(w io.Writer, run GridRun) error { return WriteJSON(w, run) }
 
 // WriteGridCSV writes one row per cell, with a header row.
 func WriteGridCSV(w io.Writer, run GridRun) error {
