@@ -100,24 +100,70 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 	return pdf.Output(w)
 }
 
-func setColor(pdf *fpdf.Fpdf, c Color) {
-	pdf.SetDrawColor(int(c.R), int(c.G), int(c.B))
-	pdf.SetFillColor(int(c.R), int(c.G), int(c.B))
-	pdf.SetTextColor(int(c.R), int(c.G), int(c.B))
+// pen draws on one fpdf document and sets font, colours and line width only when they
+// change: a card has hundreds of texts and shapes in a handful of styles. known says
+// which of them the PDF's graphics state holds for certain.
+type pen struct {
+	pdf            *fpdf.Fpdf
+	style          string
+	size           float64
+	fill, draw, tx Color
+	line           float64
+	known          struct{ font, fill, draw, tx, line bool }
+}
+
+func (p *pen) forget() { p.known = struct{ font, fill, draw, tx, line bool }{} }
+
+func (p *pen) font(style string, size float64) {
+	if !p.known.font || style != p.style || size != p.size {
+		p.pdf.SetFont(fontFamily, style, size)
+		p.style, p.size, p.known.font = style, size, true
+	}
+}
+
+func (p *pen) fillColor(c Color) {
+	if !p.known.fill || c != p.fill {
+		p.pdf.SetFillColor(int(c.R), int(c.G), int(c.B))
+		p.fill, p.known.fill = c, true
+	}
+}
+
+func (p *pen) drawColor(c Color) {
+	if !p.known.draw || c != p.draw {
+		p.pdf.SetDrawColor(int(c.R), int(c.G), int(c.B))
+		p.draw, p.known.draw = c, true
+	}
+}
+
+func (p *pen) textColor(c Color) {
+	if !p.known.tx || c != p.tx {
+		p.pdf.SetTextColor(int(c.R), int(c.G), int(c.B))
+		p.tx, p.known.tx = c, true
+	}
+}
+
+func (p *pen) lineWidth(w float64) {
+	if !p.known.line || w != p.line {
+		p.pdf.SetLineWidth(w)
+		p.line, p.known.line = w, true
+	}
 }
 
 func drawCard(pdf *fpdf.Fpdf, c *Card, dx, dy float64) {
+	p := &pen{pdf: pdf}
 	for _, b := range c.Blocks {
 		for _, s := range b.Shapes {
-			drawShape(pdf, s, dx, dy)
+			p.shape(s, dx, dy)
 		}
+	}
+	for _, b := range c.Blocks {
 		for _, t := range b.Texts {
 			style := ""
 			if t.Style == Bold {
 				style = "B"
 			}
-			pdf.SetFont(fontFamily, style, t.SizePt)
-			setColor(pdf, t.Color)
+			p.font(style, t.SizePt)
+			p.textColor(t.Color)
 			x := t.Box.X
 			switch t.Align {
 			case Center:
@@ -132,33 +178,37 @@ func drawCard(pdf *fpdf.Fpdf, c *Card, dx, dy float64) {
 	}
 }
 
-func drawShape(pdf *fpdf.Fpdf, s Shape, dx, dy float64) {
-	setColor(pdf, s.Color)
+func (p *pen) shape(s Shape, dx, dy float64) {
 	r := s.Box
 	r.X += dx
 	r.Y += dy
 	switch s.Kind {
 	case FillRect:
-		pdf.Rect(r.X, r.Y, r.W, r.H, "F")
+		p.fillColor(s.Color)
+		p.pdf.Rect(r.X, r.Y, r.W, r.H, "F")
 	case StrokeRect:
-		pdf.SetLineWidth(s.LineMM)
-		pdf.Rect(r.X, r.Y, r.W, r.H, "D")
+		p.drawColor(s.Color)
+		p.lineWidth(s.LineMM)
+		p.pdf.Rect(r.X, r.Y, r.W, r.H, "D")
 	case Line:
-		pdf.SetLineWidth(s.LineMM)
-		pdf.Line(r.X, r.Y, r.X+r.W, r.Y+r.H)
+		p.drawColor(s.Color)
+		p.lineWidth(s.LineMM)
+		p.pdf.Line(r.X, r.Y, r.X+r.W, r.Y+r.H)
 	case Hatch:
-		pdf.SetLineWidth(s.LineMM)
-		pdf.ClipRect(r.X, r.Y, r.W, r.H, false)
+		p.drawColor(s.Color)
+		p.lineWidth(s.LineMM)
+		p.pdf.ClipRect(r.X, r.Y, r.W, r.H, false)
 		for off := -r.H; off < r.W; off += s.SpaceMM {
-			pdf.Line(r.X+off, r.Y+r.H, r.X+off+r.H, r.Y)
+			p.pdf.Line(r.X+off, r.Y+r.H, r.X+off+r.H, r.Y)
 		}
-		pdf.ClipEnd()
+		p.pdf.ClipEnd()
+		p.forget() // ClipEnd restores the graphics state saved before the clip
 	}
 }
 
 // cutMarks draws short marks on the sheet's edges along every cut line.
 func cutMarks(pdf *fpdf.Fpdf, s Sheet, p Page, offX, offY float64) {
-	setColor(pdf, Grey)
+	pdf.SetDrawColor(int(Grey.R), int(Grey.G), int(Grey.B))
 	pdf.SetLineWidth(0.2)
 	const l = 4.0
 	for i := 0; i <= 2; i++ {

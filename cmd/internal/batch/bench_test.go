@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io/fs"
 	"runtime"
+	"runtime/debug"
 	"testing"
 	"time"
 
@@ -87,6 +88,8 @@ func seasonEntries(b *testing.B, nAircraft, nAirfields int, compress bool) []*En
 // time spent computing (perf and card data) rather than laying out and writing PDFs.
 // Target on the 2-core CI machine: 4,000 pages in under 10 s, computation under 10 %.
 func BenchmarkSeason(b *testing.B) {
+	// As the cards command does for a batch (see cardsRun).
+	defer debug.SetGCPercent(debug.SetGCPercent(400))
 	for _, compress := range []bool{false, true} {
 		b.Run(fmt.Sprintf("compress=%v", compress), func(b *testing.B) {
 			es := seasonEntries(b, 20, 50, compress)
