@@ -1,7 +1,5 @@
 package perf
 
-import "math"
-
 // Surface is a runway surface type.
 type Surface string
 
@@ -67,15 +65,4 @@ func (a Airfield) Ends() []RunwayEnd {
 		out = append(out, r.Ends...)
 	}
 	return out
-}
-
-// normDeg maps an angle in degrees to (-180, 180].
-func normDeg(d float64) float64 {
-	d = math.Mod(d, 360)
-	if d <= -180 {
-		d += 360
-	} else if d > 180 {
-		d -= 360
-	}
-	return d
 }

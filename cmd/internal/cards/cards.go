@@ -228,9 +228,7 @@ func accelCheck(a *perf.Aircraft, m perf.Model, p perf.Policy, e perf.RunwayEnd,
 
 func crosswindHelper(t spec.CardTemplate) layout.CrosswindHelper {
 	h := layout.CrosswindHelper{}
-	for _, a := range t.CrosswindAnglesDeg {
-		h.AnglesDeg = append(h.AnglesDeg, a)
-	}
+	h.AnglesDeg = append(h.AnglesDeg, t.CrosswindAnglesDeg...)
 	for _, s := range t.CrosswindSpeedsMS {
 		h.SpeedsKt = append(h.SpeedsKt, math.Round(units.Knots(s)))
 		var row []float64
