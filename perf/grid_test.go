@@ -30,7 +30,9 @@ func TestEvaluateStates(t *testing.T) {
 	end := RunwayEnd{Designator: "09", TORAM: 700, TODAM: 700, ASDAM: 700, Surface: Paved, Condition: Dry}
 	k := Case{Aircraft: a, Model: m, Policy: eu, End: end, TempK: 273.15, MassKg: 900, TightMargin: 0.1}
 
-	c := Evaluate(k) // 400 x 1.25 = 500 <= 700 with 10 % spare
+	// 400 x 1.25 = 500 <= 700 with 10 % spare (TOD x 1.25 <= TORA: EU Air OPS
+	// CAT.POL.A.305(b) [sec]; the 10 % tight margin is the card's, common practice).
+	c := Evaluate(k)
 	assert.Equal(t, Go, c.State, c.Reasons())
 	assert.InDelta(t, 500, c.RequiredM, 1e-9)
 	assert.Equal(t, "TORA", c.Limiting)
@@ -74,9 +76,11 @@ func TestEvaluateWindNotAppliedTwice(t *testing.T) {
 	end := RunwayEnd{TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Paved, Condition: Dry}
 	c := Evaluate(Case{Aircraft: a, Model: m, Policy: eu, End: end, TempK: 273.15, MassKg: 900, Wind: Components{HeadwindMS: 9 * knot}})
 	assert.InDelta(t, 9*knot, c.CreditedWindMS, 1e-12)
+	// The test table's own note, 10 % per 9 kt: 400 x 0.9 = 360 m (arithmetic).
 	assert.InDelta(t, 360, c.To50ftM, 1e-9, "x0.9 once")
 	m.Table.WindInData = false
 	c = Evaluate(Case{Aircraft: a, Model: m, Policy: eu, End: end, TempK: 273.15, MassKg: 900, Wind: Components{HeadwindMS: 9 * knot}})
+	// 50 % of a reported headwind: 14 CFR 23.1587 [pub].
 	assert.InDelta(t, 4.5*knot, c.CreditedWindMS, 1e-12)
 	assert.InDelta(t, 380, c.To50ftM, 1e-9, "50 % of 9 kt -> x0.95")
 }
@@ -93,7 +97,8 @@ func TestComputeGrid(t *testing.T) {
 	assert.Len(t, g.Cells, 4)
 	assert.Len(t, g.Cells[0], 7)
 	assert.Len(t, g.Cells[0][0], 8)
-	// QNH 1000 hPa at 300 m: pressure altitude about 300 m + 13.25 hPa x 8.4 m/hPa.
+	// QNH 1000 hPa at 300 m: pressure altitude about 300 m + 13.25 hPa x 8.4 m/hPa
+	// (ISA pressure gradient near sea level, ICAO Doc 7488 [calc]).
 	assert.InDelta(t, 410, g.PressureAltM, 5)
 	for _, blk := range g.Cells {
 		for _, row := range blk {

@@ -114,14 +114,14 @@ func TestAccelerateCheckConstantAcceleration(t *testing.T) {
 	f := constantThrustForces(0.3, 0)
 	s, _, mark, err := groundRun(f, 0, 30, 21, DefaultStepMS, nil)
 	require.NoError(t, err)
-	assert.InDelta(t, 0.49, mark/s, 1e-9)
+	assert.InDelta(t, 0.49, mark/s, 1e-9, "0.7^2 (domain notes sec. 4 [calc])")
 }
 
 // Anderson, Aircraft Performance and Design, sec. 6.7 example: V_stall = 186.4 ft/s,
 // obstacle 35 ft, R = 6.96 V_stall^2 / g = 7510 ft, airborne distance 724 ft [pub].
 func TestAirborneAnderson(t *testing.T) {
 	r := 6.96 * 186.4 * 186.4 / 32.2
-	assert.InDelta(t, 7510, r, 1)
+	assert.InDelta(t, 7510, r, 1, "R = 7510 ft (Anderson, sec. 6.7 example [pub])")
 	got := airborneDistance(r*ft, 0.2, 35*ft) / ft // a climb angle steep enough for the arc to reach 35 ft
 	assert.InDelta(t, 724, got, 1, "got %.1f ft, want 724 ft (Anderson)", got)
 	// A shallow climb: the arc ends below the screen, the straight climb completes it.
@@ -136,7 +136,7 @@ func TestAirborneAnderson(t *testing.T) {
 func TestStaticThrustMomentumTheory(t *testing.T) {
 	a := math.Pi * 1.930 * 1.930 / 4
 	got := math.Cbrt(2 * 1.225 * a * 134.2e3 * 134.2e3)
-	assert.InDelta(t, 5055, got, 5)
+	assert.InDelta(t, 5055, got, 5, "5055 N (domain notes sec. 4 [calc])")
 }
 
 func demoPhysics() *PhysicsModel {

@@ -8,7 +8,10 @@ import (
 )
 
 // smallTable is a two-by-two-by-two table, values chosen so interpolation is easy to
-// check by hand (test data, not an aircraft).
+// check by hand (test data, not an aircraft). The expected values in these tests are
+// arithmetic on this table and its notes: multilinear interpolation and the note
+// forms "x % per y kt" and "add x % of the ground roll" (from memory, the usual
+// flight-manual wording; domain notes sec. 4).
 func smallTable() *TableModel {
 	return &TableModel{Table: &Table{
 		PressureAltM: []float64{0, 1000},
