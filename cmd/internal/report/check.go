@@ -46,22 +46,18 @@ type CheckRun struct {
 
 // CheckEnd is the JSON form of one runway end's answer.
 type CheckEnd struct {
-	Rank             int      `json:"rank"`
-	Designator       string   `json:"designator"`
-	HeadingDeg       float64  `json:"heading_deg"`
-	Surface          string   `json:"surface"`
-	Condition        string   `json:"condition"`
-	SlopePct         float64  `json:"slope_pct"`
-	HeadwindKt       float64  `json:"headwind_kt"`
-	CrosswindKt      float64  `json:"crosswind_kt"`
-	GustCrosswindKt  float64  `json:"gust_crosswind_kt"`
-	CreditedWindKt   float64  `json:"credited_headwind_kt"`
-	GroundRollM      *float64 `json:"ground_roll_m"`
-	Distance50ftM    *float64 `json:"distance_50ft_m"`
+	Rank            int     `json:"rank"`
+	Designator      string  `json:"designator"`
+	HeadingDeg      float64 `json:"heading_deg"`
+	Surface         string  `json:"surface"`
+	Condition       string  `json:"condition"`
+	SlopePct        float64 `json:"slope_pct"`
+	HeadwindKt      float64 `json:"headwind_kt"`
+	CrosswindKt     float64 `json:"crosswind_kt"`
+	GustCrosswindKt float64 `json:"gust_crosswind_kt"`
+	CreditedWindKt  float64 `json:"credited_headwind_kt"`
+	Distances
 	AccelerateCheckM *float64 `json:"accelerate_check_m"`
-	RequiredM        *float64 `json:"required_m"`
-	AvailableM       *float64 `json:"available_m"`
-	Limiting         string   `json:"limiting"`
 	TORAM            float64  `json:"tora_m"`
 	TODAM            float64  `json:"toda_m"`
 	ASDAM            float64  `json:"asda_m"`
@@ -77,6 +73,22 @@ func round1(x float64) float64 { return math.Round(x*10) / 10 }
 func ceilM(x float64) float64 { return math.Ceil(x - 1e-9) }
 
 func ptr(x float64) *float64 { return &x }
+
+// Distances are a cell's figures in JSON: null where the cell has none.
+type Distances struct {
+	GroundRollM   *float64 `json:"ground_roll_m"`   // unfactored, rounded up
+	Distance50ftM *float64 `json:"distance_50ft_m"` // unfactored, rounded up
+	RequiredM     *float64 `json:"required_m"`      // of the limiting declared distance, rounded up
+	AvailableM    *float64 `json:"available_m"`     // rounded down
+	Limiting      string   `json:"limiting"`
+}
+
+func distances(c perf.Cell) Distances {
+	if !c.HasDistance {
+		return Distances{}
+	}
+	return Distances{ptr(ceilM(c.GroundRollM)), ptr(ceilM(c.To50ftM)), ptr(ceilM(c.RequiredM)), ptr(math.Floor(c.AvailableM)), c.Limiting}
+}
 
 // BuildCheck turns an answer into its JSON form.
 func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
@@ -106,9 +118,9 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 		if e.Reasons == nil {
 			e.Reasons = []string{}
 		}
+		e.Distances = distances(c)
 		if c.HasDistance {
-			e.GroundRollM, e.Distance50ftM, e.AccelerateCheckM = ptr(ceilM(c.GroundRollM)), ptr(ceilM(c.To50ftM)), ptr(ceilM(c.AccelCheckM))
-			e.RequiredM, e.AvailableM, e.Limiting = ptr(ceilM(c.RequiredM)), ptr(math.Floor(c.AvailableM)), c.Limiting
+			e.AccelerateCheckM = ptr(ceilM(c.AccelCheckM))
 			for _, f := range c.Requirement.Factors {
 				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f (%s)", f.Label(), f.Value, f.Source))
 			}

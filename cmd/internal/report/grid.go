@@ -50,17 +50,13 @@ type GridEnd struct {
 
 // GridCell is one cell.
 type GridCell struct {
-	WeightKg       float64  `json:"weight_kg"`
-	HeadwindKt     float64  `json:"headwind_kt"`
-	TemperatureC   float64  `json:"temperature_c"`
-	CreditedWindKt float64  `json:"credited_headwind_kt"`
-	GroundRollM    *float64 `json:"ground_roll_m"`
-	Distance50ftM  *float64 `json:"distance_50ft_m"`
-	RequiredM      *float64 `json:"required_m"`
-	AvailableM     *float64 `json:"available_m"`
-	Limiting       string   `json:"limiting"`
-	Status         string   `json:"status"`
-	Reasons        []string `json:"reasons"`
+	WeightKg       float64 `json:"weight_kg"`
+	HeadwindKt     float64 `json:"headwind_kt"`
+	TemperatureC   float64 `json:"temperature_c"`
+	CreditedWindKt float64 `json:"credited_headwind_kt"`
+	Distances
+	Status  string   `json:"status"`
+	Reasons []string `json:"reasons"`
 }
 
 // BuildGrid turns grids into their JSON form.
@@ -90,10 +86,7 @@ func BuildGrid(in GridInput) GridRun {
 					if gc.Reasons == nil {
 						gc.Reasons = []string{}
 					}
-					if c.HasDistance {
-						gc.GroundRollM, gc.Distance50ftM = ptr(ceilM(c.GroundRollM)), ptr(ceilM(c.To50ftM))
-						gc.RequiredM, gc.AvailableM, gc.Limiting = ptr(ceilM(c.RequiredM)), ptr(math.Floor(c.AvailableM)), c.Limiting
-					}
+					gc.Distances = distances(c)
 					ge.Cells = append(ge.Cells, gc)
 				}
 			}

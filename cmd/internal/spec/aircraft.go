@@ -348,17 +348,21 @@ func (d *decoder) corrections(n *yaml.Node, t *perf.Table) {
 	} else {
 		d.notef("table.corrections.tailwind not given: tailwind cells have no data")
 	}
-	if gn := m.get("grass", false); gn != nil {
-		gm := d.mapping(gn, "table.corrections.grass")
-		t.Corrections.GrassPctOfGroundRoll, _ = gm.quantity("add_of_ground_roll", units.Percent, true, 0, 200)
-		gm.finish()
-	}
-	if gn := m.get("wet_grass", false); gn != nil {
-		gm := d.mapping(gn, "table.corrections.wet_grass")
-		t.Corrections.WetGrassPctOfGroundRoll, _ = gm.quantity("add_of_ground_roll", units.Percent, true, 0, 300)
-		gm.finish()
-	}
+	t.Corrections.GrassPctOfGroundRoll = d.groundRollNote(m, "grass", 200)
+	t.Corrections.WetGrassPctOfGroundRoll = d.groundRollNote(m, "wet_grass", 300)
 	m.finish()
+}
+
+// groundRollNote reads a note "add x % of the ground roll" under key; 0 when absent.
+func (d *decoder) groundRollNote(m *mapping, key string, maxPct float64) float64 {
+	n := m.get(key, false)
+	if n == nil {
+		return 0
+	}
+	gm := d.mapping(n, "table.corrections."+key)
+	pct, _ := gm.quantity("add_of_ground_roll", units.Percent, true, 0, maxPct)
+	gm.finish()
+	return pct
 }
 
 func (d *decoder) physics(n *yaml.Node) *perf.Physics {
