@@ -52,7 +52,7 @@ func TestSeasonEndToEnd(t *testing.T) {
 		assert.Contains(t, strings.Join(s.Reasons, ";"), "TORA 840 m -> 760 m")
 	}
 
-	code, out, _ = runCLI(t, "diff", "--aircraft", filepath.Join(dir, "pipwing-pw2.yaml"), "--aircraft", filepath.Join(dir, "quillwing-qt6.yaml"),
+	code, out, _ = runCLI(t, "diff", "--aircraft", filepath.Join(dir, "sedgefin-sf2.yaml"), "--aircraft", filepath.Join(dir, "quillwing-qt6.yaml"),
 		filepath.Join(dir, "wrenmoor.yaml"), filepath.Join(dir, "wrenmoor-2027.yaml"))
 	assert.Equal(t, exitFailure, code, "something a pilot must know changed")
 	assert.Contains(t, out, "runway 25: TORA 840 m -> 760 m")
@@ -61,7 +61,7 @@ func TestSeasonEndToEnd(t *testing.T) {
 			assert.True(t, strings.HasPrefix(line, "  runway 25,"), "only runway 25 cells change: %s", line)
 		}
 	}
-	code, out, _ = runCLI(t, "diff", "--aircraft", "demo:pipwing-pw2", filepath.Join(dir, "wrenmoor.yaml"), filepath.Join(dir, "wrenmoor.yaml"))
+	code, out, _ = runCLI(t, "diff", "--aircraft", "demo:sedgefin-sf2", filepath.Join(dir, "wrenmoor.yaml"), filepath.Join(dir, "wrenmoor.yaml"))
 	assert.Equal(t, exitOK, code)
 	assert.Contains(t, out, "nothing a pilot must know changed")
 

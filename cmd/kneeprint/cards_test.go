@@ -20,7 +20,7 @@ func TestCardsDemo(t *testing.T) {
 	for _, e := range entries {
 		assert.True(t, strings.HasSuffix(e.Name(), ".pdf") || e.Name() == "kneeprint-index.json", "no temporary file left: %s", e.Name())
 	}
-	assert.Contains(t, out, "kp-spm_pipwing-pw-2-demo-trainer_a5.pdf (2 page(s))")
+	assert.Contains(t, out, "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf (2 page(s))")
 	assert.Contains(t, out, "no-go")
 }
 
@@ -48,7 +48,7 @@ func TestCardsBadInput(t *testing.T) {
 		assert.Equal(t, exitUsage, code, strings.Join(args, " ")+": "+errOut)
 	}
 	// A bad airfield file is reported with file and line, and nothing is written for it.
-	code, out, _ := runCLI(t, "cards", "--aircraft", "demo:pipwing-pw2", "--airfield", "../internal/spec/testdata/bad/af-toda-short.yaml", "-o", dir)
+	code, out, _ := runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", "../internal/spec/testdata/bad/af-toda-short.yaml", "-o", dir)
 	assert.Equal(t, exitFailure, code)
 	assert.Contains(t, out, "af-toda-short.yaml:10:15: runways[0].ends[0].toda")
 	entries, _ := os.ReadDir(dir)

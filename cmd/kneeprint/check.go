@@ -34,7 +34,7 @@ credited wind (50 % of a headwind, 150 % of a tailwind, unless the profile's dat
 already include that) is what the model used. Exit 0 when computed, whatever the verdict.
 
 ` + caution,
-		Example: `  kneeprint check --aircraft demo:pipwing-pw2 --airfield demo:wrenmoor --temp 30C --qnh 1003hPa --wind 240/15G25
+		Example: `  kneeprint check --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --temp 30C --qnh 1003hPa --wind 240/15G25
   kneeprint check --aircraft my-plane.yaml --airfield home.yaml --temp 86F --qnh 29.62inHg --weight 2300lb --surface wet --json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error { return checkRun(e, opts) },

@@ -10,7 +10,7 @@ import (
 )
 
 func TestCheckJSONFields(t *testing.T) {
-	code, out, errOut := runCLI(t, "check", "--aircraft", "demo:pipwing-pw2", "--airfield", "demo:wrenmoor",
+	code, out, errOut := runCLI(t, "check", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor",
 		"--temp", "30C", "--qnh", "29.62inHg", "--wind", "240/15G25", "--json")
 	require.Equal(t, exitOK, code, errOut)
 	var run map[string]any
@@ -37,7 +37,7 @@ func TestCheckJSONFields(t *testing.T) {
 }
 
 func TestCheckVerdictDoesNotChangeExitCode(t *testing.T) {
-	code, out, errOut := runCLI(t, "check", "--aircraft", "demo:pipwing-pw2", "--airfield", "demo:saltpan", "--temp", "35C", "--qnh", "995hPa")
+	code, out, errOut := runCLI(t, "check", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:saltpan", "--temp", "35C", "--qnh", "995hPa")
 	require.Equal(t, exitOK, code, errOut)
 	assert.Contains(t, out, "NO-GO")
 	assert.Contains(t, out, "Not a substitute for the approved flight manual")
@@ -51,7 +51,7 @@ func TestCheckBadFlags(t *testing.T) {
 		{"--temp", "30C", "--policy", "lenient"},
 		{"--temp", "30C", "--surface", "icy"},
 	} {
-		code, _, errOut := runCLI(t, append([]string{"check", "--aircraft", "demo:pipwing-pw2", "--airfield", "demo:wrenmoor"}, args...)...)
+		code, _, errOut := runCLI(t, append([]string{"check", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor"}, args...)...)
 		assert.Equal(t, exitUsage, code, strings.Join(args, " "))
 		assert.NotEmpty(t, errOut)
 	}

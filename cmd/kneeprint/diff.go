@@ -30,7 +30,7 @@ every runway end, and, for each aircraft, every grid cell whose state changes
 Exit 0 when nothing a pilot must know changed, 1 when something did.
 
 ` + caution,
-		Example: `  kneeprint diff --aircraft demo:pipwing-pw2 home-2026.yaml home-2027.yaml
+		Example: `  kneeprint diff --aircraft demo:sedgefin-sf2 home-2026.yaml home-2027.yaml
   kneeprint diff --aircraft a.yaml --aircraft b.yaml old.yaml new.yaml --template 5x8 --json`,
 		Args: cobra.ExactArgs(2),
 		RunE: func(cmd *cobra.Command, args []string) error {

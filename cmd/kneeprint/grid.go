@@ -36,7 +36,7 @@ components in knots, negative for a tailwind.
 
 ` + caution,
 		Example: `  kneeprint grid --aircraft demo:quillwing-qt6 --airfield demo:saltpan
-  kneeprint grid --aircraft demo:pipwing-pw2 --airfield demo:wrenmoor --runway 25 --temps 10C,20C,30C --winds=-5kt,0kt,10kt --csv`,
+  kneeprint grid --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --runway 25 --temps 10C,20C,30C --winds=-5kt,0kt,10kt --csv`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error { return gridRun(e, opts) },
 	}

@@ -26,7 +26,7 @@ func TestValidateDemo(t *testing.T) {
 	require.Equal(t, exitOK, code, "stderr: %s\nstdout: %s", errOut, out)
 	for _, want := range []string{
 		"Wrenmoor Field (demo)", "Saltpan Mesa Strip (demo)",
-		"Pipwing PW-2 demo trainer", "Quillwing QT-6 demo tourer",
+		"Sedgefin SF-2 demo trainer", "Quillwing QT-6 demo tourer",
 		"toda not given: TODA = TORA", "4 file(s) read, 0 with errors",
 	} {
 		assert.Contains(t, out, want)

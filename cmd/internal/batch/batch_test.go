@@ -27,7 +27,7 @@ func demoDir(t *testing.T) string {
 		require.NoError(t, err)
 		require.NoError(t, os.WriteFile(filepath.Join(dir, name), data, 0o644))
 	}
-	for _, n := range []string{"pipwing-pw2.yaml", "quillwing-qt6.yaml"} {
+	for _, n := range []string{"sedgefin-sf2.yaml", "quillwing-qt6.yaml"} {
 		data, err := templates.FS.ReadFile("aircraft/" + n)
 		copyFS(data, err, n)
 	}
@@ -39,7 +39,7 @@ func demoDir(t *testing.T) string {
 }
 
 func demoPlan(dir string) *spec.Plan {
-	return &spec.Plan{Name: "test", Aircraft: []string{"pipwing-pw2.yaml", "quillwing-qt6.yaml"},
+	return &spec.Plan{Name: "test", Aircraft: []string{"sedgefin-sf2.yaml", "quillwing-qt6.yaml"},
 		Airfields: []string{"wrenmoor.yaml", "saltpan.yaml"}, Templates: []string{"a5"},
 		Date: planDate, Output: "cards"}
 }
@@ -75,7 +75,7 @@ func TestRunPlanAndIndex(t *testing.T) {
 	var sb strings.Builder
 	s.WriteSummary(&sb)
 	assert.Contains(t, sb.String(), "4 card file(s), 12 card page(s) written")
-	assert.Contains(t, sb.String(), "kp-spm_pipwing-pw-2-demo-trainer_a5.pdf runway 04:")
+	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04:")
 }
 
 // One bad airfield is reported; every other card is still made.
@@ -133,7 +133,7 @@ func TestStaleReasons(t *testing.T) {
 	run(t, dir, demoPlan(dir))
 	out := filepath.Join(dir, "cards")
 	// The aircraft changes: every card of that aircraft, every runway end.
-	ap := filepath.Join(dir, "pipwing-pw2.yaml")
+	ap := filepath.Join(dir, "sedgefin-sf2.yaml")
 	data, _ := os.ReadFile(ap)
 	require.NoError(t, os.WriteFile(ap, []byte(strings.Replace(string(data), "max_crosswind: 15 kt", "max_crosswind: 12 kt", 1)), 0o644))
 	// A card file altered, another removed.
@@ -146,7 +146,7 @@ func TestStaleReasons(t *testing.T) {
 		why[s.File+" "+s.Designator] = strings.Join(s.Reasons, "; ")
 	}
 	assert.Len(t, why, 12)
-	assert.Contains(t, why["kp-wrm_pipwing-pw-2-demo-trainer_a5.pdf 07"], "aircraft profile")
+	assert.Contains(t, why["kp-wrm_sedgefin-sf-2-demo-trainer_a5.pdf 07"], "aircraft profile")
 	assert.Contains(t, why["kp-spm_quillwing-qt-6-demo-tourer_a5.pdf 04"], "card file changed after kneeprint wrote it")
 	assert.Contains(t, why["kp-wrm_quillwing-qt-6-demo-tourer_a5.pdf 33"], "card file missing")
 	// A new kneeprint version makes every card stale, saying so.
@@ -226,7 +226,7 @@ func TestLeftoverTemporariesRemoved(t *testing.T) {
 	dir := demoDir(t)
 	out := filepath.Join(dir, "cards")
 	require.NoError(t, os.MkdirAll(out, 0o755))
-	leftover := filepath.Join(out, ".kp-wrm_pipwing-pw-2-demo-trainer_a5.pdf.12345.tmp")
+	leftover := filepath.Join(out, ".kp-wrm_sedgefin-sf-2-demo-trainer_a5.pdf.12345.tmp")
 	require.NoError(t, os.WriteFile(leftover, []byte("%PDF-1.4 half"), 0o644))
 	run(t, dir, demoPlan(dir))
 	_, err := os.Stat(leftover)
@@ -241,9 +241,9 @@ func TestNamesSafeAndUnique(t *testing.T) {
 	for i, ident := range []string{"kp-wrm", "KP-wrm"} {
 		require.NoError(t, os.WriteFile(filepath.Join(dir, []string{"a.yaml", "b.yaml"}[i]), []byte(strings.Replace(s, "ident: KP-WRM", "ident: "+ident, 1)), 0o644))
 	}
-	ap := filepath.Join(dir, "pipwing-pw2.yaml")
+	ap := filepath.Join(dir, "sedgefin-sf2.yaml")
 	ad, _ := os.ReadFile(ap)
-	require.NoError(t, os.WriteFile(ap, []byte(strings.Replace(string(ad), "name: Pipwing PW-2 demo trainer", `name: "../../etc/passwd `+strings.Repeat("x", 300)+`"`, 1)), 0o644))
+	require.NoError(t, os.WriteFile(ap, []byte(strings.Replace(string(ad), "name: Sedgefin SF-2 demo trainer", `name: "../../etc/passwd `+strings.Repeat("x", 300)+`"`, 1)), 0o644))
 	p := demoPlan(dir)
 	p.Airfields = []string{"wrenmoor.yaml", "a.yaml", "b.yaml"}
 	prep, err := Prepare(p, dir, "", "test", false)

@@ -186,7 +186,7 @@ func TestFingerprintFollowsInputs(t *testing.T) {
 
 func TestSlug(t *testing.T) {
 	for in, want := range map[string]string{
-		"KP-WRM": "kp-wrm", "../../etc/passwd": "etc-passwd", "Pipwing PW-2 demo trainer": "pipwing-pw-2-demo-trainer",
+		"KP-WRM": "kp-wrm", "../../etc/passwd": "etc-passwd", "Sedgefin SF-2 demo trainer": "sedgefin-sf-2-demo-trainer",
 		"": "unnamed", "\x00\x01": "unnamed", "Ærø Field": "r-field", strings.Repeat("a", 100): strings.Repeat("a", 40),
 	} {
 		assert.Equal(t, want, Slug(in), in)

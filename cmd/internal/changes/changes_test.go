@@ -27,7 +27,7 @@ func fixtures(t *testing.T) (string, []*perf.Aircraft, spec.CardTemplate) {
 	data, err := airfields.FS.ReadFile("wrenmoor.yaml")
 	require.NoError(t, err)
 	var acs []*perf.Aircraft
-	for _, p := range []string{"aircraft/pipwing-pw2.yaml", "aircraft/quillwing-qt6.yaml"} {
+	for _, p := range []string{"aircraft/sedgefin-sf2.yaml", "aircraft/quillwing-qt6.yaml"} {
 		d, err := spec.Load(templates.FS, p)
 		require.NoError(t, err)
 		acs = append(acs, d.Aircraft)

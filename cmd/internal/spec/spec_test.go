@@ -138,7 +138,7 @@ func TestAirfieldDerivedValues(t *testing.T) {
 }
 
 func TestAircraftTableInSI(t *testing.T) {
-	doc, err := Load(templates.FS, "aircraft/pipwing-pw2.yaml")
+	doc, err := Load(templates.FS, "aircraft/sedgefin-sf2.yaml")
 	require.NoError(t, err)
 	a := doc.Aircraft
 	require.NotNil(t, a.Table)
@@ -146,7 +146,7 @@ func TestAircraftTableInSI(t *testing.T) {
 	assert.InDelta(t, 415*0.3048, a.Table.GroundRollM[0][0][0], 1e-9)
 	assert.Equal(t, []float64{1000, 900, 800}, a.WeightsKg, "heaviest first")
 	assert.Equal(t, []float64{800, 900, 1000}, a.Table.WeightKg, "table weights increasing")
-	assert.InDelta(t, 9*1852.0/3600, a.Table.Corrections.HeadwindPerMS, 1e-12)
+	assert.InDelta(t, 5*1852.0/3600, a.Table.Corrections.HeadwindPerMS, 1e-12) // the demo's invented note, 5 kt; 1 kt = 1852 m / 3600 s (exact)
 	assert.InDelta(t, 40+273.15, a.MaxTempK, 1e-9)
 	assert.False(t, math.IsNaN(a.MaxCrosswindMS))
 }
@@ -232,7 +232,7 @@ func FuzzAirfield(f *testing.F) {
 }
 
 func FuzzAircraft(f *testing.F) {
-	seed(f, templates.FS, "aircraft/pipwing-pw2.yaml", "aircraft/quillwing-qt6.yaml", "starter/aircraft.yaml")
+	seed(f, templates.FS, "aircraft/sedgefin-sf2.yaml", "aircraft/quillwing-qt6.yaml", "starter/aircraft.yaml")
 	f.Fuzz(fuzzParse)
 }
 
