@@ -13,10 +13,21 @@ type Aircraft struct {
 	RotateIASMS float64 // rotation (lift-off) indicated airspeed from the manual
 	At50ftIASMS float64 // speed at the 50 ft screen from the manual
 
-	MaxTailwindMS  float64 // flight-manual or club limit on tailwind component
-	MaxCrosswindMS float64 // maximum demonstrated crosswind component
-	MinTempK       float64 // temperature range covered by the data
-	MaxTempK       float64
+	MaxTailwindMS float64 // flight-manual or club limit on tailwind component
+
+	// DemonstratedCrosswindMS is the flight manual's maximum demonstrated crosswind
+	// component: advisory, not a limit (it says what was shown in certification).
+	DemonstratedCrosswindMS float64
+	// MaxCrosswindMS is a real crosswind limit (the manual's, or a club's), in force
+	// only when HasMaxCrosswind: a limit of 0 then means no crosswind at all.
+	MaxCrosswindMS  float64
+	HasMaxCrosswind bool
+
+	// MinTempK and MaxTempK are declared operating temperature limits; zero when the
+	// profile declares none. Past them a cell is beyond limits. Where the data end (a
+	// table's hottest column) a cell has no data, which is not a limit.
+	MinTempK float64
+	MaxTempK float64
 
 	TakeoffFlap string // the flap setting the data is for, as printed in the manual
 

@@ -13,9 +13,9 @@ type State int
 const (
 	Go           State = iota // fits, with the card's margin to spare
 	Tight                     // fits, but within the card's margin
-	NoGo                      // required distance exceeds the distance available
+	NoGo                      // required distance exceeds the distance available, or no takeoff at all (Cell.CannotTakeOff)
 	NoData                    // outside the model's data: no figure is given
-	BeyondLimits              // past an aircraft limit: weight, tailwind, crosswind, temperature
+	BeyondLimits              // past a declared limit of the profile: MTOW, tailwind, crosswind limit, operating temperature
 )
 
 var stateNames = [...]string{"go", "tight", "no-go", "no-data", "beyond-limits"}
@@ -46,6 +46,9 @@ type Case struct {
 	MassKg       float64
 	Wind         Components // reported components, before any factoring
 	TightMargin  float64
+	// Rounding is how the figures are printed; the state is decided from the printed
+	// figures (the zero value: whole metres).
+	Rounding Rounding
 }
 
 // Cell is the answer to a Case.
@@ -69,7 +72,17 @@ type Cell struct {
 	Limiting    string  // TORA, TODA or ASDA
 	HasDistance bool    // a required distance was computed
 	Covers      Effects // what the model's figure already includes
-	reasons     []reason
+
+	// The figures as printed, in Rounding's unit: the required distance rounded up,
+	// the available distance rounded down. The state is decided from these.
+	ShownRequired  float64
+	ShownAvailable float64
+	ShownUnit      string
+
+	// CannotTakeOff is set when the model finds no takeoff at all (no acceleration to
+	// lift-off speed, or no climb): a no-go without a figure.
+	CannotTakeOff bool
+	reasons       []reason
 }
 
 // reason is why a cell has its state, kept as numbers and formatted only when asked:
@@ -78,6 +91,7 @@ type reason struct {
 	kind    reasonKind
 	a, b, c float64
 	s       string
+	unit    string
 }
 
 type reasonKind int
@@ -87,6 +101,7 @@ const (
 	reasonMTOW
 	reasonTailwind
 	reasonCrosswind
+	reasonDemonstrated
 	reasonTemperature
 	reasonNoGo
 	reasonTight
@@ -99,13 +114,21 @@ func (r reason) String() string {
 	case reasonTailwind:
 		return fmt.Sprintf("tailwind %.0f kt above the %.0f kt limit", r.a/knot, r.b/knot)
 	case reasonCrosswind:
-		return fmt.Sprintf("crosswind %.0f kt above the demonstrated %.0f kt", r.a/knot, r.b/knot)
+		return fmt.Sprintf("crosswind %.0f kt above the %.0f kt limit", r.a/knot, r.b/knot)
+	case reasonDemonstrated:
+		return fmt.Sprintf("crosswind %.0f kt above the demonstrated %.0f kt (advisory, not a limit of the profile)", r.a/knot, r.b/knot)
 	case reasonTemperature:
-		return fmt.Sprintf("temperature %.0f C outside the data's %.0f to %.0f C", r.a-273.15, r.b-273.15, r.c-273.15)
+		switch {
+		case r.b == 0:
+			return fmt.Sprintf("temperature %.0f C above the declared limit %.0f C", r.a-273.15, r.c-273.15)
+		case r.c == 0:
+			return fmt.Sprintf("temperature %.0f C below the declared limit %.0f C", r.a-273.15, r.b-273.15)
+		}
+		return fmt.Sprintf("temperature %.0f C outside the declared limits %.0f to %.0f C", r.a-273.15, r.b-273.15, r.c-273.15)
 	case reasonNoGo:
-		return fmt.Sprintf("%s: %.0f m required, %.0f m available", r.s, math.Ceil(r.a), math.Floor(r.b))
+		return fmt.Sprintf("%s: %.0f %s required, %.0f %s available", r.s, r.a, r.unit, r.b, r.unit)
 	case reasonTight:
-		return fmt.Sprintf("%s: %.0f m required, %.0f m available, less than %.0f %% spare", r.s, math.Ceil(r.a), math.Floor(r.b), r.c*100)
+		return fmt.Sprintf("%s: %.0f %s required, %.0f %s available, less than %.0f %% spare", r.s, r.a, r.unit, r.b, r.unit, r.c*100)
 	}
 	return r.s
 }
@@ -129,6 +152,18 @@ func (c *Cell) worsen(s State, r reason) {
 
 // Evaluate answers one Case: limits, wind factoring, the model (twice when the policy
 // needs a paved, dry, level reference), the policy, and the cell's state.
+//
+// Marks mean one thing:
+//   - beyond limits: a real limit of the profile is passed (weight above MTOW, tailwind
+//     past its limit, crosswind past a declared max_crosswind, temperature past a
+//     declared operating limit);
+//   - no data: the model holds no answer (a table's hottest column passed, ...);
+//   - no-go without a figure (CannotTakeOff): the model finds no takeoff at all;
+//   - no-go, tight, go: decided from the figures as printed (k.Rounding).
+//
+// The demonstrated crosswind is advisory: passing it adds a reason, not a state.
+// On a wet unpaved runway the requirement is never below the dry one (common
+// practice: water never shortens a takeoff on grass or gravel, whatever the notes).
 func Evaluate(k Case) Cell {
 	a := k.Aircraft
 	c := Cell{TempK: k.TempK, HeadwindMS: k.Wind.HeadwindMS, CrosswindMS: math.Abs(k.Wind.GustCrosswindMS), MassKg: k.MassKg}
@@ -138,10 +173,13 @@ func Evaluate(k Case) Cell {
 	if tail := -k.Wind.HeadwindMS; tail > a.MaxTailwindMS+1e-9 {
 		c.worsen(BeyondLimits, reason{kind: reasonTailwind, a: tail, b: a.MaxTailwindMS})
 	}
-	if a.MaxCrosswindMS > 0 && c.CrosswindMS > a.MaxCrosswindMS+1e-9 {
+	switch {
+	case a.HasMaxCrosswind && c.CrosswindMS > a.MaxCrosswindMS+1e-9:
 		c.worsen(BeyondLimits, reason{kind: reasonCrosswind, a: c.CrosswindMS, b: a.MaxCrosswindMS})
+	case a.DemonstratedCrosswindMS > 0 && c.CrosswindMS > a.DemonstratedCrosswindMS+1e-9:
+		c.reasons = append(c.reasons, reason{kind: reasonDemonstrated, a: c.CrosswindMS, b: a.DemonstratedCrosswindMS})
 	}
-	if k.TempK > a.MaxTempK+1e-9 || k.TempK < a.MinTempK-1e-9 {
+	if (a.MaxTempK > 0 && k.TempK > a.MaxTempK+1e-9) || (a.MinTempK > 0 && k.TempK < a.MinTempK-1e-9) {
 		c.worsen(BeyondLimits, reason{kind: reasonTemperature, a: k.TempK, b: a.MinTempK, c: a.MaxTempK})
 	}
 
@@ -151,16 +189,21 @@ func Evaluate(k Case) Cell {
 		HeadwindMS: c.CreditedWindMS, SlopePct: k.End.SlopePct,
 		Surface: k.End.Surface, Condition: k.End.Condition,
 	}
-	actual, err := k.Model.Takeoff(cond)
-	ref := actual
-	if err == nil && (actual.Covers.Surface || actual.Covers.Slope) && !isReference(cond) {
-		refCond := cond
-		refCond.Surface, refCond.Condition, refCond.SlopePct = Paved, Dry, 0
-		ref, err = k.Model.Takeoff(refCond)
+	actual, req, err := takeoff(k, cond)
+	if err == nil && cond.Surface != Paved && cond.Condition == Wet {
+		dryCond := cond
+		dryCond.Condition = Dry
+		dryEnd := k
+		dryEnd.End.Condition = Dry
+		if _, dry, derr := takeoff(dryEnd, dryCond); derr == nil && dry.FactoredTODM > req.FactoredTODM {
+			req = dry
+			c.reasons = append(c.reasons, reason{s: "wet figure raised to the dry one: wet is never shorter than dry"})
+		}
 	}
 	if err != nil {
 		switch {
 		case errors.Is(err, ErrCannotTakeOff):
+			c.CannotTakeOff = true
 			c.worsen(NoGo, reason{s: err.Error()})
 		default: // ErrNoData, and anything unexpected: never a figure
 			c.worsen(NoData, reason{s: err.Error()})
@@ -172,17 +215,39 @@ func Evaluate(k Case) Cell {
 	for _, n := range actual.Notes {
 		c.reasons = append(c.reasons, reason{s: n})
 	}
-	req := k.Policy.Require(actual, ref, k.End)
 	c.Requirement = req
 	c.RequiredM, c.AvailableM, c.Limiting = req.Limiting.RequiredM, req.Limiting.AvailableM, req.Limiting.Declared
 	c.HasDistance = true
+	// The verdict follows the printed figures: required rounded up, available down.
+	c.ShownRequired, c.ShownAvailable, c.ShownUnit = k.Rounding.Up(c.RequiredM), k.Rounding.Down(c.AvailableM), k.Rounding.UnitName()
+	r := reason{s: c.Limiting, a: c.ShownRequired, b: c.ShownAvailable, c: k.TightMargin, unit: c.ShownUnit}
 	switch {
-	case c.RequiredM > c.AvailableM:
-		c.worsen(NoGo, reason{kind: reasonNoGo, s: c.Limiting, a: c.RequiredM, b: c.AvailableM})
-	case c.RequiredM*(1+k.TightMargin) > c.AvailableM:
-		c.worsen(Tight, reason{kind: reasonTight, s: c.Limiting, a: c.RequiredM, b: c.AvailableM, c: k.TightMargin})
+	case c.ShownRequired > c.ShownAvailable:
+		r.kind = reasonNoGo
+		c.worsen(NoGo, r)
+	case c.ShownRequired*(1+k.TightMargin) > c.ShownAvailable+1e-9:
+		r.kind = reasonTight
+		c.worsen(Tight, r)
 	}
 	return c
+}
+
+// takeoff asks the model for conditions cond (and, when the model covers surface or
+// slope, for the paved, dry, level reference) and applies the policy.
+func takeoff(k Case, cond Conditions) (Result, Requirement, error) {
+	actual, err := k.Model.Takeoff(cond)
+	if err != nil {
+		return actual, Requirement{}, err
+	}
+	ref := actual
+	if (actual.Covers.Surface || actual.Covers.Slope) && !isReference(cond) {
+		refCond := cond
+		refCond.Surface, refCond.Condition, refCond.SlopePct = Paved, Dry, 0
+		if ref, err = k.Model.Takeoff(refCond); err != nil {
+			return actual, Requirement{}, err
+		}
+	}
+	return actual, k.Policy.Require(actual, ref, k.End), nil
 }
 
 func isReference(c Conditions) bool {
@@ -196,6 +261,7 @@ type GridSpec struct {
 	WeightsKg   []float64 // one block per weight
 	QNHPa       float64   // the QNH assumed (a conservative low value)
 	TightMargin float64
+	Rounding    Rounding // how figures are printed; states follow the printed figures
 }
 
 // Limits on a grid's size: a card holds far fewer cells; larger requests are mistakes.
@@ -241,6 +307,9 @@ func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec G
 	if !(spec.QNHPa > 80000 && spec.QNHPa < 110000) {
 		return nil, fmt.Errorf("grid: QNH %.1f hPa outside 800 to 1100 hPa", spec.QNHPa/100)
 	}
+	if err := spec.Rounding.Validate(); err != nil {
+		return nil, fmt.Errorf("grid: %w", err)
+	}
 	g := &Grid{Spec: spec, End: e, ElevationM: f.ElevationM, Policy: p}
 	g.PressureAltM = PressureAltitudeFromQNH(spec.QNHPa, f.ElevationM)
 	g.Cells = make([][][]Cell, len(spec.WeightsKg))
@@ -254,6 +323,7 @@ func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec G
 					PressureAltM: g.PressureAltM, TempK: t, MassKg: w,
 					Wind:        Components{HeadwindMS: h},
 					TightMargin: spec.TightMargin,
+					Rounding:    spec.Rounding,
 				})
 			}
 			g.Cells[wi][hi] = row

@@ -1,6 +1,7 @@
 package perf
 
 import (
+	"fmt"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -10,7 +11,7 @@ import (
 func testAircraft(m Model) *Aircraft {
 	a := &Aircraft{
 		Name: "test", MTOWKg: 1100, WeightsKg: []float64{1100, 1000, 900, 800},
-		MaxTailwindMS: 10 * knot, MaxCrosswindMS: 15 * knot,
+		MaxTailwindMS: 10 * knot, DemonstratedCrosswindMS: 15 * knot,
 		MinTempK: 243.15, MaxTempK: 318.15,
 	}
 	switch mm := m.(type) {
@@ -56,10 +57,18 @@ func TestEvaluateStates(t *testing.T) {
 	c = Evaluate(k)
 	assert.Equal(t, BeyondLimits, c.State)
 
+	// Past the demonstrated crosswind: advisory, the state stands.
+	k.End.TORAM, k.End.TODAM, k.End.ASDAM = 700, 700, 700
 	k.Wind = Components{GustCrosswindMS: 18 * knot}
 	c = Evaluate(k)
+	assert.Equal(t, Go, c.State)
+	assert.Contains(t, c.Reasons()[0], "crosswind 18 kt above the demonstrated 15 kt (advisory")
+	// Past a declared crosswind limit: beyond limits.
+	a.MaxCrosswindMS, a.HasMaxCrosswind = 17*knot, true
+	c = Evaluate(k)
 	assert.Equal(t, BeyondLimits, c.State)
-	assert.Contains(t, c.Reasons()[0], "crosswind 18 kt above the demonstrated 15 kt")
+	assert.Contains(t, c.Reasons()[0], "crosswind 18 kt above the 17 kt limit")
+	a.HasMaxCrosswind = false
 
 	k.Wind = Components{}
 	k.PressureAltM = 1500
@@ -132,3 +141,151 @@ func benchmarkGrid(b *testing.B, m Model) {
 func BenchmarkGridPhysics(b *testing.B) { benchmarkGrid(b, demoPhysics()) }
 
 func BenchmarkGridTable(b *testing.B) { benchmarkGrid(b, smallTable()) }
+
+// fixedModel answers every question with the same result or error: a test double
+// that sets the model's figure exactly.
+type fixedModel struct {
+	r   Result
+	err error
+}
+
+func (m fixedModel) Takeoff(Conditions) (Result, error) { return m.r, m.err }
+
+// Issue 8.3: the state follows the figures as printed. EU Air OPS CAT.POL.A.305(b)(1):
+// TOD x1.25 <= TORA [pub]. TOD 537.6 m -> 672 m required against TORA 675 m. The card
+// prints 680 (rounded up to 10 m): 680 > 675 is no-go on the card, whatever the
+// unrounded figures say; whole metres (check and grid) print 672 <= 675: tight. In
+// feet (0.3048 m exactly, ICAO Annex 5): 672 m = 2204.7 ft -> 2210 ft, TORA 675 m =
+// 2214.6 ft -> 2214 ft: fits.
+func TestStateFollowsPrintedFigures(t *testing.T) {
+	m := fixedModel{r: Result{GroundRollM: 300, To50ftM: 537.6, Covers: Effects{Surface: true}}}
+	a := testAircraft(m)
+	eu, _ := PolicyByID(PolicyEUClassB)
+	end := RunwayEnd{Designator: "09", TORAM: 675, TODAM: 675, ASDAM: 675, Surface: Paved, Condition: Dry}
+	k := Case{Aircraft: a, Model: m, Policy: eu, End: end, TempK: 288.15, MassKg: 900, TightMargin: 0.1}
+	for _, tc := range []struct {
+		name             string
+		r                Rounding
+		state            State
+		shown, available float64
+		unit             string
+	}{
+		{"whole metres", Rounding{}, Tight, 672, 675, "m"},
+		{"card, 10 m", Rounding{Unit: UnitMetre, Step: CardStep}, NoGo, 680, 675, "m"},
+		{"card, 10 ft", Rounding{Unit: UnitFoot, Step: CardStep}, Tight, 2210, 2214, "ft"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			k.Rounding = tc.r
+			c := Evaluate(k)
+			assert.InDelta(t, 672, c.RequiredM, 1e-9)
+			assert.Equal(t, tc.state, c.State, c.Reasons())
+			assert.Equal(t, tc.shown, c.ShownRequired)
+			assert.Equal(t, tc.available, c.ShownAvailable)
+			assert.Equal(t, tc.unit, c.ShownUnit)
+		})
+	}
+	k.Rounding = Rounding{Unit: UnitMetre, Step: CardStep}
+	c := Evaluate(k)
+	assert.Contains(t, c.Reasons(), "TORA: 680 m required, 675 m available")
+}
+
+// Property: over a sweep of required and available distances, a printed figure is
+// never shorter than the computed one, a printed declared distance never longer, and
+// the state is no-go exactly when the printed figure exceeds the printed declared
+// distance (common practice: the pilot compares what is printed).
+func TestStateAgreesWithPrintedFiguresSweep(t *testing.T) {
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	for _, r := range []Rounding{{}, {Unit: UnitMetre, Step: 10}, {Unit: UnitFoot, Step: 10}, {Unit: UnitFoot, Step: 1}} {
+		for to := 300.0; to < 700; to += 3.7 {
+			m := fixedModel{r: Result{GroundRollM: to / 2, To50ftM: to, Covers: Effects{Surface: true}}}
+			a := testAircraft(m)
+			end := RunwayEnd{TORAM: 640.4, TODAM: 640.4, ASDAM: 640.4, Surface: Paved, Condition: Dry}
+			c := Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 288.15, MassKg: 900, TightMargin: 0.1, Rounding: r})
+			require.True(t, c.HasDistance)
+			assert.GreaterOrEqual(t, c.ShownRequired, r.In(c.RequiredM)-1e-6, "printed figure never shorter")
+			assert.LessOrEqual(t, c.ShownAvailable, r.In(c.AvailableM), "printed TORA never longer")
+			assert.Equal(t, c.ShownRequired > c.ShownAvailable, c.State == NoGo, "%v %v: %.1f vs %.1f", r, c.State, c.ShownRequired, c.ShownAvailable)
+			assert.Equal(t, c.ShownRequired <= c.ShownAvailable && c.ShownRequired*1.1 > c.ShownAvailable+1e-9, c.State == Tight)
+		}
+	}
+}
+
+// Issue 8.4: each mark means one thing.
+func TestMarksMeanOneThing(t *testing.T) {
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	end := RunwayEnd{Designator: "09", TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Paved, Condition: Dry}
+
+	t.Run("hotter than the table is no data, not a limit", func(t *testing.T) {
+		m := smallTable() // hottest column 30 C
+		a := testAircraft(m)
+		a.MinTempK, a.MaxTempK = 0, 0 // no declared operating limits
+		c := Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 308.15, MassKg: 900})
+		assert.Equal(t, NoData, c.State, c.Reasons())
+		assert.False(t, c.HasDistance)
+		assert.Contains(t, c.Reasons()[0], "above the table's highest")
+		// A declared operating limit below it makes the cell beyond limits.
+		a.MaxTempK = 298.15
+		c = Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 303.15, MassKg: 900})
+		assert.Equal(t, BeyondLimits, c.State)
+		assert.Contains(t, c.Reasons()[0], "temperature 30 C above the declared limit 25 C")
+	})
+
+	t.Run("cannot take off: no-go without a figure", func(t *testing.T) {
+		m := fixedModel{err: fmt.Errorf("%w: acceleration stops at 40 kt", ErrCannotTakeOff)}
+		a := testAircraft(m)
+		c := Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 288.15, MassKg: 900})
+		assert.Equal(t, NoGo, c.State)
+		assert.True(t, c.CannotTakeOff)
+		assert.False(t, c.HasDistance)
+		// No data is not "cannot take off".
+		m.err = fmt.Errorf("%w: above the table", ErrNoData)
+		c = Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 288.15, MassKg: 900})
+		assert.Equal(t, NoData, c.State)
+		assert.False(t, c.CannotTakeOff)
+	})
+
+	// Issue 14.1: a crosswind limit of 0 means 0, never "no limit". 35 kt gusting 45
+	// straight across (the issue's case).
+	t.Run("zero crosswind limit", func(t *testing.T) {
+		m := smallTable()
+		a := testAircraft(m)
+		a.DemonstratedCrosswindMS = 15 * knot
+		a.MaxCrosswindMS, a.HasMaxCrosswind = 0, true
+		w := WindComponents(Wind{FromDeg: 180, SpeedMS: 35 * knot, GustMS: 45 * knot}, 90, 0)
+		c := Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 288.15, MassKg: 900, Wind: w})
+		assert.Equal(t, BeyondLimits, c.State)
+		assert.Contains(t, c.Reasons()[0], "crosswind 45 kt above the 0 kt limit")
+		// Without a limit, the demonstrated value is advisory only: a reason, no state.
+		a.HasMaxCrosswind = false
+		c = Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 288.15, MassKg: 900, Wind: w})
+		assert.Equal(t, Go, c.State)
+		assert.Contains(t, c.Reasons()[0], "above the demonstrated 15 kt (advisory")
+	})
+}
+
+// Issue 8.7: on grass and gravel, wet is never shorter than dry. A manual whose dry
+// grass note is large (here 80 % of the ground roll, an invented test value) and
+// which has no wet note: dry = 400 + 0.8 x 200 = 560 m (above the published dry grass
+// floor 400 x 1.2 = 480, AMC1 CAT.POL.A.305 [pub]); wet takes the published wet grass
+// factor on the paved figure, 400 x 1.3 = 520 m (AMC1 CAT.POL.A.305 [pub]), which is
+// shorter: it is raised to the dry 560 m.
+func TestWetNeverShorterThanDry(t *testing.T) {
+	m := smallTable()
+	m.Table.Corrections.GrassPctOfGroundRoll = 80
+	a := testAircraft(m)
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	for _, s := range []Surface{Grass, Gravel} {
+		end := RunwayEnd{Designator: "09", TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: s, Condition: Dry}
+		k := Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 273.15, MassKg: 900}
+		dry := Evaluate(k)
+		k.End.Condition = Wet
+		wet := Evaluate(k)
+		require.True(t, dry.HasDistance && wet.HasDistance)
+		assert.GreaterOrEqual(t, wet.RequiredM, dry.RequiredM-1e-9, "%s", s)
+		if s == Grass {
+			assert.InDelta(t, 560*1.33, dry.RequiredM, 1e-9)
+			assert.InDelta(t, 560*1.33, wet.RequiredM, 1e-9)
+			assert.Contains(t, wet.Reasons(), "wet figure raised to the dry one: wet is never shorter than dry")
+		}
+	}
+}
