@@ -8,44 +8,48 @@ import (
 	"kneeprint/perf"
 )
 
-// CardData is everything one card shows, already computed and converted: layout
-// only places it.
+// CardData is everything one card page shows, already computed, converted to the
+// card's units and rounded: layout only places it. Every length is in Unit, every
+// weight in MassUnit, every temperature in TempUnit.
 type CardData struct {
 	AirfieldName string
 	Ident        string
 	ElevationFt  float64
 	Designator   string
 	HeadingDeg   float64
-	Surface      string
-	Condition    string
-	SlopePct     float64
-	TORAM        float64
-	TODAM        float64
-	ASDAM        float64
-	LDAM         float64 // 0 when not declared
-	Limiting     string  // the declared distance that limits most cells
-	RunwayNotes  string
+	Surface      string // "paved", "grass" or "gravel"
+	Condition    string // "dry" or "wet": the condition this page is for
+	// ConditionPages is 2 when the runway end has a page per condition (grass and
+	// gravel: dry and wet); the page then carries its condition in large letters.
+	ConditionPages int
+	SlopePct       float64
+	Declared       []DeclaredDistance // as printed: in Unit, rounded down
+	Limiting       string             // the declared distance every figure is compared with
+	RunwayNotes    string
 
-	AircraftName   string
-	Flap           string
-	ModelName      string
-	RotateKIAS     float64 // 0 when not given
-	MaxCrosswindKt float64
-	MaxTailwindKt  float64
+	AircraftName string
+	Flap         string
+	ModelName    string
 
 	PolicyTitle string
-	PolicyLine  string // the factors applied, in words
+	PolicyItems []string // the factors (with the assumption they carry) and checks; each kept whole on one line
 
-	QNHhPa        float64
-	PressureAltFt float64
-	FtPerHPa      float64 // pressure altitude added per hPa of lower QNH
+	QNHhPa         float64
+	QNHinHg        float64 // the same QNH in inHg, rounded up
+	PressureAltFt  float64
+	HotterPer10hPa float64 // degrees (TempUnit) to add per 10 hPa below QNHhPa
 
-	Unit           string // "m" or "ft": the unit of every cell
-	TempsC         []float64
+	Unit           string // "m" or "ft": every length on the card
+	MassUnit       string // "kg" or "lb"
+	TempUnit       string // "C" or "F"
+	Temps          []float64
+	DensityAltFt   []float64 // per temperature column at QNHhPa, rounded up to 100 ft
 	WindsKt        []float64 // negative = tailwind
 	TightMarginPct float64
 	Blocks         []WeightBlock
-	OmittedKg      []float64 // profile weights not on this card
+	Omitted        []float64 // profile weights not on this card, in MassUnit
+	// Empty, when set, says why no cell of this card has a figure.
+	Empty string
 
 	Accel     AccelCheck
 	Crosswind CrosswindHelper
@@ -57,42 +61,67 @@ type CardData struct {
 	Caution     string
 }
 
+// DeclaredDistance is one declared distance as printed.
+type DeclaredDistance struct {
+	Name  string  // TORA, TODA, ASDA or LDA
+	Value float64 // in the card's unit, rounded down
+}
+
 // WeightBlock is one weight's grid: Cells[wind][temperature].
 type WeightBlock struct {
-	WeightKg float64
-	MTOW     bool
-	Cells    [][]CellData
+	Weight float64 // in the card's mass unit
+	MTOW   bool
+	Cells  [][]CellData
 }
 
 // CellData is one cell: its state and, when it has one, the required distance in the
 // card's unit, already rounded up.
 type CellData struct {
-	State       perf.State
-	Distance    float64
-	HasDistance bool
+	State         perf.State
+	Distance      float64
+	HasDistance   bool
+	CannotTakeOff bool // a no-go without a figure: the model finds no takeoff
 }
 
-// AccelCheck is the accelerate check printed on the card.
+// AccelCheck is the accelerate check as pilots are taught it (FAA AIM 7-5-7): reach
+// 70 % of the rotation speed by the runway's midpoint, or abandon.
 type AccelCheck struct {
-	Available    bool
-	WeightKg     float64
-	TempC        float64
-	Distance     float64 // in the card's unit, rounded up
-	FractionTORA float64
-	SpeedKIAS    float64 // 70 % of lift-off speed, 0 when unknown
-	Reason       string  // why not available
+	MidpointDist float64 // half the TORA, in the card's unit, rounded down
+	RotateKIAS   float64 // the profile's rotation speed; 0 when the profile gives none
+	SpeedKIAS    float64 // 0.7 x RotateKIAS, rounded up
+	Expected     []ExpectedPoint
 }
 
-// CrosswindHelper is the little crosswind table: Kt[speed][angle].
+// ExpectedPoint is, for one weight block, where 70 % of the rotation speed is
+// expected: information beside the rule, from the ground roll factored for surface
+// and slope, in calm wind, at the hottest column where the calm row fits.
+type ExpectedPoint struct {
+	Weight float64 // in the card's mass unit
+	Has    bool    // false when no calm cell of the block fits: nothing is printed
+	Temp   float64 // in the card's temperature unit
+	Dist   float64 // in the card's unit, rounded down
+}
+
+// CrosswindHelper is the little crosswind table, Kt[speed][angle], with the
+// profile's demonstrated crosswind (advisory) and its limit, if it declares one.
 type CrosswindHelper struct {
-	SpeedsKt  []float64
-	AnglesDeg []float64
-	Kt        [][]float64
+	SpeedsKt       []float64
+	AnglesDeg      []float64
+	Kt             [][]float64
+	DemonstratedKt float64
+	LimitKt        float64
+	HasLimit       bool
 }
 
 const (
 	marginMM = 5.0
 	gapMM    = 1.2
+	// bodyPt is the size of every sentence on the card.
+	bodyPt = MinTextPt
+	// maxRowMM caps a grid row: figures of about 13 pt; more room goes to the notes.
+	maxRowMM = 6.5
+	// lineSpacing is the distance between lines of text, in sizes.
+	lineSpacing = 1.18
 )
 
 type builder struct {
@@ -115,11 +144,19 @@ func (b *builder) fitPt(s string, maxW, pt, minPt float64, st FontStyle) float64
 	return minPt
 }
 
-// wrap breaks s into lines no wider than maxW at size pt.
+// NBSP is the no-break space: text joined with it ("550\u00a0m") is never split
+// between lines. It is in Windows-1252 (0xA0) and prints as a space.
+const NBSP = "\u00a0"
+
+// Keep joins the words of s with no-break spaces, so that a figure stays with its
+// unit ("4 °C") when a sentence wraps.
+func Keep(s string) string { return strings.ReplaceAll(s, " ", NBSP) }
+
+// wrap breaks s into lines no wider than maxW at size pt, at ordinary spaces only.
 func (b *builder) wrap(s string, maxW, pt float64, st FontStyle) []string {
 	var lines []string
 	cur := ""
-	for _, w := range strings.Fields(s) {
+	for _, w := range strings.FieldsFunc(s, func(r rune) bool { return r == ' ' || r == '\n' || r == '\t' }) {
 		try := w
 		if cur != "" {
 			try = cur + " " + w
@@ -137,108 +174,210 @@ func (b *builder) wrap(s string, maxW, pt float64, st FontStyle) []string {
 	return lines
 }
 
-// paragraph places s at the top of box, wrapped, and returns the height used.
-func (b *builder) paragraph(blk *Block, x, y, w float64, s string, pt float64, st FontStyle) float64 {
-	lh := pt * ptMM * 1.25
-	lines := b.wrap(s, w, pt, st)
+// wrapItems joins items with sep into lines no wider than maxW, breaking only between
+// items, so that no item ("upslope 1 % +5 %") is split and no word is orphaned. An
+// item wider than a line on its own is wrapped by words.
+func (b *builder) wrapItems(items []string, sep string, maxW, pt float64, st FontStyle) []string {
+	var lines []string
+	cur := ""
+	end := strings.TrimRight(sep, " ") // a line that breaks after an item ends with it
+	fits := func(s string) bool { return b.f.WidthMM(s+end, pt, st) <= maxW }
+	for _, it := range items {
+		try := it
+		if cur != "" {
+			try = cur + sep + it
+		}
+		if fits(try) {
+			cur = try
+			continue
+		}
+		if cur != "" {
+			lines = append(lines, cur+end)
+			cur = ""
+		}
+		if fits(it) {
+			cur = it
+			continue
+		}
+		parts := b.wrap(it, maxW-b.f.WidthMM(end, pt, st), pt, st)
+		lines = append(lines, parts[:len(parts)-1]...)
+		cur = parts[len(parts)-1]
+	}
+	if cur != "" {
+		lines = append(lines, cur)
+	}
+	return lines
+}
+
+// lines places each line at the top of the box from y down, and returns the height used.
+func (b *builder) lines(blk *Block, x, y, w float64, lines []string, pt float64, st FontStyle) float64 {
+	lh := pt * ptMM * lineSpacing
 	for i, l := range lines {
 		b.text(blk, Rect{x, y + float64(i)*lh, w, lh}, l, pt, st, Left, Black, Label)
 	}
 	return float64(len(lines)) * lh
 }
 
+// paragraph places s at the top of box, wrapped, and returns the height used.
+func (b *builder) paragraph(blk *Block, x, y, w float64, s string, pt float64, st FontStyle) float64 {
+	return b.lines(blk, x, y, w, b.wrap(s, w, pt, st), pt, st)
+}
+
+// shift moves a block and everything in it down by dy.
+func (blk *Block) shift(dy float64) {
+	blk.Box.Y += dy
+	for i := range blk.Shapes {
+		blk.Shapes[i].Box.Y += dy
+	}
+	for i := range blk.Texts {
+		blk.Texts[i].Box.Y += dy
+	}
+}
+
 // Build lays out one card on page p. It fails when the grid cannot be printed with
-// numbers of at least MinNumberPt on this page: choose fewer weight blocks or a
-// larger page.
+// figures of at least MinNumberPt on this page: choose fewer weight blocks or
+// temperature columns, or a larger page.
 func Build(d CardData, p Page, f *Fonts) (*Card, error) {
-	if len(d.Blocks) == 0 || len(d.TempsC) == 0 || len(d.WindsKt) == 0 {
+	if len(d.Blocks) == 0 || len(d.Temps) == 0 || len(d.WindsKt) == 0 {
 		return nil, fmt.Errorf("card %s %s: empty grid", d.Ident, d.Designator)
 	}
-	b := &builder{f: f, card: &Card{Page: p, Title: fmt.Sprintf("%s runway %s, %s", d.Ident, d.Designator, d.AircraftName)}}
+	if len(d.DensityAltFt) != len(d.Temps) {
+		return nil, fmt.Errorf("card %s %s: %d density altitudes for %d temperature columns", d.Ident, d.Designator, len(d.DensityAltFt), len(d.Temps))
+	}
+	title := fmt.Sprintf("%s runway %s, %s", d.Ident, d.Designator, d.AircraftName)
+	if d.ConditionPages > 1 {
+		title = fmt.Sprintf("%s runway %s %s, %s", d.Ident, d.Designator, d.Condition, d.AircraftName)
+	}
+	b := &builder{f: f, card: &Card{Page: p, Title: title}}
 	x0, w := marginMM, p.WidthMM-2*marginMM
 
 	header := b.header(d, x0, marginMM, w)
 	footer := b.footer(d, x0, w, p.HeightMM-marginMM)
-	legend := b.legend(d, x0, footer.Box.Y-gapMM, w)
-	tools := b.tools(d, x0, legend.Box.Y-gapMM, w)
-	gridTop := header.Box.Y + header.Box.H + gapMM
-	grid, err := b.grid(d, x0, gridTop, w, tools.Box.Y-gapMM-gridTop)
+	legend := b.legend(d, x0, w)
+	figPt, err := b.figureSize(d, w)
 	if err != nil {
 		return nil, err
 	}
-	b.card.Blocks = append(b.card.Blocks, header, grid, tools, legend, footer)
+	tools := b.tools(d, x0, w, figPt)
+	gridTop := header.Box.Y + header.Box.H + gapMM
+	room := footer.Box.Y - gapMM - legend.Box.H - gapMM - tools.Box.H - gapMM - gridTop
+	grid, err := b.grid(d, x0, gridTop, w, room)
+	if err != nil {
+		return nil, err
+	}
+	// Tools and legend follow the grid; what room is left becomes a notes area above
+	// the footer, never a band inside the grid.
+	y := grid.Box.Y + grid.Box.H + gapMM
+	tools.shift(y)
+	y += tools.Box.H + gapMM
+	legend.shift(y)
+	y += legend.Box.H + gapMM
+	b.card.Blocks = append(b.card.Blocks, header, grid, tools, legend)
+	if free := footer.Box.Y - gapMM - y; free >= 9 {
+		b.card.Blocks = append(b.card.Blocks, b.notes(x0, y, w, free))
+	}
+	b.card.Blocks = append(b.card.Blocks, footer)
 	return b.card, nil
+}
+
+func surfaceWords(surface string) string {
+	if surface == string(perf.Gravel) {
+		return "gravel (unpaved)"
+	}
+	return surface
+}
+
+// trimNum prints x with at most prec decimals and no trailing zeros.
+func trimNum(x float64, prec int) string {
+	s := fmt.Sprintf("%.*f", prec, x)
+	if strings.Contains(s, ".") {
+		s = strings.TrimRight(strings.TrimRight(s, "0"), ".")
+	}
+	if s == "-0" {
+		s = "0"
+	}
+	return s
+}
+
+// SlopeWords is a slope as printed: "level", "upslope 1.1 %", "downslope 0.25 %".
+func SlopeWords(pct float64) string {
+	switch {
+	case pct > 0.005:
+		return "upslope " + trimNum(pct, 2) + " %"
+	case pct < -0.005:
+		return "downslope " + trimNum(-pct, 2) + " %"
+	}
+	return "level"
 }
 
 func (b *builder) header(d CardData, x, y, w float64) Block {
 	blk := Block{Name: "header"}
-	// Line 1: the runway, large, and the airfield.
+	top := y
+	// Line 1: the runway, large, its heading, the condition of this page when the end
+	// has a page per condition, and the airfield.
 	rwy := "RWY " + d.Designator
-	b.text(&blk, Rect{x, y, 42, 9}, rwy, b.fitPt(rwy, 42, 25, 14, Bold), Bold, Left, Black, Label)
+	rpt := b.fitPt(rwy, 42, 25, 14, Bold)
+	rwyW := b.f.WidthMM(rwy, rpt, Bold)
+	b.text(&blk, Rect{x, y, rwyW + 0.01, 9}, rwy, rpt, Bold, Left, Black, Label)
+	cx := x + rwyW + 2
 	hdg := fmt.Sprintf("%03.0f° M", d.HeadingDeg)
-	rwyW := b.f.WidthMM(rwy, b.fitPt(rwy, 42, 25, 14, Bold), Bold)
-	b.text(&blk, Rect{x + rwyW + 2, y + 3.2, 18, 5}, hdg, 11, Regular, Left, Black, Label)
-	rx := x + rwyW + 22
-	rw := w - (rx - x)
+	hw := b.f.WidthMM(hdg, 11, Regular)
+	b.text(&blk, Rect{cx, y + 3.2, hw + 0.01, 5}, hdg, 11, Regular, Left, Black, Label)
+	cx += hw + 2.5
+	if d.ConditionPages > 1 {
+		tag := strings.ToUpper(d.Condition)
+		tw := b.f.WidthMM(tag, 13, Bold)
+		b.text(&blk, Rect{cx + 1.3, y + 2, tw + 0.01, 5.6}, tag, 13, Bold, Left, Black, Label)
+		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{cx, y + 1.2, tw + 2.6, 7.2}, Color: Black, LineMM: 0.6})
+		cx += tw + 4.5
+	}
+	rw := x + w - cx
 	name := d.AirfieldName
-	b.text(&blk, Rect{rx, y + 0.5, rw, 4.2}, name, b.fitPt(name, rw, 10.5, MinTextPt, Bold), Bold, Right, Black, Label)
+	b.text(&blk, Rect{cx, y + 0.5, rw, 4.2}, name, b.fitPt(name, rw, 10.5, MinTextPt, Bold), Bold, Right, Black, Label)
 	sub := fmt.Sprintf("%s · elevation %.0f ft", d.Ident, d.ElevationFt)
-	b.text(&blk, Rect{rx, y + 5, rw, 3.6}, sub, b.fitPt(sub, rw, 8.5, MinTextPt, Regular), Regular, Right, Black, Label)
+	b.text(&blk, Rect{cx, y + 5, rw, 3.6}, sub, b.fitPt(sub, rw, 8.5, MinTextPt, Regular), Regular, Right, Black, Label)
 	y += 10
 
-	// Line 2: declared distances; the limiting one is bold and framed.
-	type dd struct {
-		name string
-		m    float64
-	}
-	ds := []dd{{"TORA", d.TORAM}, {"TODA", d.TODAM}, {"ASDA", d.ASDAM}}
-	if d.LDAM > 0 {
-		ds = append(ds, dd{"LDA", d.LDAM})
-	}
-	cx := x
+	// Line 2: declared distances in the card's unit; the one every figure is compared
+	// with is framed where it stands (the legend says what the frame means).
 	const ddPt = 9
-	for _, v := range ds {
-		s := fmt.Sprintf("%s %.0f m", v.name, math.Floor(v.m))
+	cx = x
+	for _, v := range d.Declared {
+		s := fmt.Sprintf("%s %.0f %s", v.Name, v.Value, d.Unit)
 		st := Regular
-		if v.name == d.Limiting {
+		if v.Name == d.Limiting {
 			st = Bold
 		}
 		wd := b.f.WidthMM(s, ddPt, st)
+		if cx > x && cx+wd > x+w {
+			cx, y = x, y+4.6
+		}
 		b.text(&blk, Rect{cx, y, wd + 0.01, 4}, s, ddPt, st, Left, Black, Label)
-		if v.name == d.Limiting {
-			blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{cx - 0.8, y - 0.3, wd + 1.6, 4.4}, Color: Black, LineMM: 0.35})
+		if v.Name == d.Limiting {
+			blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{cx - 0.8, y - 0.3, wd + 1.6, 4.6}, Color: Black, LineMM: 0.35})
 		}
 		cx += wd + 5
 	}
-	if d.Limiting != "" {
-		s := "← limits"
-		b.text(&blk, Rect{cx - 4, y + 0.5, b.f.WidthMM(s, 7, Regular) + 0.01, 3.4}, s, 7, Regular, Left, Black, Label)
-	}
-	y += 4.6
+	y += 4.8
 
-	slope := "level"
-	switch {
-	case d.SlopePct > 0.05:
-		slope = fmt.Sprintf("upslope %.1f %%", d.SlopePct)
-	case d.SlopePct < -0.05:
-		slope = fmt.Sprintf("downslope %.1f %%", -d.SlopePct)
+	surface := fmt.Sprintf("%s, %s · %s · %s, flap %s · %s", surfaceWords(d.Surface), d.Condition, SlopeWords(d.SlopePct), d.AircraftName, d.Flap, d.ModelName)
+	y += b.paragraph(&blk, x, y, w, surface, bodyPt, Regular)
+	items := append([]string(nil), d.PolicyItems...)
+	if len(items) > 0 {
+		items[0] = d.PolicyTitle + ": " + items[0]
 	}
-	lines := []string{
-		fmt.Sprintf("%s, %s · %s · %s, flap %s · %s", d.Surface, d.Condition, slope, d.AircraftName, d.Flap, d.ModelName),
-		fmt.Sprintf("%s: %s", d.PolicyTitle, d.PolicyLine),
-		fmt.Sprintf("Figures for QNH %.0f hPa and above (pressure altitude %.0f ft). Each hPa lower adds %.0f ft: recompute.", d.QNHhPa, d.PressureAltFt, d.FtPerHPa),
-	}
+	y += b.lines(&blk, x, y, w, b.wrapItems(items, " · ", w, bodyPt, Regular), bodyPt, Regular)
+	qnh := fmt.Sprintf("QNH %s (%s) or more: pressure altitude %s. Per %s (%s) less: add %s to the OAT.",
+		Keep(fmt.Sprintf("%.0f hPa", d.QNHhPa)), Keep(fmt.Sprintf("%.2f inHg", d.QNHinHg)), Keep(fmt.Sprintf("%.0f ft", d.PressureAltFt)),
+		Keep("10 hPa"), Keep("0.30 inHg"), Keep(fmt.Sprintf("%.0f °%s", d.HotterPer10hPa, d.TempUnit)))
+	y += b.paragraph(&blk, x, y, w, qnh, bodyPt, Bold)
+	read := fmt.Sprintf("Figures: %s required, all factors in, rounded up. Between figures take the hotter column, less headwind, "+
+		"the heavier block. Rows: reported wind (factoring included). No figure past the last column.", d.Unit)
+	y += b.paragraph(&blk, x, y, w, read, bodyPt, Regular)
 	if d.RunwayNotes != "" {
-		lines = append(lines, "Note: "+d.RunwayNotes)
+		y += b.paragraph(&blk, x, y, w, "Note: "+d.RunwayNotes, bodyPt, Regular)
 	}
-	for i, l := range lines {
-		st := Regular
-		if i == 2 {
-			st = Bold
-		}
-		y += b.paragraph(&blk, x, y, w, l, 7.5, st)
-	}
-	blk.Box = Rect{x - 0.9, marginMM - 0.4, w + 1.8, y - marginMM + 0.6}
+	blk.Box = Rect{x - 0.9, top - 0.4, w + 1.8, y - top + 0.6}
 	return blk
 }
 
@@ -252,67 +391,209 @@ func windLabel(kt float64) string {
 	return "calm"
 }
 
-func (b *builder) grid(d CardData, x, y, w, h float64) (Block, error) {
-	blk := Block{Name: "grid", Box: Rect{x, y, w, h}}
-	capPt := 7.5
-	caption := fmt.Sprintf("Required distance in %s, rounded up. Columns: outside air temperature °C. Rows: wind along the runway, kt.", d.Unit)
-	capH := b.paragraph(&blk, x, y, w, caption, capPt, Regular)
-	y += capH + 0.4
-	h -= capH + 0.4
-	n := len(d.Blocks)
-	rows := n * (1 + len(d.WindsKt))
-	rowH := math.Min(6, (h-float64(n-1)*gapMM)/float64(rows))
-	// Figures fill about 0.7 of the row: digits are about 0.7 em tall.
-	numPt := math.Min(12, rowH*2.6)
-	if numPt < MinNumberPt || rowH < MinNumberPt*ptMM {
-		return blk, fmt.Errorf("card %s %s: %d weight blocks of %d rows do not fit on a %s card with figures of at least %.0f pt: use fewer weights (blocks) or a larger page", d.Ident, d.Designator, n, len(d.WindsKt), b.card.Page.Name, MinNumberPt)
+func figureText(c CellData) string { return fmt.Sprintf("%.0f", c.Distance) }
+
+// widestFigure is the widest figure the grid prints (at least four digits, so that
+// cards of one template keep one size), bold, at MinNumberPt.
+func (b *builder) widestFigure(d CardData) float64 {
+	w := b.f.WidthMM("8888", MinNumberPt, Bold)
+	for _, blk := range d.Blocks {
+		for _, row := range blk.Cells {
+			for _, c := range row {
+				if c.HasDistance {
+					w = math.Max(w, b.f.WidthMM(figureText(c), MinNumberPt, Bold))
+				}
+			}
+		}
 	}
-	labelW := 21.0
-	colW := (w - labelW) / float64(len(d.TempsC))
+	return w
+}
+
+// gridColumns sizes the label column and the temperature columns: a temperature
+// column must hold the widest figure, bold, inside a tight cell's frame with white on
+// both sides; the label column takes what the wind labels and weights need, and
+// weights go on two lines ("1000 kg" over "MTOW") when one line does not fit.
+type gridCols struct {
+	labelW, colW float64
+	twoLine      bool // the block title row holds two lines: weight over MTOW, temperature over unit
+}
+
+func (b *builder) columns(d CardData, w float64) (gridCols, error) {
+	n := float64(len(d.Temps))
+	minCol := b.widestFigure(d) + 2*cellPadMM
+	need := b.f.WidthMM("DA ft", MinTextPt, Regular)
+	for _, kt := range d.WindsKt {
+		need = math.Max(need, b.f.WidthMM(windLabel(kt), MinTextPt, Regular))
+	}
+	one := need
+	for _, blk := range d.Blocks {
+		need = math.Max(need, b.f.WidthMM(weightLabel(blk, d.MassUnit), MinTextPt, Bold))
+		one = math.Max(one, b.f.WidthMM(weightTitle(blk, d.MassUnit), MinTextPt, Bold))
+	}
+	const pad = 1.4
+	maxLabel := w - n*minCol
+	if need+pad > maxLabel {
+		return gridCols{}, fmt.Errorf("card %s %s: %d temperature columns of %.1f mm do not fit a %s card beside the row labels: use fewer temperatures or a larger page",
+			d.Ident, d.Designator, len(d.Temps), minCol, b.card.Page.Name)
+	}
+	g := gridCols{labelW: math.Min(math.Max(one, need)+pad, math.Min(maxLabel, 26))}
+	g.twoLine = one+pad > g.labelW
+	if g.twoLine {
+		g.labelW = math.Min(need+pad, maxLabel)
+	}
+	g.colW = (w - g.labelW) / n
+	// One line for the temperature heads needs the unit beside every number.
+	for _, t := range d.Temps {
+		if b.f.WidthMM(tempHead(t, d.TempUnit), MinNumberPt, Bold)+2*cellPadMM > g.colW {
+			g.twoLine = true
+		}
+	}
+	return g, nil
+}
+
+func weightLabel(blk WeightBlock, unit string) string {
+	return fmt.Sprintf("%.0f %s", blk.Weight, unit)
+}
+
+func weightTitle(blk WeightBlock, unit string) string {
+	if blk.MTOW {
+		return weightLabel(blk, unit) + " MTOW"
+	}
+	return weightLabel(blk, unit)
+}
+
+func tempNum(t float64) string { return trimNum(t, 0) }
+
+func tempHead(t float64, unit string) string { return tempNum(t) + " °" + unit }
+
+// figureSize is the size of the grid's figures: as large as the columns allow, at
+// most 13 pt; the row height may lower it later.
+func (b *builder) figureSize(d CardData, w float64) (float64, error) {
+	g, err := b.columns(d, w)
+	if err != nil {
+		return 0, err
+	}
+	return math.Min(13, MinNumberPt*(g.colW-2*cellPadMM)/b.widestFigure(d)), nil
+}
+
+func (b *builder) grid(d CardData, x, y, w, h float64) (Block, error) {
+	top := y
+	blk := Block{Name: "grid"}
+	g, err := b.columns(d, w)
+	if err != nil {
+		return blk, err
+	}
+	if d.Empty != "" {
+		y += b.paragraph(&blk, x, y, w, "NO FIGURE ON THIS CARD: "+d.Empty, bodyPt, Bold) + 0.4
+		h -= y - top
+	}
+	nB, nW := float64(len(d.Blocks)), float64(len(d.WindsKt))
+	gaps := (nB - 1) * gapMM
+	// Rows: the density-altitude row, then per block a title row and the wind rows.
+	rowH := (h - gaps) / (1 + nB*(1+nW))
+	titleH := func(rowH float64) float64 {
+		if !g.twoLine {
+			return rowH
+		}
+		return math.Max(1.75*rowH, (MinNumberPt+MinTextPt)*ptMM+0.9)
+	}
+	if g.twoLine {
+		rowH = (h - gaps - nB*titleH(rowH)) / (1 + nB*nW)
+		if th := titleH(rowH); th > 1.75*rowH+1e-9 {
+			rowH = (h - gaps - nB*th) / (1 + nB*nW)
+		}
+	}
+	rowH = math.Min(rowH, maxRowMM)
+	// Figures as large as the row allows inside a tight cell's frame, with white
+	// between ink and frame, and as the column allows; at most 13 pt.
+	numPt := math.Min((rowH-2*cellPadMM)/((inkAboveEm+inkBelowEm)*ptMM), MinNumberPt*(g.colW-2*cellPadMM)/b.widestFigure(d))
+	numPt = math.Min(numPt, 13)
+	if numPt < MinNumberPt-1e-9 || rowH < MinNumberPt*ptMM {
+		minRow := (inkAboveEm+inkBelowEm)*MinNumberPt*ptMM + 2*cellPadMM
+		need := gaps + minRow*(1+nB*nW) + nB*titleH(minRow)
+		return blk, fmt.Errorf("card %s %s: %d weight blocks of %d rows do not fit on a %s card with figures of at least %.0f pt (%.0f mm left for the grid, %.0f mm needed): use fewer weights (max_blocks) or wind rows, or a larger page",
+			d.Ident, d.Designator, len(d.Blocks), len(d.WindsKt), b.card.Page.Name, MinNumberPt, h, need)
+	}
+	th := titleH(rowH)
+	labPt := math.Min(MinTextPt+1, numPt)
+	colX := func(ti int) float64 { return x + g.labelW + float64(ti)*g.colW }
+	// One size for every wind label: the largest at which all fit.
+	lpt := labPt
+	for _, wind := range d.WindsKt {
+		lpt = math.Min(lpt, b.fitPt(windLabel(wind), g.labelW-1.4, labPt, MinTextPt, Regular))
+	}
+
+	// Density altitude per column at the card's QNH.
+	daPt := math.Max(MinTextPt, math.Min(labPt, numPt*0.85))
+	for _, da := range d.DensityAltFt {
+		daPt = b.fitPt(fmt.Sprintf("%.0f", da), g.colW-2*cellPadMM, daPt, MinTextPt, Regular)
+	}
+	b.text(&blk, Rect{x + 0.7, y + (rowH-MinTextPt*ptMM)/2, g.labelW - 1.2, MinTextPt * ptMM}, "DA ft", MinTextPt, Regular, Left, Black, Label)
+	for ti, da := range d.DensityAltFt {
+		b.text(&blk, Rect{colX(ti), y + (rowH-daPt*ptMM)/2, g.colW, daPt * ptMM}, fmt.Sprintf("%.0f", da), daPt, Regular, Center, Black, Label)
+	}
+	blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, rowH}, Color: Grey, LineMM: 0.15})
+	y += rowH
+
 	for bi, wb := range d.Blocks {
-		by := y + float64(bi)*(rowH*float64(1+len(d.WindsKt))+gapMM)
-		// Title row: weight and the temperature columns.
-		blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: Rect{x, by, w, rowH}, Color: Light})
-		title := fmt.Sprintf("%.0f kg", wb.WeightKg)
-		if wb.MTOW {
-			title += " MTOW"
+		if bi > 0 {
+			y += gapMM
 		}
-		tpt := b.fitPt(title, labelW-0.8, math.Min(9.5, numPt), MinTextPt, Bold)
-		b.text(&blk, Rect{x + 0.6, by + (rowH-tpt*ptMM)/2, labelW - 0.8, tpt * ptMM}, title, tpt, Bold, Left, Black, Label)
-		for ti, t := range d.TempsC {
-			s := fmt.Sprintf("%.0f°", t)
-			hp := math.Max(MinNumberPt, numPt*0.9)
-			b.text(&blk, Rect{x + labelW + float64(ti)*colW, by + (rowH-hp*ptMM)/2, colW, hp * ptMM}, s, hp, Bold, Center, Black, Number)
+		by := y
+		// Title row: weight and the temperature columns with their unit.
+		blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: Rect{x, by, w, th}, Color: Light})
+		hp := math.Max(MinNumberPt, math.Min(numPt, 11))
+		if g.twoLine {
+			l1 := by + (th-(hp+MinTextPt)*ptMM-0.3)/2
+			l2 := l1 + hp*ptMM + 0.3
+			b.text(&blk, Rect{x + 0.7, l1, g.labelW - 1.2, hp * ptMM}, weightLabel(wb, d.MassUnit), b.fitPt(weightLabel(wb, d.MassUnit), g.labelW-1.2, hp, MinTextPt, Bold), Bold, Left, Black, Label)
+			if wb.MTOW {
+				b.text(&blk, Rect{x + 0.7, l2, g.labelW - 1.2, MinTextPt * ptMM}, "MTOW", MinTextPt, Bold, Left, Black, Label)
+			}
+			for ti, t := range d.Temps {
+				b.text(&blk, Rect{colX(ti), l1, g.colW, hp * ptMM}, tempNum(t), hp, Bold, Center, Black, Number)
+				b.text(&blk, Rect{colX(ti), l2, g.colW, MinTextPt * ptMM}, "°"+d.TempUnit, MinTextPt, Regular, Center, Black, Label)
+			}
+		} else {
+			title := weightTitle(wb, d.MassUnit)
+			tpt := b.fitPt(title, g.labelW-1.2, math.Min(9.5, numPt), MinTextPt, Bold)
+			b.text(&blk, Rect{x + 0.7, by + (th-tpt*ptMM)/2, g.labelW - 1.2, tpt * ptMM}, title, tpt, Bold, Left, Black, Label)
+			for ti, t := range d.Temps {
+				s := tempHead(t, d.TempUnit)
+				pt := b.fitPt(s, g.colW-2*cellPadMM, hp, MinNumberPt, Bold)
+				b.text(&blk, Rect{colX(ti), by + (th-pt*ptMM)/2, g.colW, pt * ptMM}, s, pt, Bold, Center, Black, Number)
+			}
 		}
+		y += th
 		for wi, wind := range d.WindsKt {
-			ry := by + float64(1+wi)*rowH
-			lpt := b.fitPt(windLabel(wind), labelW-1.2, math.Min(9, numPt*0.85), MinTextPt, Regular)
-			if wind == 0 {
-				blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{x, ry, labelW, 0}, Color: Black, LineMM: 0.2})
+			ry := y + float64(wi)*rowH
+			lbl := windLabel(wind)
+			if wind == 0 && wi > 0 {
+				// A heavier rule between tailwind and calm/headwind rows.
+				blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{x, ry, g.labelW, 0}, Color: Black, LineMM: 0.25})
 			}
-			b.text(&blk, Rect{x + 0.6, ry + (rowH-lpt*ptMM)/2, labelW - 1.2, lpt * ptMM}, windLabel(wind), lpt, Regular, Left, Black, Label)
-			for ti := range d.TempsC {
-				c := wb.Cells[wi][ti]
-				b.cell(&blk, Rect{x + labelW + float64(ti)*colW, ry, colW, rowH}, c, numPt)
+			b.text(&blk, Rect{x + 0.7, ry + (rowH-lpt*ptMM)/2, g.labelW - 1.4, lpt * ptMM}, lbl, lpt, Regular, Left, Black, Label)
+			for ti := range d.Temps {
+				b.cell(&blk, Rect{colX(ti), ry, g.colW, rowH}, wb.Cells[wi][ti], numPt)
 			}
 		}
-		// Grid lines.
-		bh := rowH * float64(1+len(d.WindsKt))
-		for ti := 0; ti <= len(d.TempsC); ti++ {
-			cx := x + labelW + float64(ti)*colW
-			blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{cx, by, 0, bh}, Color: Grey, LineMM: 0.15})
+		bh := th + nW*rowH
+		for ti := 0; ti <= len(d.Temps); ti++ {
+			blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{colX(ti), by, 0, bh}, Color: Grey, LineMM: 0.15})
 		}
-		for ri := 1; ri <= len(d.WindsKt); ri++ {
-			blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{x + labelW, by + float64(ri)*rowH, w - labelW, 0}, Color: Grey, LineMM: 0.15})
+		for ri := 0; ri <= len(d.WindsKt); ri++ {
+			blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{x + g.labelW, y + float64(ri)*rowH, w - g.labelW, 0}, Color: Grey, LineMM: 0.15})
 		}
 		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, by, w, bh}, Color: Black, LineMM: 0.3})
+		y += nW * rowH
 	}
+	blk.Box = Rect{x - 0.2, top, w + 0.4, y - top + 0.2}
 	return blk, nil
 }
 
-// cell draws one grid cell in its state's style.
+// cell draws one grid cell in its mark's style.
 func (b *builder) cell(blk *Block, r Rect, c CellData, numPt float64) {
-	st := styleFor(c.State)
+	st := styleOf(lookOf(c))
 	if st.Fill != nil {
 		blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: r, Color: *st.Fill})
 	}
@@ -320,156 +601,262 @@ func (b *builder) cell(blk *Block, r Rect, c CellData, numPt float64) {
 		blk.Shapes = append(blk.Shapes, Shape{Kind: Hatch, Box: r, Color: Grey, LineMM: 0.2, SpaceMM: 1.3})
 	}
 	if st.Frame > 0 {
-		in := st.Frame/2 + 0.15
+		in := tightInsetMM + st.Frame/2
 		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{r.X + in, r.Y + in, r.W - 2*in, r.H - 2*in}, Color: Black, LineMM: st.Frame})
 	}
 	font := Regular
 	if st.Bold {
 		font = Bold
 	}
-	switch {
-	case st.Figure && c.HasDistance:
-		s := fmt.Sprintf("%.0f", c.Distance)
-		b.text(blk, Rect{r.X, r.Y + (r.H-numPt*ptMM)/2, r.W, numPt * ptMM}, s, numPt, font, Center, st.Text, Number)
-	default:
-		mark := st.Mark
-		if mark == "" {
-			mark = "n/d"
-		}
-		pt := b.fitPt(mark, r.W-1.6, 7.5, MinTextPt, font)
-		tw := b.f.WidthMM(mark, pt, font)
-		if st.Hatch {
-			// A white plate behind the word keeps it readable over the hatching.
-			blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: Rect{r.X + (r.W-tw)/2 - 0.5, r.Y + (r.H-pt*ptMM)/2 - 0.2, tw + 1, pt*ptMM + 0.4}, Color: White})
-		}
-		b.text(blk, Rect{r.X, r.Y + (r.H-pt*ptMM)/2, r.W, pt * ptMM}, mark, pt, font, Center, st.Text, Label)
+	if st.Figure && c.HasDistance {
+		b.text(blk, Rect{r.X, r.Y + (r.H-numPt*ptMM)/2, r.W, numPt * ptMM}, figureText(c), numPt, font, Center, st.Text, Number)
+		return
 	}
+	if len(st.Marks) == 0 {
+		return
+	}
+	mark := st.Marks[len(st.Marks)-1]
+	for _, m := range st.Marks {
+		if b.f.WidthMM(m, MinTextPt, font) <= r.W-2*cellPadMM {
+			mark = m
+			break
+		}
+	}
+	pt := b.fitPt(mark, r.W-2*cellPadMM, math.Min(numPt, 10), MinTextPt, font)
+	if mark == "X" {
+		pt = numPt // the no-takeoff cross is as large as a figure
+	}
+	tw := b.f.WidthMM(mark, pt, font)
+	if st.Hatch {
+		// A white plate behind the word keeps it readable over the hatching.
+		blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: Rect{r.X + (r.W-tw)/2 - 0.5, r.Y + (r.H-pt*ptMM)/2 - 0.2, tw + 1, pt*ptMM + 0.4}, Color: White})
+	}
+	b.text(blk, Rect{r.X, r.Y + (r.H-pt*ptMM)/2, r.W, pt * ptMM}, mark, pt, font, Center, st.Text, Label)
 }
 
-// tools is the accelerate check and the crosswind helper, side by side.
-func (b *builder) tools(d CardData, x, bottom, w float64) Block {
-	const h = 21.0
-	y := bottom - h
-	blk := Block{Name: "tools", Box: Rect{x, y, w, h}}
+// tools is the accelerate check and the crosswind helper, side by side, built at the
+// top of the page (Build moves it under the grid).
+func (b *builder) tools(d CardData, x, w, figPt float64) Block {
+	blk := Block{Name: "tools"}
 	leftW := w*0.5 - 1.5
-	b.text(&blk, Rect{x, y, leftW, 3.4}, "ACCELERATE CHECK", 8, Bold, Left, Black, Label)
-	a := d.Accel
-	if a.Available {
-		big := fmt.Sprintf("%.0f %s", a.Distance, d.Unit)
-		b.text(&blk, Rect{x, y + 3.8, leftW, 5.2}, big, 14, Bold, Left, Black, Number)
-		bw := b.f.WidthMM(big, 14, Bold)
-		frac := fmt.Sprintf("= %.0f %% of TORA", a.FractionTORA*100)
-		b.text(&blk, Rect{x + bw + 2, y + 5, leftW - bw - 2, 3.6}, frac, 9, Bold, Left, Black, Number)
-		speed := "70 % of lift-off speed"
-		if a.SpeedKIAS > 0 {
-			speed = fmt.Sprintf("%.0f KIAS (70 %% of lift-off speed)", a.SpeedKIAS)
-		}
-		s := fmt.Sprintf("from brake release, reach %s by then, or stop. Computed for %.0f kg, %.0f °C, calm.", speed, a.WeightKg, a.TempC)
-		b.paragraph(&blk, x, y+9.6, leftW, s, 7, Regular)
-	} else {
-		b.paragraph(&blk, x, y+4, leftW, "No figure: "+a.Reason, 7.5, Regular)
-	}
-	// Crosswind helper.
+	ly := b.accelCheck(&blk, d, x, 0, leftW, figPt)
 	cx := x + w*0.5 + 1.5
-	cw := w - (cx - x)
-	title := fmt.Sprintf("CROSSWIND kt · demonstrated max %.0f kt", d.MaxCrosswindKt)
-	b.text(&blk, Rect{cx, y, cw, 3.4}, title, b.fitPt(title, cw, 8, MinTextPt, Bold), Bold, Left, Black, Label)
-	ch := d.Crosswind
-	rows := len(ch.SpeedsKt) + 1
-	rowH := (h - 3.6) / float64(rows)
-	labW := 11.0
-	colW := (cw - labW) / float64(len(ch.AnglesDeg))
-	pt := math.Min(9, rowH/ptMM*0.95)
-	if pt < MinNumberPt {
-		pt = MinNumberPt
-	}
-	ty := y + 3.6
-	b.text(&blk, Rect{cx, ty + (rowH-7*ptMM)/2, labW, 7 * ptMM}, "off rwy", 7, Regular, Left, Black, Label)
-	for ai, ang := range ch.AnglesDeg {
-		s := fmt.Sprintf("%.0f°", ang)
-		b.text(&blk, Rect{cx + labW + float64(ai)*colW, ty + (rowH-pt*ptMM)/2, colW, pt * ptMM}, s, pt, Bold, Center, Black, Number)
-	}
-	for si, sp := range ch.SpeedsKt {
-		ry := ty + float64(si+1)*rowH
-		s := fmt.Sprintf("%.0f kt", sp)
-		b.text(&blk, Rect{cx, ry + (rowH-pt*ptMM)/2, labW, pt * ptMM}, s, pt, Regular, Left, Black, Number)
-		for ai := range ch.AnglesDeg {
-			v := ch.Kt[si][ai]
-			r := Rect{cx + labW + float64(ai)*colW, ry, colW, rowH}
-			over := v > d.MaxCrosswindKt+1e-9
-			font, col := Regular, Black
-			if over {
-				blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: r, Color: Black})
-				font, col = Bold, White
-			}
-			b.text(&blk, Rect{r.X, r.Y + (rowH-pt*ptMM)/2, r.W, pt * ptMM}, fmt.Sprintf("%.0f", v), pt, font, Center, col, Number)
-		}
-	}
-	for ai := 0; ai <= len(ch.AnglesDeg); ai++ {
-		lx := cx + labW + float64(ai)*colW
-		blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{lx, ty, 0, rowH * float64(rows)}, Color: Grey, LineMM: 0.15})
-	}
-	blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{cx, ty, cw, rowH * float64(rows)}, Color: Black, LineMM: 0.25})
+	ry := b.crosswind(&blk, d, cx, 0, w-(cx-x))
+	blk.Box = Rect{x, 0, w, math.Max(ly, ry)}
 	return blk
 }
 
-func (b *builder) legend(d CardData, x, bottom, w float64) Block {
-	const h = 10.5
-	y := bottom - h
-	blk := Block{Name: "legend", Box: Rect{x, y, w, h}}
-	states := perf.States()
-	ew := w / float64(len(states))
-	margin := fmt.Sprintf("%.0f %%", d.TightMarginPct)
-	for i, s := range states {
-		st := styleFor(s)
-		ex := x + float64(i)*ew
-		// The swatch gives way to the word on narrow cards, down to 9 mm (a 9 pt figure).
-		swW := math.Max(9, math.Min(13, ew-2-b.f.WidthMM(st.Word, MinTextPt, Bold)))
-		sw := Rect{ex + 0.5, y, swW, 4.6}
-		sample := CellData{State: s, HasDistance: true, Distance: 640}
-		b.cell(&blk, sw, sample, MinNumberPt)
-		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: sw, Color: Grey, LineMM: 0.15})
-		wordX := sw.X + sw.W + 1
-		b.text(&blk, Rect{wordX, y + 0.6, ex + ew - wordX, 3.4}, st.Word, b.fitPt(st.Word, ex+ew-wordX, 7.5, MinTextPt, Bold), Bold, Left, Black, Label)
-		meaning := st.Meaning
-		if strings.Contains(meaning, "%s") {
-			meaning = fmt.Sprintf(meaning, margin)
+func (b *builder) accelCheck(blk *Block, d CardData, x, y, w, figPt float64) float64 {
+	top := y
+	b.text(blk, Rect{x, y, w, 3.6}, "ACCELERATE CHECK", 8.5, Bold, Left, Black, Label)
+	y += 3.9
+	a := d.Accel
+	if a.RotateKIAS <= 0 {
+		y += b.paragraph(blk, x, y, w, "No rotation speed in the profile (speeds.rotation): no accelerate check can be printed.", bodyPt, Regular)
+		return y - top
+	}
+	pt := math.Max(MinNumberPt, math.Min(figPt, 12))
+	big := fmt.Sprintf("%.0f %s: %.0f KIAS", a.MidpointDist, d.Unit, a.SpeedKIAS)
+	pt = b.fitPt(big, w, pt, MinNumberPt, Bold)
+	b.text(blk, Rect{x, y, w, pt * ptMM}, big, pt, Bold, Left, Black, Number)
+	y += pt*ptMM + 0.6
+	rule := fmt.Sprintf("By the runway midpoint reach 0.7 × VR %s, or abandon (FAA AIM 7-5-7).",
+		Keep(trimNum(a.RotateKIAS, 1)+" KIAS"))
+	y += b.paragraph(blk, x, y, w, rule, bodyPt, Regular)
+	var items []string
+	for _, e := range a.Expected {
+		if !e.Has {
+			items = append(items, Keep(fmt.Sprintf("%.0f %s", e.Weight, d.MassUnit))+" none fits")
+			continue
 		}
-		lines := b.wrap(meaning, ew-1, MinTextPt, Regular)
-		for li, l := range lines {
-			if li > 1 {
-				break
+		s := Keep(fmt.Sprintf("%.0f %s %.0f %s (%s °%s)", e.Weight, d.MassUnit, e.Dist, d.Unit, tempNum(e.Temp), d.TempUnit))
+		if e.Dist > a.MidpointDist {
+			s += " past the midpoint"
+		}
+		items = append(items, s)
+	}
+	if len(items) > 0 {
+		items[0] = "Expected 70 % point, calm: " + items[0]
+		y += b.lines(blk, x, y, w, b.wrapItems(items, " · ", w, bodyPt, Regular), bodyPt, Regular)
+	}
+	return y - top
+}
+
+func (b *builder) crosswind(blk *Block, d CardData, x, y, w float64) float64 {
+	top := y
+	ch := d.Crosswind
+	title := "CROSSWIND COMPONENT kt"
+	b.text(blk, Rect{x, y, w, 3.6}, title, b.fitPt(title, w, 8.5, MinTextPt, Bold), Bold, Left, Black, Label)
+	y += 3.9
+	rows := len(ch.SpeedsKt) + 1
+	// Rows hold a 9 pt figure inside the advisory frame, with white around it.
+	rowH := (inkAboveEm+inkBelowEm)*MinNumberPt*ptMM + 2*cellPadMM + 0.05
+	labW := math.Max(b.f.WidthMM("angle", MinTextPt, Regular), b.f.WidthMM("25 kt", MinNumberPt, Regular)) + 1.4
+	colW := (w - labW) / float64(len(ch.AnglesDeg))
+	pt := MinNumberPt
+	b.text(blk, Rect{x + 0.6, y + (rowH-MinTextPt*ptMM)/2, labW - 1, MinTextPt * ptMM}, "angle", MinTextPt, Regular, Left, Black, Label)
+	for ai, ang := range ch.AnglesDeg {
+		s := fmt.Sprintf("%.0f°", ang)
+		b.text(blk, Rect{x + labW + float64(ai)*colW, y + (rowH-pt*ptMM)/2, colW, pt * ptMM}, s, pt, Bold, Center, Black, Number)
+	}
+	demonstrated, limited := false, false
+	for si, sp := range ch.SpeedsKt {
+		ry := y + float64(si+1)*rowH
+		s := fmt.Sprintf("%.0f kt", sp)
+		b.text(blk, Rect{x + 0.6, ry + (rowH-pt*ptMM)/2, labW - 1, pt * ptMM}, s, pt, Regular, Left, Black, Number)
+		for ai := range ch.AnglesDeg {
+			v := ch.Kt[si][ai]
+			r := Rect{x + labW + float64(ai)*colW, ry, colW, rowH}
+			font, col := Regular, Black
+			switch {
+			case ch.HasLimit && v > ch.LimitKt+1e-9:
+				// Past a real limit: black, as a no-go.
+				blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: r, Color: Black})
+				font, col = Bold, White
+				limited = true
+			case v > ch.DemonstratedKt+1e-9:
+				// Past the demonstrated value: advisory, outlined.
+				in := tightInsetMM + tightFrameMM/2
+				blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{r.X + in, r.Y + in, r.W - 2*in, r.H - 2*in}, Color: Black, LineMM: tightFrameMM})
+				font = Bold
+				demonstrated = true
 			}
-			b.text(&blk, Rect{ex + 0.5, y + 5 + float64(li)*2.7, ew - 1, 2.7}, l, MinTextPt, Regular, Left, Black, Label)
+			b.text(blk, Rect{r.X, r.Y + (rowH-pt*ptMM)/2, r.W, pt * ptMM}, fmt.Sprintf("%.0f", v), pt, font, Center, col, Number)
 		}
+	}
+	for ai := 0; ai <= len(ch.AnglesDeg); ai++ {
+		lx := x + labW + float64(ai)*colW
+		blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{lx, y, 0, rowH * float64(rows)}, Color: Grey, LineMM: 0.15})
+	}
+	blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{x, y + rowH, w, 0}, Color: Grey, LineMM: 0.15})
+	blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, rowH * float64(rows)}, Color: Black, LineMM: 0.25})
+	y += rowH*float64(rows) + 0.5
+	key := []string{"framed: past the demonstrated " + Keep(trimNum(ch.DemonstratedKt, 1)+" kt") + " (advisory)"}
+	if ch.HasLimit {
+		key = append(key, "black: past the "+Keep(trimNum(ch.LimitKt, 1)+" kt")+" limit")
+	}
+	_, _ = demonstrated, limited
+	y += b.lines(blk, x, y, w, b.wrapItems(key, " · ", w, bodyPt, Regular), bodyPt, Regular)
+	return y - top
+}
+
+// legend explains every mark, and the frame on the declared distance; built at the
+// top of the page (Build moves it).
+func (b *builder) legend(d CardData, x, w float64) Block {
+	blk := Block{Name: "legend"}
+	ls := looks()
+	margin := trimNum(d.TightMarginPct, 1) + " %"
+	const swH = 6.4
+	// The swatch holds a sample of each mark at its full length ("LIMIT").
+	swW := math.Max(9.5, b.f.WidthMM(styleOf(lookLimit).Marks[0], MinTextPt, Bold)+2*cellPadMM+0.2)
+	entryW := 0.0
+	meanings := make([]string, len(ls))
+	for i, l := range ls {
+		st := styleOf(l)
+		meanings[i] = st.Meaning
+		if strings.Contains(st.Meaning, "%s") {
+			meanings[i] = fmt.Sprintf(st.Meaning, margin)
+		}
+		entryW = math.Max(entryW, swW+1.2+math.Max(b.f.WidthMM(st.Word, MinTextPt, Bold), b.f.WidthMM(meanings[i], MinTextPt, Regular))+0.8)
+	}
+	cols := int(math.Max(1, math.Min(float64(len(ls)), math.Floor(w/entryW))))
+	for cols > 1 && (len(ls)+cols-1)/cols == (len(ls)+cols-2)/(cols-1) {
+		cols-- // as few columns as give the same number of rows: wider entries
+	}
+	ew := w / float64(cols)
+	lh := MinTextPt * ptMM * 1.15
+	y := 0.0
+	for i, l := range ls {
+		st := styleOf(l)
+		ex := x + float64(i%cols)*ew
+		ey := y + float64(i/cols)*(swH+0.6)
+		sw := Rect{ex + 0.3, ey, swW, swH}
+		sample := CellData{State: perf.Go, HasDistance: true, Distance: 640}
+		switch l {
+		case lookTight:
+			sample.State = perf.Tight
+		case lookNoGo:
+			sample.State = perf.NoGo
+		case lookNoTakeoff:
+			sample = CellData{State: perf.NoGo, CannotTakeOff: true}
+		case lookLimit:
+			sample = CellData{State: perf.BeyondLimits}
+		case lookNoData:
+			sample = CellData{State: perf.NoData}
+		}
+		b.cell(&blk, sw, sample, MinNumberPt)
+		if st.Fill == nil || *st.Fill == White {
+			blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: sw, Color: Grey, LineMM: 0.15})
+		}
+		tx := sw.X + sw.W + 1.2
+		tw := ex + ew - tx - 0.5
+		mid := ey + swH/2
+		th := MinTextPt*ptMM + 0.05
+		b.text(&blk, Rect{tx, mid - th - 0.15, tw, th}, st.Word, MinTextPt, Bold, Left, Black, Label)
+		b.text(&blk, Rect{tx, mid + 0.15, tw, th}, meanings[i], MinTextPt, Regular, Left, Black, Label)
+	}
+	y += float64((len(ls)+cols-1)/cols)*(swH+0.6) + 0.2
+	// The frame on a declared distance.
+	name := d.Limiting
+	if name == "" {
+		name = "TORA"
+	}
+	fw := b.f.WidthMM(name, MinTextPt, Bold)
+	b.text(&blk, Rect{x + 1.2, y + 0.5, fw + 0.01, lh}, name, MinTextPt, Bold, Left, Black, Label)
+	blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x + 0.4, y + 0.1, fw + 1.6, lh + 0.8}, Color: Black, LineMM: 0.35})
+	rest := "framed: the declared distance the figures are held against"
+	rx := x + fw + 3.4
+	y += 0.5 + b.paragraph(&blk, rx, y+0.5, w-(rx-x), rest, MinTextPt, Regular)
+	blk.Box = Rect{x, 0, w, y + 0.4}
+	return blk
+}
+
+// notes is the free room left on the card: a place to write today's figures.
+func (b *builder) notes(x, y, w, h float64) Block {
+	blk := Block{Name: "notes", Box: Rect{x, y, w, h}}
+	b.text(&blk, Rect{x, y, w, MinTextPt * ptMM * 1.25}, "Notes", MinTextPt, Regular, Left, Grey, Label)
+	for ly := y + 7; ly < y+h-0.5; ly += 7 {
+		blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{x, ly, w, 0}, Color: Light, LineMM: 0.2})
 	}
 	return blk
 }
 
 func (b *builder) footer(d CardData, x, w, bottom float64) Block {
 	blk := Block{Name: "footer"}
-	meta := fmt.Sprintf("Generated %s · valid until %s · fingerprint %s · kneeprint %s", d.Generated, d.ValidUntil, d.Fingerprint, d.Version)
-	if len(d.OmittedKg) > 0 {
-		var ws []string
-		for _, kg := range d.OmittedKg {
-			ws = append(ws, fmt.Sprintf("%.0f", kg))
-		}
-		meta += " · not on this card: " + strings.Join(ws, ", ") + " kg"
-	}
 	pt := MinTextPt
-	lh := pt * ptMM * 1.25
+	lh := pt * ptMM * lineSpacing
 	caution := b.wrap(d.Caution, w, pt, Bold)
-	metaLines := b.wrap(meta, w, pt, Regular)
-	h := float64(len(caution)+len(metaLines))*lh + 0.6
+	valid := "VALID UNTIL " + d.ValidUntil
+	meta := []string{valid, "generated " + d.Generated, "fingerprint " + d.Fingerprint, "kneeprint " + d.Version}
+	if len(d.Omitted) > 0 {
+		var ws []string
+		for _, m := range d.Omitted {
+			ws = append(ws, fmt.Sprintf("%.0f", m))
+		}
+		meta = append(meta, "not on this card: "+strings.Join(ws, ", ")+" "+d.MassUnit)
+	}
+	// Measured in bold: the first item is bold, and bold is never narrower.
+	metaLines := b.wrapItems(meta, " · ", w, pt, Bold)
+	h := float64(len(caution)+len(metaLines))*lh + 0.8
 	y := bottom - h
 	blk.Shapes = append(blk.Shapes, Shape{Kind: Line, Box: Rect{x, y, w, 0}, Color: Black, LineMM: 0.3})
-	y += 0.6
+	y += 0.8
 	for _, l := range caution {
 		b.text(&blk, Rect{x, y, w, lh}, l, pt, Bold, Left, Black, Label)
 		y += lh
 	}
-	for _, l := range metaLines {
-		b.text(&blk, Rect{x, y, w, lh}, l, pt, Regular, Left, Black, Label)
+	for i, l := range metaLines {
+		if i == 0 && strings.HasPrefix(l, valid) {
+			// The valid-until date in bold, the rest of the line regular.
+			vw := b.f.WidthMM(valid, pt, Bold)
+			b.text(&blk, Rect{x, y, vw + 0.01, lh}, valid, pt, Bold, Left, Black, Label)
+			rest := strings.TrimPrefix(l, valid)
+			if rest != "" {
+				b.text(&blk, Rect{x + vw, y, w - vw, lh}, rest, pt, Regular, Left, Black, Label)
+			}
+		} else {
+			b.text(&blk, Rect{x, y, w, lh}, l, pt, Regular, Left, Black, Label)
+		}
 		y += lh
 	}
 	blk.Box = Rect{x, bottom - h, w, h}

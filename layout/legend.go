@@ -4,38 +4,87 @@ import "kneeprint/perf"
 
 // The legend is kneeprint's own, designed for a kneeboard read in turbulence, in
 // sunlight, under a red night light (red, orange and magenta ink vanish: FAA AIM
-// 8-1-6) and as a grey photocopy. Each state is carried by fill, frame, weight and
+// 8-1-6) and as a grey photocopy. Each mark is carried by fill, frame, weight and
 // words, never by colour alone; the one tint (tight) only adds to a heavy frame.
+// Each mark means one thing:
 //
-//	go            white cell, regular figures: nothing to notice
-//	tight         heavy black frame, bold figures, pale amber tint
-//	no-go         solid black cell, white bold figures: inverse, seen at a glance
-//	beyond limits diagonal hatching, no figure, the word LIMIT
-//	no data       white cell, no figure, the words "no data" shortened to n/d
-type stateStyle struct {
-	Word    string // the state's name in the legend
-	Meaning string
+//	go            white cell, regular figure: nothing to notice
+//	tight         heavy black frame, bold figure, pale amber tint
+//	no-go         solid black cell, white bold figure: inverse, seen at a glance
+//	no takeoff    solid black cell, white bold X, no figure: the model finds no
+//	              lift-off or no climb at all (a no-go without a figure)
+//	limit         diagonal hatching, no figure, the word LIMIT: past a declared limit
+//	              of the profile (MTOW, tailwind, operating temperature)
+//	no data       white cell, no figure, n/d: outside the data (a table's hottest
+//	              column passed), which is not a limit
+type look int
+
+const (
+	lookGo look = iota
+	lookTight
+	lookNoGo
+	lookNoTakeoff
+	lookLimit
+	lookNoData
+)
+
+// looks lists every mark, in legend order.
+func looks() []look {
+	return []look{lookGo, lookTight, lookNoGo, lookNoTakeoff, lookLimit, lookNoData}
+}
+
+// lookOf is the mark of a cell.
+func lookOf(c CellData) look {
+	switch c.State {
+	case perf.Tight:
+		return lookTight
+	case perf.NoGo:
+		if c.CannotTakeOff || !c.HasDistance {
+			return lookNoTakeoff
+		}
+		return lookNoGo
+	case perf.BeyondLimits:
+		return lookLimit
+	case perf.NoData:
+		return lookNoData
+	}
+	return lookGo
+}
+
+type lookStyle struct {
+	Word    string // the mark's name in the legend
+	Meaning string // %s: the tight margin
 	Fill    *Color
 	Frame   float64 // frame line width in mm, 0 for none
 	Hatch   bool
 	Text    Color
 	Bold    bool
-	Figure  bool   // whether the cell shows its distance
-	Mark    string // text shown instead of a figure
+	Figure  bool     // whether the cell shows its distance
+	Marks   []string // text shown instead of a figure, longest first: the first that fits
 }
 
 var amber = Color{255, 226, 150}
 
-func styleFor(s perf.State) stateStyle {
-	switch s {
-	case perf.Tight:
-		return stateStyle{Word: "TIGHT", Meaning: "fits, less than %s spare", Fill: &amber, Frame: 0.55, Text: Black, Bold: true, Figure: true}
-	case perf.NoGo:
-		return stateStyle{Word: "NO-GO", Meaning: "does not fit", Fill: &Black, Text: White, Bold: true, Figure: true}
-	case perf.BeyondLimits:
-		return stateStyle{Word: "LIMIT", Meaning: "past an aircraft limit", Fill: &Light, Hatch: true, Text: Black, Bold: true, Mark: "LIMIT"}
-	case perf.NoData:
-		return stateStyle{Word: "NO DATA", Meaning: "outside the data: no figure", Text: Black, Mark: "n/d"}
+// tightFrameMM is the tight frame's line width; the frame's outer edge lies
+// tightInsetMM inside the cell, so a figure has cellPadMM of white on each side.
+const (
+	tightFrameMM = 0.4
+	tightInsetMM = 0.05
+	cellPadMM    = tightInsetMM + tightFrameMM + lineClearMM + 0.05
+)
+
+func styleOf(l look) lookStyle {
+	switch l {
+	case lookTight:
+		return lookStyle{Word: "TIGHT", Meaning: "under %s spare", Fill: &amber, Frame: tightFrameMM, Text: Black, Bold: true, Figure: true}
+	case lookNoGo:
+		return lookStyle{Word: "NO-GO", Meaning: "does not fit", Fill: &Black, Text: White, Bold: true, Figure: true}
+	case lookNoTakeoff:
+		return lookStyle{Word: "NO TAKEOFF", Meaning: "no lift-off or climb", Fill: &Black, Text: White, Bold: true, Marks: []string{"X"}}
+	case lookLimit:
+		return lookStyle{Word: "LIMIT", Meaning: "past a profile limit", Fill: &Light, Hatch: true, Text: Black, Bold: true, Marks: []string{"LIMIT", "LIM"}}
+	case lookNoData:
+		return lookStyle{Word: "NO DATA", Meaning: "outside the data", Text: Black, Marks: []string{"n/d"}}
 	}
-	return stateStyle{Word: "GO", Meaning: "fits with %s spare", Text: Black, Figure: true}
+	return lookStyle{Word: "GO", Meaning: "%s spare or more", Text: Black, Figure: true}
 }

@@ -6,6 +6,7 @@ package layout
 import (
 	"fmt"
 	"math"
+	"strings"
 )
 
 // Rect is a box in millimetres from the top-left corner of the card.
@@ -56,17 +57,19 @@ const (
 // Role says what a text is, for the legibility checks.
 type Role int
 
-// Text roles: a Number a pilot must read (9 pt at least), other Text (6.5 pt at least).
+// Text roles: a Number a pilot must read (9 pt at least), other Text (8 pt at least).
 const (
 	Label Role = iota
 	Number
 )
 
-// Minimum sizes: numbers a pilot must read at least 9 pt, nothing below 6.5 pt
-// (UK CAA CAP 676 and FAA HF-STD-001 as summarised in the domain notes, sec. 6).
+// Minimum sizes: numbers a pilot must read at least 9 pt, nothing on the card below
+// 8 pt (UK CAA CAP 676 and FAA HF-STD-001 as summarised in the domain notes, sec. 6:
+// checklists never below 10 pt, critical figures never below 9 pt; 8 pt is the floor
+// kneeprint keeps for the caution, dates and legend on a card this size).
 const (
 	MinNumberPt = 9.0
-	MinTextPt   = 6.5
+	MinTextPt   = 8.0
 )
 
 // Text is one line of text in a box; Y is the top of the box.
@@ -125,9 +128,66 @@ type Problem struct {
 
 func (p Problem) String() string { return p.Block + ": " + p.Msg }
 
+// Ink metrics of the embedded Go fonts, in em (read from the font: digits and capitals
+// reach 0.741 em above the baseline, the degree sign 0.783 em; descenders 0.205 em
+// below it, a slash 0.068 em).
+const (
+	inkAboveEm   = 0.79
+	inkBelowEm   = 0.07
+	inkDescendEm = 0.21
+	// lineClearMM is the least white between a text's ink and a line (common practice
+	// for printed tables: figures never touch their rules).
+	lineClearMM = 0.1
+)
+
+// Baseline is where the PDF writer puts the text's baseline: digits and capitals
+// (about 0.7 em tall) centred in the box. layout/pdf.go draws at this height.
+func (t Text) Baseline() float64 { return t.Box.Y + t.Box.H/2 + 0.35*t.SizePt*ptMM }
+
+// Ink is the rectangle the text's glyphs cover: its advance width placed by its
+// alignment, from the top of the tallest glyph to the bottom of the lowest.
+func (t Text) Ink() Rect {
+	x := t.Box.X
+	switch t.Align {
+	case Center:
+		x += (t.Box.W - t.WidthMM) / 2
+	case Right:
+		x += t.Box.W - t.WidthMM
+	}
+	em := t.SizePt * ptMM
+	below := inkBelowEm
+	if strings.ContainsAny(t.S, "gjpqy(),;[]{}|") {
+		below = inkDescendEm
+	}
+	base := t.Baseline()
+	return Rect{x, base - inkAboveEm*em, t.WidthMM, (inkAboveEm + below) * em}
+}
+
+// strokes returns the lines a shape draws, each as the rectangle its ink covers.
+func (s Shape) strokes() []Rect {
+	half := s.LineMM / 2
+	r := s.Box
+	switch s.Kind {
+	case Line:
+		x0, x1 := math.Min(r.X, r.X+r.W), math.Max(r.X, r.X+r.W)
+		y0, y1 := math.Min(r.Y, r.Y+r.H), math.Max(r.Y, r.Y+r.H)
+		return []Rect{{x0 - half, y0 - half, x1 - x0 + 2*half, y1 - y0 + 2*half}}
+	case StrokeRect:
+		return []Rect{
+			{r.X - half, r.Y - half, r.W + 2*half, 2 * half},
+			{r.X - half, r.Y + r.H - half, r.W + 2*half, 2 * half},
+			{r.X - half, r.Y - half, 2 * half, r.H + 2*half},
+			{r.X + r.W - half, r.Y - half, 2 * half, r.H + 2*half},
+		}
+	}
+	return nil
+}
+
+func grow(r Rect, d float64) Rect { return Rect{r.X - d, r.Y - d, r.W + 2*d, r.H + 2*d} }
+
 // Check runs the layout checks: every block inside the page, no two blocks
 // overlapping, every shape and text inside its block, every text narrower than its
-// box, and the minimum font sizes.
+// box, no text touching a line or frame of its block, and the minimum font sizes.
 func (c *Card) Check() []Problem {
 	var out []Problem
 	page := Rect{0, 0, c.Page.WidthMM, c.Page.HeightMM}
@@ -167,6 +227,16 @@ func (c *Card) Check() []Problem {
 			}
 			if t.SizePt*ptMM > t.Box.H+1e-6 {
 				out = append(out, Problem{b.Name, fmt.Sprintf("text %q at %.1f pt is taller than its %.1f mm box", t.S, t.SizePt, t.Box.H)})
+			}
+			ink := grow(t.Ink(), lineClearMM)
+		lines:
+			for _, s := range b.Shapes {
+				for _, st := range s.strokes() {
+					if ink.Overlaps(st) {
+						out = append(out, Problem{b.Name, fmt.Sprintf("text %q touches a line at %+v", t.S, s.Box)})
+						break lines
+					}
+				}
 			}
 		}
 	}

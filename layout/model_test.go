@@ -25,35 +25,45 @@ func TestCheckFindsProblems(t *testing.T) {
 	}
 	assert.Contains(t, msgs, "a: overlaps block b")
 	assert.Contains(t, msgs, `a: text "12345678" is 14.1 mm wide in a 10.0 mm box`) // 8 x 0.556 em (Go Regular digit advance) x 9 pt
-	assert.Contains(t, msgs, `b: text "x" at 6.0 pt, below 6.5 pt`)
+	assert.Contains(t, msgs, `b: text "x" at 6.0 pt, below 8.0 pt`)
 	assert.Contains(t, msgs, `b: number "9" at 8.0 pt, below 9.0 pt`)
 	assert.Contains(t, msgs, "c: block {X:140 Y:200 W:20 H:20} leaves the page {X:0 Y:0 W:148 H:210}")
 }
 
-// Every state has its own word, and no two states look alike once colour is removed:
-// they differ in fill, frame, hatching, weight or the presence of a figure.
+// Every mark has its own word, and no two marks look alike once colour is removed:
+// they differ in fill, frame, hatching, weight, the presence of a figure or the mark.
 func TestLegendDistinguishableWithoutColour(t *testing.T) {
 	type look struct {
 		dark, frame, hatch, bold, figure bool
 		mark                             string
 	}
-	seen := map[look]perf.State{}
+	seen := map[look]string{}
 	words := map[string]bool{}
-	for _, s := range perf.States() {
-		st := styleFor(s)
-		require.NotEmpty(t, st.Word, s.String())
+	for _, l := range looks() {
+		st := styleOf(l)
+		require.NotEmpty(t, st.Word)
 		assert.False(t, words[st.Word], "word %q used twice", st.Word)
 		words[st.Word] = true
 		dark := st.Fill != nil && int(st.Fill.R)+int(st.Fill.G)+int(st.Fill.B) < 100
-		l := look{dark, st.Frame > 0, st.Hatch, st.Bold, st.Figure, st.Mark}
-		if prev, dup := seen[l]; dup {
-			t.Errorf("%s and %s look the same without colour", s, prev)
+		mark := ""
+		if len(st.Marks) > 0 {
+			mark = st.Marks[0]
 		}
-		seen[l] = s
+		k := look{dark, st.Frame > 0, st.Hatch, st.Bold, st.Figure, mark}
+		if prev, dup := seen[k]; dup {
+			t.Errorf("%s and %s look the same without colour", st.Word, prev)
+		}
+		seen[k] = st.Word
 	}
 	// Red light makes red, orange and magenta vanish: no state may rely on them. The
 	// only tint (tight) must come with a frame.
-	assert.Greater(t, styleFor(perf.Tight).Frame, 0.0)
+	assert.Greater(t, styleOf(lookTight).Frame, 0.0)
+	// Each perf state has a mark; a no-go without a figure has its own (never n/d).
+	assert.Equal(t, lookNoTakeoff, lookOf(CellData{State: perf.NoGo, CannotTakeOff: true}))
+	assert.Equal(t, lookNoGo, lookOf(CellData{State: perf.NoGo, HasDistance: true, Distance: 700}))
+	assert.Equal(t, lookNoData, lookOf(CellData{State: perf.NoData}))
+	assert.Equal(t, lookLimit, lookOf(CellData{State: perf.BeyondLimits}))
+	assert.NotEqual(t, styleOf(lookNoTakeoff).Marks, styleOf(lookNoData).Marks)
 }
 
 func TestPagesAndSheets(t *testing.T) {

@@ -34,6 +34,8 @@ type cardsOptions struct {
 	out                string
 	noCompress         bool
 	workers            int
+	data               bool
+	allowEmpty         bool
 }
 
 func newCardsCmd(e env) *cobra.Command {
@@ -48,6 +50,12 @@ airfield with every card template. Cards are made in parallel; each file is writ
 to a temporary name and renamed into place, so a crash or Ctrl-C never leaves half a
 PDF. The folder gets an index (kneeprint-index.json) that 'kneeprint stale' reads.
 The same inputs and --date give byte-identical PDFs. Exit 1 if any card failed.
+
+A card page on which no cell has a figure (every cell no data, past a limit or no
+takeoff: a pressure altitude above the table, say) is listed in the summary and makes
+the command exit 1, unless --allow-empty is given: such a card is never printed
+quietly. --data writes, beside each PDF, the card's content as JSON (NAME.json: the
+figures as printed, the state of every cell; fields in the README).
 
 Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-letter,
 5x8, or your own file (copy one from templates/cards/).
@@ -74,6 +82,8 @@ Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-let
 	f.StringVarP(&opts.out, "out", "o", "", "output folder, created if needed (a plan gives its own)")
 	f.BoolVar(&opts.noCompress, "no-compress", false, "do not deflate page streams (faster, larger files)")
 	f.IntVar(&opts.workers, "workers", 0, "cards made at once (default: the number of CPUs)")
+	f.BoolVar(&opts.data, "data", false, "also write each card's content as JSON beside its PDF (NAME.json)")
+	f.BoolVar(&opts.allowEmpty, "allow-empty", false, "accept card pages on which no cell has a figure (exit 0)")
 	return cmd
 }
 
@@ -194,6 +204,9 @@ func cardsRun(e env, opts *cardsOptions) error {
 			en.Name = en.Job.FileName()
 		}
 	}
+	for _, en := range prep.Entries {
+		en.Job.Data = opts.data
+	}
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 	defer stop()
 	// A batch allocates and drops megabytes per card file (fpdf's font tables): a
@@ -208,6 +221,9 @@ func cardsRun(e env, opts *cardsOptions) error {
 	sum.WriteSummary(e.stdout)
 	if sum.Failed() {
 		return dataError{errors.New("not every card was made: see the errors above")}
+	}
+	if empty := sum.Empty(); len(empty) > 0 && !opts.allowEmpty {
+		return dataError{fmt.Errorf("%d card page(s) have no figure at all (listed above): check the inputs, or give --allow-empty to keep them", len(empty))}
 	}
 	return nil
 }

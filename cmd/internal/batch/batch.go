@@ -285,6 +285,17 @@ func (p *Prepared) runOne(ctx context.Context, e *Entry, fonts *layout.Fonts) Jo
 		r.Canceled = true
 		return r
 	}
+	if rd.Data != nil {
+		// The card data (cards --data) first: the PDF's arrival marks the pair complete.
+		if err := cards.WriteAtomicCtx(ctx, cards.DataPath(filepath.Join(p.Dir, e.Name)), rd.Data); err != nil {
+			if errors.Is(err, context.Canceled) {
+				r.Canceled = true
+			} else {
+				r.Err = err
+			}
+			return r
+		}
+	}
 	if err := cards.WriteAtomicCtx(ctx, filepath.Join(p.Dir, e.Name), data); err != nil {
 		if errors.Is(err, context.Canceled) {
 			r.Canceled = true
@@ -312,6 +323,7 @@ func (s *Summary) WriteSummary(w io.Writer) {
 	files, pages, canceled := 0, 0, 0
 	var failed []string
 	var flagged []string
+	empty := s.Empty()
 	for _, r := range s.Results {
 		switch {
 		case r.Canceled:
@@ -323,7 +335,7 @@ func (s *Summary) WriteSummary(w io.Writer) {
 			pages += r.Pages
 			for _, e := range r.Ends {
 				if e.Counts[perf.NoGo] > 0 || e.Counts[perf.BeyondLimits] > 0 {
-					flagged = append(flagged, fmt.Sprintf("%s runway %s: %d no-go, %d beyond-limits cells", r.Entry.Name, e.Designator, e.Counts[perf.NoGo], e.Counts[perf.BeyondLimits]))
+					flagged = append(flagged, fmt.Sprintf("%s runway %s: %d no-go, %d beyond-limits cells", r.Entry.Name, pageID(e), e.Counts[perf.NoGo], e.Counts[perf.BeyondLimits]))
 				}
 			}
 		}
@@ -334,6 +346,12 @@ func (s *Summary) WriteSummary(w io.Writer) {
 		fmt.Fprintf(w, "runway ends with no-go or beyond-limit cells (%d):\n", len(flagged))
 		for _, f := range flagged {
 			fmt.Fprintf(w, "  %s\n", f)
+		}
+	}
+	if len(empty) > 0 {
+		fmt.Fprintf(w, "card pages with no figure at all (%d):\n", len(empty))
+		for _, e := range empty {
+			fmt.Fprintf(w, "  %s\n", e)
 		}
 	}
 	if canceled > 0 {
@@ -351,4 +369,31 @@ func (s *Summary) WriteSummary(w io.Writer) {
 	if s.IndexErr != nil {
 		fmt.Fprintf(w, "index not written: %v\n", s.IndexErr)
 	}
+}
+
+// pageID names a card page in the summary: its identity ("15 wet"), or its runway end.
+func pageID(e cards.EndSummary) string {
+	if e.Page != "" {
+		return e.Page
+	}
+	return e.Designator
+}
+
+// Empty lists the card pages written on which no cell has a figure (a pressure
+// altitude above the table, every cell past a limit...), with the reason: such a
+// card must never be printed quietly.
+func (s *Summary) Empty() []string {
+	var out []string
+	for _, r := range s.Results {
+		if r.Err != nil || r.Canceled || r.Entry == nil {
+			continue
+		}
+		for _, e := range r.Ends {
+			if e.Empty {
+				out = append(out, fmt.Sprintf("%s runway %s: %s", r.Entry.Name, pageID(e), e.EmptyWhy))
+			}
+		}
+	}
+	sort.Strings(out)
+	return out
 }

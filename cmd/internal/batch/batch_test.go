@@ -135,7 +135,7 @@ func TestStaleReasons(t *testing.T) {
 	// The aircraft changes: every card of that aircraft, every runway end.
 	ap := filepath.Join(dir, "sedgefin-sf2.yaml")
 	data, _ := os.ReadFile(ap)
-	require.NoError(t, os.WriteFile(ap, []byte(strings.Replace(string(data), "max_crosswind: 15 kt", "max_crosswind: 12 kt", 1)), 0o644))
+	require.NoError(t, os.WriteFile(ap, []byte(strings.Replace(string(data), "demonstrated_crosswind: 15 kt", "demonstrated_crosswind: 12 kt", 1)), 0o644))
 	// A card file altered, another removed.
 	require.NoError(t, os.WriteFile(filepath.Join(out, "kp-spm_quillwing-qt-6-demo-tourer_a5.pdf"), []byte("%PDF-1.4 tampered"), 0o644))
 	require.NoError(t, os.Remove(filepath.Join(out, "kp-wrm_quillwing-qt-6-demo-tourer_a5.pdf")))

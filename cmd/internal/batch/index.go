@@ -58,6 +58,7 @@ type Component struct {
 // IndexEnd is one runway end's card.
 type IndexEnd struct {
 	Designator  string         `json:"designator"`
+	Page        string         `json:"page,omitempty"` // the page's identity: "15 wet" when the end has a page per condition
 	Fingerprint string         `json:"fingerprint"`
 	EndHash     string         `json:"end_hash"`
 	End         perf.RunwayEnd `json:"end"`
@@ -132,14 +133,13 @@ func entryCard(dir string, e *Entry, r JobResult) IndexCard {
 	if j.Sheet != nil {
 		c.Sheet = j.Sheet.Name
 	}
-	ends := j.Airfield.Ends()
-	for i, s := range r.Ends {
+	for _, s := range r.Ends {
 		st := map[string]int{}
 		for k, v := range s.Counts {
 			st[k.String()] = v
 		}
-		c.Ends = append(c.Ends, IndexEnd{Designator: s.Designator, Fingerprint: s.Fingerprint,
-			EndHash: cards.EndHash(j.Airfield, ends[i]), End: ends[i], States: st})
+		c.Ends = append(c.Ends, IndexEnd{Designator: s.Designator, Page: s.Page, Fingerprint: s.Fingerprint,
+			EndHash: cards.EndHash(j.Airfield, s.End), End: s.End, States: st})
 	}
 	return c
 }

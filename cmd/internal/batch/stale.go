@@ -22,6 +22,7 @@ import (
 type StaleCard struct {
 	File       string   `json:"file"`
 	Designator string   `json:"designator"`
+	Page       string   `json:"page,omitempty"` // "15 wet" when the runway end has a page per condition
 	Reasons    []string `json:"reasons"`
 }
 
@@ -155,7 +156,7 @@ func Stale(dir string, plan *spec.Plan, planDir, version string) (*StaleReport, 
 				}
 			}
 			if len(reasons) > 0 {
-				rep.Stale = append(rep.Stale, StaleCard{File: c.File, Designator: ie.Designator, Reasons: reasons})
+				rep.Stale = append(rep.Stale, StaleCard{File: c.File, Designator: ie.Designator, Page: ie.Page, Reasons: reasons})
 			}
 		}
 		if cur.airfield != nil {
@@ -178,7 +179,10 @@ func Stale(dir string, plan *spec.Plan, planDir, version string) (*StaleReport, 
 		if rep.Stale[i].File != rep.Stale[j].File {
 			return rep.Stale[i].File < rep.Stale[j].File
 		}
-		return rep.Stale[i].Designator < rep.Stale[j].Designator
+		if rep.Stale[i].Designator != rep.Stale[j].Designator {
+			return rep.Stale[i].Designator < rep.Stale[j].Designator
+		}
+		return rep.Stale[i].Page < rep.Stale[j].Page
 	})
 	return rep, nil
 }
@@ -194,7 +198,11 @@ func (r *StaleReport) WriteText(w io.Writer) error {
 	} else {
 		fmt.Fprintf(b, "%s: %d card(s) no longer match their inputs (of %d checked):\n", r.Dir, len(r.Stale), r.Checked)
 		for _, s := range r.Stale {
-			fmt.Fprintf(b, "  %s  runway %s\n", s.File, s.Designator)
+			which := s.Designator
+			if s.Page != "" {
+				which = s.Page
+			}
+			fmt.Fprintf(b, "  %s  runway %s\n", s.File, which)
 			for _, why := range s.Reasons {
 				fmt.Fprintf(b, "      - %s\n", why)
 			}

@@ -30,6 +30,7 @@ func benchmarkRender(b *testing.B, compress bool) {
 func BenchmarkRenderFourPagesCompressed(b *testing.B) { benchmarkRender(b, true) }
 func BenchmarkRenderFourPagesPlain(b *testing.B)      { benchmarkRender(b, false) }
 
+// Four runway ends, six pages: the grass ends have a dry and a wet page.
 func BenchmarkCardDataFourEnds(b *testing.B) {
 	var j *Job
 	for _, jj := range demoJobs(b, "a5") {
@@ -42,8 +43,10 @@ func BenchmarkCardDataFourEnds(b *testing.B) {
 		jj := *j
 		jj.model = nil // a fresh job: nothing memoized yet
 		for _, e := range jj.Airfield.Ends() {
-			if _, _, err := jj.Card(e); err != nil {
-				b.Fatal(err)
+			for _, c := range Conditions(e) {
+				if _, _, err := jj.Card(e, c); err != nil {
+					b.Fatal(err)
+				}
 			}
 		}
 	}

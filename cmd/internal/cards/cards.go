@@ -45,6 +45,8 @@ type Job struct {
 
 	// Hashes, when set, shares component hashes with the other jobs of a batch.
 	Hashes *HashCache
+	// Data asks Render for the card data as JSON too (Rendered.Data).
+	Data bool
 
 	aircraftHash, templateHash string        // cached by Fingerprint
 	model                      perf.Model    // memoized, made by Card
@@ -84,22 +86,51 @@ type endKey struct {
 	d string
 }
 
-// EndSummary counts the states of one runway end's cells.
+// EndSummary counts the states of one card page's cells. A runway end on grass or
+// gravel has two pages, dry and wet: Page tells them apart.
 type EndSummary struct {
 	Designator  string
+	Page        string // the page's identity: the designator, with the condition when the end has a page per condition ("15 wet")
+	Condition   string // the condition the page is printed for
+	End         perf.RunwayEnd
 	Fingerprint string
 	Counts      map[perf.State]int
+	// Empty is set when no cell of the page has a figure; EmptyWhy says why.
+	Empty    bool
+	EmptyWhy string
 }
 
 // Result is what a job wrote.
 type Result struct {
-	Path  string
-	Pages int
-	Ends  []EndSummary
+	Path     string
+	DataPath string // the card data (JSON) beside the PDF, when asked for
+	Pages    int
+	Ends     []EndSummary
 }
 
-// Card computes one runway end's grid and card data.
-func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
+// Conditions lists the conditions a runway end gets a card page for: the declared one
+// on a paved runway; dry and wet on grass and gravel, whatever the file declares, so
+// that a pilot on a wet morning has a figure (issue: an unpaved strip changes with
+// the weather, a declared condition does not).
+func Conditions(e perf.RunwayEnd) []perf.Condition {
+	if e.Surface == perf.Paved {
+		return []perf.Condition{e.Condition}
+	}
+	return []perf.Condition{perf.Dry, perf.Wet}
+}
+
+// PageID is the identity of the page of runway end e in condition c.
+func PageID(e perf.RunwayEnd, c perf.Condition) string {
+	if len(Conditions(e)) > 1 {
+		return e.Designator + " " + string(c)
+	}
+	return e.Designator
+}
+
+// Card computes runway end e's grid for condition cond and its card data: every
+// figure in the template's units, rounded as printed, the state of every cell decided
+// from the printed figures (perf.Rounding).
+func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *perf.Grid, error) {
 	a, f, t := j.Aircraft, j.Airfield, j.Template
 	var d layout.CardData
 	if j.model == nil {
@@ -116,15 +147,21 @@ func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
 	if err != nil {
 		return d, nil, err
 	}
+	u := newUnits(t)
 	weights := append([]float64(nil), a.WeightsKg...)
 	sort.Sort(sort.Reverse(sort.Float64Slice(weights)))
 	if len(weights) > t.MaxBlocks {
-		d.OmittedKg = weights[t.MaxBlocks:]
+		for _, kg := range weights[t.MaxBlocks:] {
+			d.Omitted = append(d.Omitted, u.mass(kg))
+		}
 		weights = weights[:t.MaxBlocks]
 	}
-	gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin}
+	end := e
+	end.Condition = cond
+	rnd := t.Rounding()
+	gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin, Rounding: rnd}
 	t0 := time.Now()
-	g, err := perf.ComputeGrid(a, model, pol, *f, e, gs)
+	g, err := perf.ComputeGrid(a, model, pol, *f, end, gs)
 	j.computeTime += time.Since(t0)
 	if err != nil {
 		return d, nil, err
@@ -132,54 +169,31 @@ func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
 
 	d.AirfieldName, d.Ident, d.ElevationFt = f.Name, f.Ident, units.Feet(f.ElevationM)
 	d.Designator, d.HeadingDeg = e.Designator, e.HeadingDeg
-	d.Surface, d.Condition, d.SlopePct = string(e.Surface), string(e.Condition), e.SlopePct
-	d.TORAM, d.TODAM, d.ASDAM, d.LDAM = e.TORAM, e.TODAM, e.ASDAM, e.LDAM
+	d.Surface, d.Condition, d.SlopePct = string(e.Surface), string(cond), e.SlopePct
+	d.ConditionPages = len(Conditions(e))
+	for _, dd := range []layout.DeclaredDistance{{Name: "TORA", Value: e.TORAM}, {Name: "TODA", Value: e.TODAM}, {Name: "ASDA", Value: e.ASDAM}, {Name: "LDA", Value: e.LDAM}} {
+		if dd.Value > 0 {
+			dd.Value = rnd.Down(dd.Value)
+			d.Declared = append(d.Declared, dd)
+		}
+	}
 	d.RunwayNotes = e.Notes
 	d.AircraftName, d.Flap = a.Name, a.TakeoffFlap
 	d.ModelName = "flight-manual table"
 	if a.Model == perf.ModelPhysics {
 		d.ModelName = "physics model"
 	}
-	d.RotateKIAS = units.Knots(a.RotateIASMS)
-	d.MaxCrosswindKt, d.MaxTailwindKt = units.Knots(a.MaxCrosswindMS), units.Knots(a.MaxTailwindMS)
 	var covers perf.Effects
+	limiting := map[string]int{}
 	for _, blk := range g.Cells {
 		for _, row := range blk {
 			for _, c := range row {
 				if c.HasDistance {
 					covers = c.Covers
-				}
-			}
-		}
-	}
-	d.PolicyTitle, d.PolicyLine = pol.Title, policyLine(pol, e, covers)
-	d.QNHhPa = units.HPa(t.QNHPa)
-	d.PressureAltFt = units.Feet(g.PressureAltM)
-	d.FtPerHPa = units.Feet(perf.PressureAltitudeFromQNH(t.QNHPa-100, f.ElevationM) - g.PressureAltM)
-	d.Unit = t.Unit
-	d.TightMarginPct = t.TightMargin * 100
-	for _, k := range t.TempsK {
-		d.TempsC = append(d.TempsC, units.Celsius(k))
-	}
-	for _, w := range t.WindsMS {
-		d.WindsKt = append(d.WindsKt, math.Round(units.Knots(w)*10)/10)
-	}
-	limiting := map[string]int{}
-	for wi, blk := range g.Cells {
-		wb := layout.WeightBlock{WeightKg: weights[wi], MTOW: math.Abs(weights[wi]-a.MTOWKg) < 0.5}
-		for _, row := range blk {
-			var cells []layout.CellData
-			for _, c := range row {
-				cd := layout.CellData{State: c.State, HasDistance: c.HasDistance}
-				if c.HasDistance {
-					cd.Distance = roundUp10(c.RequiredM, t.Unit)
 					limiting[c.Limiting]++
 				}
-				cells = append(cells, cd)
 			}
-			wb.Cells = append(wb.Cells, cells)
 		}
-		d.Blocks = append(d.Blocks, wb)
 	}
 	best := 0
 	for _, name := range []string{"TORA", "TODA", "ASDA"} {
@@ -187,10 +201,48 @@ func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
 			d.Limiting, best = name, limiting[name]
 		}
 	}
+	d.PolicyTitle, d.PolicyItems = pol.Title, policyItems(pol, end, covers)
+	// The QNH the figures hold for and above, as a pilot compares it: rounded up to
+	// the whole hPa and the hundredth of an inHg, so that "or more" holds.
+	d.QNHhPa = math.Ceil(units.HPa(t.QNHPa) - 1e-6)
+	d.QNHinHg = math.Ceil(units.InHg(t.QNHPa)*100-1e-6) / 100
+	d.PressureAltFt = units.Feet(g.PressureAltM)
+	d.HotterPer10hPa = hotterPer10hPa(t)
+	d.Unit, d.MassUnit, d.TempUnit = rnd.UnitName(), t.MassUnit, t.TempUnit
+	d.TightMarginPct = t.TightMargin * 100
+	for _, k := range t.TempsK {
+		d.Temps = append(d.Temps, u.temp(k))
+		// Density altitude at the card's QNH, rounded up to 100 ft (the worse side).
+		da := units.Feet(perf.DensityAltitudeM(g.PressureAltM, k))
+		d.DensityAltFt = append(d.DensityAltFt, math.Ceil(da/100-1e-9)*100)
+	}
+	for _, w := range t.WindsMS {
+		d.WindsKt = append(d.WindsKt, math.Round(units.Knots(w)*10)/10)
+	}
+	figures := 0
+	for wi, blk := range g.Cells {
+		wb := layout.WeightBlock{Weight: u.mass(weights[wi]), MTOW: math.Abs(weights[wi]-a.MTOWKg) < 0.5}
+		for _, row := range blk {
+			var cells []layout.CellData
+			for _, c := range row {
+				cd := layout.CellData{State: c.State, CannotTakeOff: c.CannotTakeOff}
+				if c.HasDistance && c.State != perf.BeyondLimits {
+					cd.Distance, cd.HasDistance = c.ShownRequired, true
+					figures++
+				}
+				cells = append(cells, cd)
+			}
+			wb.Cells = append(wb.Cells, cells)
+		}
+		d.Blocks = append(d.Blocks, wb)
+	}
+	if figures == 0 {
+		d.Empty = emptyReason(g)
+	}
 	t0 = time.Now()
-	d.Accel = accelCheck(a, model, pol, e, g, weights[0], t)
+	d.Accel = j.accelCheck(model, pol, end, g, weights, u)
 	j.computeTime += time.Since(t0)
-	d.Crosswind = crosswindHelper(t)
+	d.Crosswind = crosswindHelper(a, t)
 	d.Generated = j.Date.Format("2006-01-02")
 	d.ValidUntil = j.ValidUntil.Format("2006-01-02")
 	d.Fingerprint = j.Fingerprint(e)
@@ -199,35 +251,136 @@ func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
 	return d, g, nil
 }
 
-// roundUp10 converts metres to the card's unit and rounds up to the next 10: a
-// printed distance is never shorter than the one computed.
-func roundUp10(m float64, unit string) float64 {
-	v := m
-	if unit == "ft" {
-		v = units.Feet(m)
+// cardUnits converts SI values to a template's printing units.
+type cardUnits struct{ t spec.CardTemplate }
+
+func newUnits(t spec.CardTemplate) cardUnits { return cardUnits{t} }
+
+// mass is a weight in the card's mass unit, rounded down to a whole unit: a block
+// computed at 1000 kg is labelled 2204 lb, so that a pilot at 2204.6 lb reads the
+// heavier block (the conservative side).
+func (u cardUnits) mass(kg float64) float64 {
+	v := kg
+	if u.t.MassUnit == "lb" {
+		v = units.Pounds(kg)
 	}
-	return math.Ceil(v/10-1e-9) * 10
+	return math.Floor(v + 1e-6)
 }
 
-func accelCheck(a *perf.Aircraft, m perf.Model, p perf.Policy, e perf.RunwayEnd, g *perf.Grid, kg float64, t spec.CardTemplate) layout.AccelCheck {
-	c := perf.Evaluate(perf.Case{Aircraft: a, Model: m, Policy: p, End: e, PressureAltM: g.PressureAltM, TempK: t.AccelTempK, MassKg: kg, TightMargin: t.TightMargin})
-	ac := layout.AccelCheck{WeightKg: kg, TempC: units.Celsius(t.AccelTempK)}
-	if !c.HasDistance || c.AccelCheckM <= 0 {
-		ac.Reason = fmt.Sprintf("no figure at %.0f kg, %.0f °C: %s", kg, ac.TempC, strings.Join(c.Reasons(), "; "))
+// temp is a temperature in the card's unit; template temperatures are whole degrees
+// as written, so a conversion back is rounded to a hundredth.
+func (u cardUnits) temp(k float64) float64 {
+	c := units.Celsius(k)
+	if u.t.TempUnit == "F" {
+		c = c*1.8 + 32
+	}
+	return math.Round(c*100) / 100
+}
+
+// hotterPer10hPa is the cockpit rule for a QNH below the card's: how many degrees
+// hotter to read per 10 hPa lower. From the ISA: the station pressure is the QNH
+// times a factor of the elevation alone (p = QNH (1 - L h/T0)^n, ICAO Doc 7488), so
+// 10 hPa less QNH lowers the pressure by the fraction 10/QNH; the same density
+// (rho = p / R T) is reached at a temperature higher by
+//
+//	dT = T (10 / (QNH - 10))
+//
+// taken at the card's hottest column and rounded up to a whole degree (about 3.1 K at
+// 35 C and 1000 hPa: the card says 4 C). A density-equivalent rule: close for power
+// and airspeed, which follow the density.
+func hotterPer10hPa(t spec.CardTemplate) float64 {
+	hot := t.TempsK[len(t.TempsK)-1]
+	hpa := units.HPa(t.QNHPa)
+	dt := hot * 10 / (hpa - 10)
+	if t.TempUnit == "F" {
+		dt *= 1.8
+	}
+	return math.Ceil(dt - 1e-9)
+}
+
+// emptyReason says why no cell of grid g has a figure: the first cell's first reason.
+func emptyReason(g *perf.Grid) string {
+	for _, blk := range g.Cells {
+		for _, row := range blk {
+			for _, c := range row {
+				if r := c.Reasons(); len(r) > 0 {
+					return r[0]
+				}
+			}
+		}
+	}
+	return "no cell could be computed"
+}
+
+// surfaceAssumption is what the surface factors assume, printed beside them: the
+// published grass factors are for grass up to 20 cm on firm soil (AMC1
+// CAT.POL.A.305); gravel has no published factor and takes the grass one.
+func surfaceAssumption(s perf.Surface) string {
+	switch s {
+	case perf.Grass:
+		return " (grass to 20 cm on firm soil: AMC1 CAT.POL.A.305)"
+	case perf.Gravel:
+		return " (firm surface assumed: AMC1 CAT.POL.A.305)"
+	}
+	return ""
+}
+
+// accelCheck is the accelerate check: the runway midpoint and 0.7 x the profile's
+// rotation speed (FAA AIM 7-5-7, runway half-way signs), and, as information, where
+// 70 % of the rotation speed is expected for each weight block: from the ground roll
+// factored for surface and slope (the effects the model does not cover, as the policy
+// factors them), in calm wind, at the hottest column whose calm cell fits, rounded
+// down to the card's step (the stricter side for a point to reach a speed by).
+func (j *Job) accelCheck(m perf.Model, p perf.Policy, e perf.RunwayEnd, g *perf.Grid, weights []float64, u cardUnits) layout.AccelCheck {
+	a, t := j.Aircraft, j.Template
+	rnd := t.Rounding()
+	ac := layout.AccelCheck{MidpointDist: math.Floor(rnd.In(e.TORAM)/2 + 1e-9)}
+	if a.RotateIASMS <= 0 {
 		return ac
 	}
-	ac.Available = true
-	ac.Distance = roundUp10(c.AccelCheckM, t.Unit)
-	ac.FractionTORA = c.AccelCheckM / e.TORAM
-	if c.LiftoffTASMS > 0 {
-		sigma := perf.DensityKgM3(g.PressureAltM, t.AccelTempK) / perf.ISASeaLevelDensity
-		ac.SpeedKIAS = math.Round(0.7 * units.Knots(c.LiftoffTASMS*math.Sqrt(sigma)))
+	ac.RotateKIAS = math.Round(units.Knots(a.RotateIASMS)*10) / 10
+	ac.SpeedKIAS = math.Ceil(0.7*ac.RotateKIAS - 1e-9)
+	calm := -1
+	for wi, w := range t.WindsMS {
+		if w == 0 {
+			calm = wi
+		}
+	}
+	for bi, kg := range weights {
+		pt := layout.ExpectedPoint{Weight: u.mass(kg)}
+		for ti := len(t.TempsK) - 1; ti >= 0; ti-- {
+			var c perf.Cell
+			if calm >= 0 {
+				c = g.Cells[bi][calm][ti]
+			} else {
+				c = perf.Evaluate(perf.Case{Aircraft: a, Model: m, Policy: p, End: e, PressureAltM: g.PressureAltM,
+					TempK: t.TempsK[ti], MassKg: kg, TightMargin: t.TightMargin, Rounding: rnd})
+			}
+			if (c.State != perf.Go && c.State != perf.Tight) || c.AccelCheckM <= 0 {
+				continue
+			}
+			f := 1.0
+			if !c.Covers.Surface {
+				f *= c.Requirement.Factors[0].Value
+			}
+			if !c.Covers.Slope {
+				f *= c.Requirement.Factors[1].Value
+			}
+			pt.Has, pt.Temp = true, u.temp(t.TempsK[ti])
+			pt.Dist = math.Floor(rnd.In(c.AccelCheckM*f)/perf.CardStep+1e-9) * perf.CardStep
+			break
+		}
+		ac.Expected = append(ac.Expected, pt)
 	}
 	return ac
 }
 
-func crosswindHelper(t spec.CardTemplate) layout.CrosswindHelper {
-	h := layout.CrosswindHelper{}
+func crosswindHelper(a *perf.Aircraft, t spec.CardTemplate) layout.CrosswindHelper {
+	h := layout.CrosswindHelper{
+		DemonstratedKt: math.Round(units.Knots(a.DemonstratedCrosswindMS)*10) / 10,
+		HasLimit:       a.HasMaxCrosswind,
+		LimitKt:        math.Round(units.Knots(a.MaxCrosswindMS)*10) / 10,
+	}
 	h.AnglesDeg = append(h.AnglesDeg, t.CrosswindAnglesDeg...)
 	for _, s := range t.CrosswindSpeedsMS {
 		h.SpeedsKt = append(h.SpeedsKt, math.Round(units.Knots(s)))
@@ -242,33 +395,51 @@ func crosswindHelper(t spec.CardTemplate) layout.CrosswindHelper {
 	return h
 }
 
-func policyLine(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) string {
-	var parts []string
+// policyItems are the policy's factors and checks for runway end e, each exactly as
+// applied (1.015 prints +1.5 %), each printed whole on one line.
+func policyItems(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) []string {
+	var items []string
 	sf, slf := p.SurfaceFactor(e.Surface, e.Condition), p.SlopeFactor(e.SlopePct)
-	for _, f := range []struct {
-		f       perf.Factor
-		covered bool
-	}{{sf, covers.Surface}, {slf, covers.Slope}} {
-		if f.f.Value == 1 {
-			continue
+	if sf.Value != 1 {
+		name := sf.Label()
+		if e.Surface == perf.Gravel {
+			// Gravel has no published factor of its own: it takes the grass one.
+			name = fmt.Sprintf("unpaved, %s: grass factor", e.Condition)
 		}
-		s := fmt.Sprintf("%s ×%.2f", f.f.Label(), f.f.Value)
-		if f.covered {
-			s += " (or the model's own figure if longer)"
-		}
-		parts = append(parts, s)
+		items = append(items, name+" "+layout.Keep(pctFactor(sf.Value))+surfaceAssumption(e.Surface))
 	}
-	checks := p.OverallMultipliers(e)
-	var cs []string
-	for _, c := range checks {
+	if slf.Value != 1 {
+		items = append(items, layout.Keep(layout.SlopeWords(e.SlopePct))+" "+layout.Keep(pctFactor(slf.Value)))
+	}
+	floor := (covers.Surface && sf.Value != 1) || (covers.Slope && slf.Value != 1)
+	for _, c := range p.OverallMultipliers(e) {
 		if c.Multiplier == 1 {
-			cs = append(cs, "TOD ≤ "+c.Declared)
+			items = append(items, "TOD ≤ "+c.Declared)
 		} else {
-			cs = append(cs, fmt.Sprintf("TOD ×%.2f ≤ %s", c.Multiplier, c.Declared))
+			items = append(items, "TOD ×"+trimNum(c.Multiplier, 4)+" ≤ "+c.Declared)
 		}
 	}
-	parts = append(parts, strings.Join(cs, ", "))
-	return strings.Join(parts, " · ")
+	if floor {
+		// The model includes surface or slope itself: its own figure counts where it
+		// is longer than the published factor gives (Policy.Require).
+		items = append(items, "the model's own surface and slope figure where longer")
+	}
+	return items
+}
+
+// pctFactor prints a factor as the percentage it adds, exactly to a hundredth of a
+// percent and rounded up beyond that: 1.015 is "+1.5 %", 1.2 is "+20 %".
+func pctFactor(v float64) string {
+	return "+" + trimNum(math.Ceil((v-1)*1e4-1e-6)/100, 2) + " %"
+}
+
+// trimNum prints x with at most prec decimals and no trailing zeros.
+func trimNum(x float64, prec int) string {
+	s := strconv.FormatFloat(x, 'f', prec, 64)
+	if strings.Contains(s, ".") {
+		s = strings.TrimRight(strings.TrimRight(s, "0"), ".")
+	}
+	return s
 }
 
 // Fingerprint is a short hash of the canonical form of every input that affects the
@@ -360,6 +531,7 @@ func shortHash(s string) string {
 // Rendered is a job's PDF and what went into it.
 type Rendered struct {
 	PDF   []byte
+	Data  []byte // the card data as JSON, when Job.Data is set
 	Ends  []EndSummary
 	Pages int
 	// Time spent computing (perf: models, policies, grids, the accelerate check),
@@ -373,34 +545,51 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 	out := &Rendered{}
 	j.computeTime = 0
 	var cs []*layout.Card
+	var data []layout.CardData
 	for _, e := range j.Airfield.Ends() {
-		t0 := time.Now()
-		d, g, err := j.Card(e)
-		if err != nil {
-			return nil, fmt.Errorf("airfield %s runway %s: %w", j.Airfield.Ident, e.Designator, err)
+		for _, cond := range Conditions(e) {
+			t0 := time.Now()
+			id := PageID(e, cond)
+			d, g, err := j.Card(e, cond)
+			if err != nil {
+				return nil, fmt.Errorf("airfield %s runway %s: %w", j.Airfield.Ident, id, err)
+			}
+			c, err := layout.Build(d, j.Page, fonts)
+			if err != nil {
+				return nil, err
+			}
+			if probs := c.Check(); len(probs) > 0 {
+				more := ""
+				if len(probs) > 3 {
+					probs, more = probs[:3], fmt.Sprintf(" and %d more", len(probs)-3)
+				}
+				return nil, fmt.Errorf("card %s %s: layout check failed: %v%s", j.Airfield.Ident, id, probs, more)
+			}
+			out.Layout += time.Since(t0)
+			cs = append(cs, c)
+			sum := EndSummary{Designator: e.Designator, Page: id, Condition: string(cond), End: e, Fingerprint: d.Fingerprint,
+				Counts: map[perf.State]int{}, Empty: d.Empty != "", EmptyWhy: d.Empty}
+			for _, blk := range g.Cells {
+				for _, row := range blk {
+					for _, c := range row {
+						sum.Counts[c.State]++
+					}
+				}
+			}
+			out.Ends = append(out.Ends, sum)
+			if j.Data {
+				data = append(data, d)
+			}
 		}
-		c, err := layout.Build(d, j.Page, fonts)
+	}
+	if j.Data {
+		t0 := time.Now()
+		b, err := CardFileJSON(j, data)
 		if err != nil {
 			return nil, err
 		}
-		if probs := c.Check(); len(probs) > 0 {
-			more := ""
-			if len(probs) > 3 {
-				probs, more = probs[:3], fmt.Sprintf(" and %d more", len(probs)-3)
-			}
-			return nil, fmt.Errorf("card %s %s: layout check failed: %v%s", j.Airfield.Ident, e.Designator, probs, more)
-		}
+		out.Data = b
 		out.Layout += time.Since(t0)
-		cs = append(cs, c)
-		sum := EndSummary{Designator: e.Designator, Fingerprint: d.Fingerprint, Counts: map[perf.State]int{}}
-		for _, blk := range g.Cells {
-			for _, row := range blk {
-				for _, c := range row {
-					sum.Counts[c.State]++
-				}
-			}
-		}
-		out.Ends = append(out.Ends, sum)
 	}
 	out.Compute = j.computeTime
 	out.Layout -= j.computeTime
@@ -464,10 +653,22 @@ func (j *Job) Write(dir string, fonts *layout.Fonts) (Result, error) {
 		return Result{}, err
 	}
 	path := filepath.Join(dir, j.FileName())
+	res := Result{Path: path, Pages: r.Pages, Ends: r.Ends}
+	if r.Data != nil {
+		res.DataPath = DataPath(path)
+		if err := WriteAtomic(res.DataPath, r.Data); err != nil {
+			return Result{}, err
+		}
+	}
 	if err := WriteAtomic(path, r.PDF); err != nil {
 		return Result{}, err
 	}
-	return Result{Path: path, Pages: r.Pages, Ends: r.Ends}, nil
+	return res, nil
+}
+
+// DataPath is where the card data of the PDF at pdfPath goes: beside it, .json for .pdf.
+func DataPath(pdfPath string) string {
+	return strings.TrimSuffix(pdfPath, filepath.Ext(pdfPath)) + ".json"
 }
 
 // WriteAtomic writes data to path through a temporary file in the same folder,

@@ -64,26 +64,28 @@ func TestDemoCardsPassLayoutChecks(t *testing.T) {
 	for _, name := range []string{"a5", "half-letter", "5x8"} {
 		for _, j := range demoJobs(t, name) {
 			for _, e := range j.Airfield.Ends() {
-				t.Run(fmt.Sprintf("%s/%s/%s/%s", name, j.Aircraft.Name, j.Airfield.Ident, e.Designator), func(t *testing.T) {
-					d, _, err := j.Card(e)
-					require.NoError(t, err)
-					c, err := layout.Build(d, j.Page, fonts)
-					require.NoError(t, err)
-					assert.Empty(t, c.Check())
-					var all []string
-					for _, b := range c.Blocks {
-						for _, tx := range b.Texts {
-							all = append(all, tx.S)
+				for _, cond := range Conditions(e) {
+					t.Run(fmt.Sprintf("%s/%s/%s/%s", name, j.Aircraft.Name, j.Airfield.Ident, PageID(e, cond)), func(t *testing.T) {
+						d, _, err := j.Card(e, cond)
+						require.NoError(t, err)
+						c, err := layout.Build(d, j.Page, fonts)
+						require.NoError(t, err)
+						assert.Empty(t, c.Check())
+						var all []string
+						for _, b := range c.Blocks {
+							for _, tx := range b.Texts {
+								all = append(all, tx.S)
+							}
 						}
-					}
-					text := strings.Join(all, " ")
-					assert.Contains(t, text, "not a substitute for the approved flight manual", "the caution is on every card")
-					assert.Contains(t, text, "RWY "+e.Designator)
-					assert.Contains(t, text, j.Airfield.Name)
-					for _, s := range []string{"GO", "TIGHT", "NO-GO", "LIMIT", "NO DATA"} {
-						assert.Contains(t, all, s, "legend names state %s in words", s)
-					}
-				})
+						text := strings.Join(all, " ")
+						assert.Contains(t, text, "not a substitute for the approved flight manual", "the caution is on every card")
+						assert.Contains(t, text, "RWY "+e.Designator)
+						assert.Contains(t, text, j.Airfield.Name)
+						for _, s := range []string{"GO", "TIGHT", "NO-GO", "NO TAKEOFF", "LIMIT", "NO DATA"} {
+							assert.Contains(t, all, s, "legend names state %s in words", s)
+						}
+					})
+				}
 			}
 		}
 	}
@@ -97,14 +99,14 @@ func TestNoGoCellMarked(t *testing.T) {
 			continue
 		}
 		e := j.Airfield.Ends()[0]
-		d, g, err := j.Card(e)
+		d, g, err := j.Card(e, e.Condition)
 		require.NoError(t, err)
 		c, err := layout.Build(d, j.Page, fonts)
 		require.NoError(t, err)
 		// The hot-and-high demo has no-go cells at MTOW with a 10 kt tailwind.
 		cell := g.Cells[0][0][len(g.Spec.TempsK)-1]
 		require.Equal(t, perf.NoGo, cell.State, cell.Reasons())
-		want := fmt.Sprintf("%.0f", roundUp10(cell.RequiredM, "m"))
+		want := fmt.Sprintf("%.0f", cell.ShownRequired)
 		var grid layout.Block
 		for _, b := range c.Blocks {
 			if b.Name == "grid" {
@@ -143,7 +145,10 @@ func TestPDFValidAndPageCount(t *testing.T) {
 			require.NoError(t, api.Validate(bytes.NewReader(data), nil), "pdfcpu validates %s", jj.FileName())
 			n, err := api.PageCount(bytes.NewReader(data), nil)
 			require.NoError(t, err)
-			ends := len(jj.Airfield.Ends())
+			ends := 0
+			for _, e := range jj.Airfield.Ends() {
+				ends += len(Conditions(e))
+			}
 			want := ends
 			if sheet != "" {
 				want = (ends + 1) / 2

@@ -85,7 +85,7 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 	sp.finish()
 
 	lim := d.mapping(m.get("limits", true), "limits")
-	a.MaxCrosswindMS, _ = lim.quantity("max_crosswind", units.Speed, true, 0, 60*units.MetresPerSecPerKnot)
+	d.crosswindLimits(lim, a)
 	if v, ok := lim.quantity("max_tailwind", units.Speed, false, 0, 30*units.MetresPerSecPerKnot); ok {
 		a.MaxTailwindMS = v
 	} else if !lim.has("max_tailwind") {
@@ -140,38 +140,28 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 		a.Physics.CLMax = cl
 	}
 
-	// Temperature range of the data.
-	switch {
-	case a.Table != nil && len(a.Table.TempK) > 0:
-		lo, hi := a.Table.TempK[0], a.Table.TempK[len(a.Table.TempK)-1]
-		a.MinTempK, a.MaxTempK = math.Min(lo, defaultMinTempC+units.KelvinAtZeroCelsius), hi
-		if !haveMinT || !haveMaxT {
-			d.notef("limits: temperature range %.0f to %.0f C: the table's hottest column is the upper limit; colder than the table's coldest column (%.0f C) uses that column, which is conservative", units.Celsius(a.MinTempK), units.Celsius(hi), units.Celsius(lo))
-		}
-		if haveMinT {
-			a.MinTempK = minT
-		}
-		if haveMaxT {
-			if maxT > hi+1e-9 {
-				d.errorf(lim.vals["max_temperature"], "limits.max_temperature", "above the table's hottest column %.0f C: kneeprint never extrapolates", units.Celsius(hi))
-			}
-			a.MaxTempK = maxT
-		}
-	default:
-		a.MinTempK = defaultMinTempC + units.KelvinAtZeroCelsius
-		a.MaxTempK = defaultMaxTempC + units.KelvinAtZeroCelsius
-		if haveMinT {
-			a.MinTempK = minT
-		}
-		if haveMaxT {
-			a.MaxTempK = maxT
-		}
-		if !haveMinT || !haveMaxT {
-			d.notef("limits: temperature range not fully given: %.0f to %.0f C assumed", units.Celsius(a.MinTempK), units.Celsius(a.MaxTempK))
-		}
+	// Declared operating temperature limits. Past them a cell is beyond limits; where
+	// the data end (a table's hottest column) a cell has no data, which is no limit.
+	if haveMinT {
+		a.MinTempK = minT
 	}
-	if a.MinTempK >= a.MaxTempK && haveMinT && haveMaxT {
+	if haveMaxT {
+		a.MaxTempK = maxT
+	}
+	if haveMinT && haveMaxT && a.MinTempK >= a.MaxTempK {
 		d.errorf(lim.vals["max_temperature"], "limits.max_temperature", "must be above min_temperature")
+	}
+	switch t := a.Table; {
+	case t != nil && len(t.TempK) > 0:
+		lo, hi := t.TempK[0], t.TempK[len(t.TempK)-1]
+		if haveMaxT && maxT > hi+1e-9 {
+			d.notef("limits.max_temperature %.0f C is above the table's hottest column %.0f C: cells in between have no data (kneeprint never extrapolates)", units.Celsius(maxT), units.Celsius(hi))
+		}
+		if !haveMinT && !haveMaxT {
+			d.notef("limits: no operating temperature limits declared: the table's %.0f to %.0f C bound the data (hotter: no data; colder: the coldest column is used, which is conservative)", units.Celsius(lo), units.Celsius(hi))
+		}
+	case !haveMinT && !haveMaxT:
+		d.notef("limits: no operating temperature limits declared")
 	}
 	m.finish()
 	return a
@@ -411,4 +401,30 @@ func (d *decoder) physics(n *yaml.Node) *perf.Physics {
 	}
 	m.finish()
 	return p
+}
+
+// crosswindLimits reads the crosswind figures of the limits section: the manual's
+// maximum demonstrated crosswind (required; advisory, marked on the card's crosswind
+// helper) and an optional real limit (the manual's, or a club's). A limit of 0 kt is
+// refused: it would forbid any crosswind, and it is more often a slip for "no limit".
+func (d *decoder) crosswindLimits(lim *mapping, a *perf.Aircraft) {
+	const kt = units.MetresPerSecPerKnot
+	if !lim.has("demonstrated_crosswind") && lim.has("max_crosswind") {
+		lim.get("demonstrated_crosswind", false)
+		d.errorf(lim.keys["max_crosswind"], "limits.demonstrated_crosswind",
+			"missing: give the manual's maximum demonstrated crosswind as demonstrated_crosswind (advisory); max_crosswind is now an optional hard limit, yours or your club's")
+	} else {
+		a.DemonstratedCrosswindMS, _ = lim.quantity("demonstrated_crosswind", units.Speed, true, 1*kt, 60*kt)
+	}
+	v := lim.get("max_crosswind", false)
+	if v == nil {
+		return
+	}
+	if x, err := units.Parse(v.Value, units.Speed); v.Kind == yaml.ScalarNode && err == nil && x == 0 {
+		d.errorf(v, "limits.max_crosswind", "0 kt would forbid any crosswind: give the real limit, or leave max_crosswind out for no limit (demonstrated_crosswind stays advisory)")
+		return
+	}
+	if x, ok := d.quantity(v, "limits.max_crosswind", units.Speed, 1*kt, 60*kt); ok {
+		a.MaxCrosswindMS, a.HasMaxCrosswind = x, true
+	}
 }

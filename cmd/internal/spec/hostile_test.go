@@ -26,7 +26,7 @@ func hostileInputs() map[string]string {
 	rnd.Read(binary)
 	table := func(n int) string {
 		var b strings.Builder
-		b.WriteString("kind: aircraft\nname: T\ntype: T\nmtow: 1000 kg\nlimits: {max_crosswind: 15 kt}\ntakeoff_flap: \"0\"\ntable:\n  wind_factoring_included: true\n  distance_unit: m\n  pressure_altitudes: [")
+		b.WriteString("kind: aircraft\nname: T\ntype: T\nmtow: 1000 kg\nlimits: {demonstrated_crosswind: 15 kt}\ntakeoff_flap: \"0\"\ntable:\n  wind_factoring_included: true\n  distance_unit: m\n  pressure_altitudes: [")
 		for i := 0; i < n; i++ {
 			fmt.Fprintf(&b, "%d ft,", i*10)
 		}

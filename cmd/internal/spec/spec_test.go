@@ -54,6 +54,10 @@ func TestBadFiles(t *testing.T) {
 			"ac-nonmonotone.yaml:20:17: table.weights (1000 kg).to_50ft[1][1]: distance falls as pressure altitude rises",
 		}},
 		{"ac-missing-crosswind.yaml", []string{"ac-missing-crosswind.yaml:5:8: limits: has no value"}},
+		// Issue 14.1: a crosswind limit of 0 is refused, never read as "no limit".
+		{"ac-zero-crosswind-limit.yaml", []string{"ac-zero-crosswind-limit.yaml:7:18: limits.max_crosswind: 0 kt would forbid any crosswind"}},
+		// Issue 8.4: max_crosswind used to mean "demonstrated"; such a file must say which it means.
+		{"ac-old-max-crosswind.yaml", []string{"ac-old-max-crosswind.yaml:6:3: limits.demonstrated_crosswind: missing: give the manual's maximum demonstrated crosswind"}},
 		{"ac-bad-bool.yaml", []string{`ac-bad-bool.yaml:9:28: table.wind_factoring_included: expected true or false, found "yes please"`}},
 		{"ac-duplicate-mtow.yaml", []string{"ac-duplicate-mtow.yaml:5:1: mtow: duplicate key (first at line 4)"}},
 		{"ac-nan-cell.yaml", []string{`ac-nan-cell.yaml:16:17: table.weights[0].ground_roll[0][1]: ".nan" is not a finite number`}},
@@ -147,8 +151,37 @@ func TestAircraftTableInSI(t *testing.T) {
 	assert.Equal(t, []float64{1000, 900, 800}, a.WeightsKg, "heaviest first")
 	assert.Equal(t, []float64{800, 900, 1000}, a.Table.WeightKg, "table weights increasing")
 	assert.InDelta(t, 5*1852.0/3600, a.Table.Corrections.HeadwindPerMS, 1e-12) // the demo's invented note, 5 kt; 1 kt = 1852 m / 3600 s (exact)
-	assert.InDelta(t, 40+273.15, a.MaxTempK, 1e-9)
+	// No operating temperature limits declared: the table's hottest column (40 C) ends
+	// the data (no data past it), it is not a limit.
+	assert.Zero(t, a.MaxTempK)
+	assert.Zero(t, a.MinTempK)
+	assert.InDelta(t, 15*1852.0/3600, a.DemonstratedCrosswindMS, 1e-12) // the demo's invented 15 kt
+	assert.False(t, a.HasMaxCrosswind, "the demonstrated crosswind is not a limit")
 	assert.False(t, math.IsNaN(a.MaxCrosswindMS))
+}
+
+// Issue 8.4: the limits section splits the advisory demonstrated crosswind from a
+// real limit, and temperature limits are only those declared.
+func TestAircraftLimits(t *testing.T) {
+	doc, err := Load(templates.FS, "aircraft/quillwing-qt6.yaml")
+	require.NoError(t, err)
+	a := doc.Aircraft
+	const kt = 1852.0 / 3600 // ICAO Annex 5
+	assert.InDelta(t, 17*kt, a.DemonstratedCrosswindMS, 1e-12)
+	assert.True(t, a.HasMaxCrosswind)
+	assert.InDelta(t, 20*kt, a.MaxCrosswindMS, 1e-12)
+	assert.InDelta(t, 45+273.15, a.MaxTempK, 1e-9)
+	assert.InDelta(t, -25+273.15, a.MinTempK, 1e-9)
+
+	// A declared operating limit above the table's hottest column is accepted: the
+	// cells in between have no data, and validate says so.
+	data, err := os.ReadFile("testdata/bad/ok-aircraft.yaml")
+	require.NoError(t, err)
+	src := strings.Replace(string(data), "  demonstrated_crosswind: 15 kt\n", "  demonstrated_crosswind: 15 kt\n  max_temperature: 40 C\n", 1)
+	doc, err = Parse("hot.yaml", []byte(src))
+	require.NoError(t, err)
+	assert.InDelta(t, 40+273.15, doc.Aircraft.MaxTempK, 1e-9)
+	assert.Contains(t, strings.Join(doc.Defaults, "\n"), "above the table's hottest column 30 C: cells in between have no data")
 }
 
 func TestWrongKindForCommand(t *testing.T) {

@@ -70,8 +70,7 @@ func summarizeAircraft(w io.Writer, a *perf.Aircraft) {
 		ws = append(ws, fmt.Sprintf("%.0f", x))
 	}
 	fmt.Fprintf(w, "  MTOW %.0f kg; card weights %s kg; takeoff flap %s\n", a.MTOWKg, strings.Join(ws, ", "), a.TakeoffFlap)
-	fmt.Fprintf(w, "  limits: crosswind %.0f kt demonstrated, tailwind %.0f kt, data %.0f to %.0f C\n",
-		units.Knots(a.MaxCrosswindMS), units.Knots(a.MaxTailwindMS), units.Celsius(a.MinTempK), units.Celsius(a.MaxTempK))
+	fmt.Fprintf(w, "  limits: %s\n", limitsLine(a))
 	if a.RotateIASMS > 0 || a.At50ftIASMS > 0 {
 		fmt.Fprintf(w, "  speeds: rotation %.0f kt, at 50 ft %.0f kt (IAS)\n", units.Knots(a.RotateIASMS), units.Knots(a.At50ftIASMS))
 	}
@@ -135,4 +134,27 @@ func summarizePlan(w io.Writer, p *Plan) {
 		fmt.Fprintf(w, ", valid until %s", p.ValidUntil.Format("2006-01-02"))
 	}
 	fmt.Fprintln(w)
+}
+
+// limitsLine says which limits the profile declares: the demonstrated crosswind is
+// advisory; a crosswind limit and operating temperatures only when declared.
+func limitsLine(a *perf.Aircraft) string {
+	parts := []string{fmt.Sprintf("crosswind %.0f kt demonstrated (advisory)", units.Knots(a.DemonstratedCrosswindMS))}
+	if a.HasMaxCrosswind {
+		parts = append(parts, fmt.Sprintf("crosswind limit %.0f kt", units.Knots(a.MaxCrosswindMS)))
+	} else {
+		parts = append(parts, "no crosswind limit declared")
+	}
+	parts = append(parts, fmt.Sprintf("tailwind %.0f kt", units.Knots(a.MaxTailwindMS)))
+	switch {
+	case a.MinTempK > 0 && a.MaxTempK > 0:
+		parts = append(parts, fmt.Sprintf("operating temperatures %.0f to %.0f C", units.Celsius(a.MinTempK), units.Celsius(a.MaxTempK)))
+	case a.MaxTempK > 0:
+		parts = append(parts, fmt.Sprintf("operating temperature up to %.0f C", units.Celsius(a.MaxTempK)))
+	case a.MinTempK > 0:
+		parts = append(parts, fmt.Sprintf("operating temperature from %.0f C", units.Celsius(a.MinTempK)))
+	default:
+		parts = append(parts, "no operating temperature limits declared")
+	}
+	return strings.Join(parts, ", ")
 }

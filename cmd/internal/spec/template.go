@@ -1,6 +1,9 @@
 package spec
 
-import "kneeprint/cmd/internal/units"
+import (
+	"kneeprint/cmd/internal/units"
+	"kneeprint/perf"
+)
 
 // KindCardTemplate is a card preset file.
 const KindCardTemplate Kind = "card-template"
@@ -9,14 +12,15 @@ const KindCardTemplate Kind = "card-template"
 type CardTemplate struct {
 	Name               string
 	Page               string
-	Unit               string // "m" or "ft"
+	Unit               string // "m" or "ft": every length on the card
+	MassUnit           string // "kg" or "lb": the weights on the card
+	TempUnit           string // "C" or "F": the temperatures on the card
 	Policy             string
 	QNHPa              float64
 	TightMargin        float64 // fraction
 	TempsK             []float64
 	WindsMS            []float64
 	MaxBlocks          int
-	AccelTempK         float64
 	CrosswindSpeedsMS  []float64
 	CrosswindAnglesDeg []float64
 	ValidDays          int
@@ -34,6 +38,16 @@ func (d *decoder) cardTemplate(m *mapping) *CardTemplate {
 	t.Name = m.str("name", true)
 	t.Page = m.oneOf("page", true, "a5", "half-letter", "5x8")
 	t.Unit = m.oneOf("unit", true, "m", "ft")
+	t.MassUnit = m.oneOf("mass_unit", false, "kg", "lb")
+	if t.MassUnit == "" && !m.has("mass_unit") {
+		t.MassUnit = "kg"
+		d.notef("mass_unit not given: weights in kg")
+	}
+	t.TempUnit = m.oneOf("temperature_unit", false, "C", "F")
+	if t.TempUnit == "" && !m.has("temperature_unit") {
+		t.TempUnit = "C"
+		d.notef("temperature_unit not given: temperatures in C")
+	}
 	t.Policy = m.oneOf("policy", true, "uk-advisory", "eu-class-b")
 	t.QNHPa, _ = m.quantity("qnh", units.Pressure, true, 90000, 105000)
 	if v, ok := m.quantity("tight_margin", units.Percent, true, 0, 50); ok {
@@ -59,7 +73,12 @@ func (d *decoder) cardTemplate(m *mapping) *CardTemplate {
 		}
 		t.MaxBlocks = int(v)
 	}
-	t.AccelTempK, _ = m.quantity("accelerate_check_temperature", units.Temperature, true, minDataTempK, maxDataTempK)
+	if v := m.get("accelerate_check_temperature", false); v != nil {
+		// Older presets named the temperature of the accelerate check; the card now
+		// prints the runway midpoint and 70 % of the rotation speed, and the expected
+		// 70 % point at each block's hottest go column.
+		d.warnf(v, "accelerate_check_temperature", "no longer used (the accelerate check follows the grid): delete this line")
+	}
 	t.CrosswindSpeedsMS, _, _ = m.quantities("crosswind_speeds", units.Speed, true, 1*units.MetresPerSecPerKnot, 60*units.MetresPerSecPerKnot)
 	t.CrosswindAnglesDeg, _, _ = m.quantities("crosswind_angles", units.Angle, true, 0, 90)
 	if len(t.CrosswindSpeedsMS) > 6 || len(t.CrosswindAnglesDeg) > 7 {
@@ -70,4 +89,11 @@ func (d *decoder) cardTemplate(m *mapping) *CardTemplate {
 	}
 	m.finish()
 	return t
+}
+
+// Rounding is how the card prints its distances (and so decides its cells' states):
+// required distances rounded up to perf.CardStep in the card's unit, declared
+// distances rounded down to a whole unit.
+func (t CardTemplate) Rounding() perf.Rounding {
+	return perf.Rounding{Unit: t.Unit, Step: perf.CardStep}
 }
