@@ -83,7 +83,7 @@ type CellData struct {
 	CannotTakeOff bool // a no-go without a figure: the model finds no takeoff
 }
 
-// AccelCheck is the accelerate check as pilots are taught it (FAA AIM 7-5-7): reach
+// AccelCheck is the accelerate check as pilots are taught it (FAA AIM 7-6-8): reach
 // 70 % of the rotation speed by the runway's midpoint, or abandon.
 type AccelCheck struct {
 	MidpointDist float64 // half the TORA, in the card's unit, rounded down
@@ -254,17 +254,15 @@ func Build(d CardData, p Page, f *Fonts) (*Card, error) {
 	header := b.header(d, x0, marginMM, w)
 	footer := b.footer(d, x0, w, p.HeightMM-marginMM)
 	legend := b.legend(d, x0, w)
-	figPt, err := b.figureSize(d, w)
-	if err != nil {
-		return nil, err
-	}
-	tools := b.tools(d, x0, w, figPt)
+	// Room for the grid: the tools are measured with their largest figure; once the
+	// grid's figure size is known they are laid out with it (figures stay the largest).
 	gridTop := header.Box.Y + header.Box.H + gapMM
-	room := footer.Box.Y - gapMM - legend.Box.H - gapMM - tools.Box.H - gapMM - gridTop
-	grid, err := b.grid(d, x0, gridTop, w, room)
+	room := footer.Box.Y - gapMM - legend.Box.H - gapMM - b.tools(d, x0, w, maxAccelPt).Box.H - gapMM - gridTop
+	grid, numPt, err := b.grid(d, x0, gridTop, w, room)
 	if err != nil {
 		return nil, err
 	}
+	tools := b.tools(d, x0, w, numPt)
 	// Tools and legend follow the grid; what room is left becomes a notes area above
 	// the footer, never a band inside the grid.
 	y := grid.Box.Y + grid.Box.H + gapMM
@@ -368,7 +366,7 @@ func (b *builder) header(d CardData, x, y, w float64) Block {
 	}
 	y += b.lines(&blk, x, y, w, b.wrapItems(items, " · ", w, bodyPt, Regular), bodyPt, Regular)
 	qnh := fmt.Sprintf("QNH %s (%s) or more: pressure altitude %s. Per %s (%s) less: add %s to the OAT.",
-		Keep(fmt.Sprintf("%.0f hPa", d.QNHhPa)), Keep(fmt.Sprintf("%.2f inHg", d.QNHinHg)), Keep(fmt.Sprintf("%.0f ft", d.PressureAltFt)),
+		Keep(trimNum(d.QNHhPa, 2)+" hPa"), Keep(fmt.Sprintf("%.2f inHg", d.QNHinHg)), Keep(fmt.Sprintf("%.0f ft", d.PressureAltFt)),
 		Keep("10 hPa"), Keep("0.30 inHg"), Keep(fmt.Sprintf("%.0f °%s", d.HotterPer10hPa, d.TempUnit)))
 	y += b.paragraph(&blk, x, y, w, qnh, bodyPt, Bold)
 	read := fmt.Sprintf("Figures: %s required, all factors in, rounded up. Between figures take the hotter column, less headwind, "+
@@ -466,22 +464,17 @@ func tempNum(t float64) string { return trimNum(t, 0) }
 
 func tempHead(t float64, unit string) string { return tempNum(t) + " °" + unit }
 
-// figureSize is the size of the grid's figures: as large as the columns allow, at
-// most 13 pt; the row height may lower it later.
-func (b *builder) figureSize(d CardData, w float64) (float64, error) {
-	g, err := b.columns(d, w)
-	if err != nil {
-		return 0, err
-	}
-	return math.Min(13, MinNumberPt*(g.colW-2*cellPadMM)/b.widestFigure(d)), nil
-}
+// maxAccelPt is the largest size of the accelerate check's figure line.
+const maxAccelPt = 12
 
-func (b *builder) grid(d CardData, x, y, w, h float64) (Block, error) {
+// grid lays out the density-altitude row and the weight blocks in at most h mm, and
+// returns the block and the size of its figures.
+func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	top := y
 	blk := Block{Name: "grid"}
 	g, err := b.columns(d, w)
 	if err != nil {
-		return blk, err
+		return blk, 0, err
 	}
 	if d.Empty != "" {
 		y += b.paragraph(&blk, x, y, w, "NO FIGURE ON THIS CARD: "+d.Empty, bodyPt, Bold) + 0.4
@@ -511,7 +504,7 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, error) {
 	if numPt < MinNumberPt-1e-9 || rowH < MinNumberPt*ptMM {
 		minRow := (inkAboveEm+inkBelowEm)*MinNumberPt*ptMM + 2*cellPadMM
 		need := gaps + minRow*(1+nB*nW) + nB*titleH(minRow)
-		return blk, fmt.Errorf("card %s %s: %d weight blocks of %d rows do not fit on a %s card with figures of at least %.0f pt (%.0f mm left for the grid, %.0f mm needed): use fewer weights (max_blocks) or wind rows, or a larger page",
+		return blk, 0, fmt.Errorf("card %s %s: %d weight blocks of %d rows do not fit on a %s card with figures of at least %.0f pt (%.0f mm left for the grid, %.0f mm needed): use fewer weights (max_blocks) or wind rows, or a larger page",
 			d.Ident, d.Designator, len(d.Blocks), len(d.WindsKt), b.card.Page.Name, MinNumberPt, h, need)
 	}
 	th := titleH(rowH)
@@ -588,7 +581,7 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, error) {
 		y += nW * rowH
 	}
 	blk.Box = Rect{x - 0.2, top, w + 0.4, y - top + 0.2}
-	return blk, nil
+	return blk, numPt, nil
 }
 
 // cell draws one grid cell in its mark's style.
@@ -655,12 +648,12 @@ func (b *builder) accelCheck(blk *Block, d CardData, x, y, w, figPt float64) flo
 		y += b.paragraph(blk, x, y, w, "No rotation speed in the profile (speeds.rotation): no accelerate check can be printed.", bodyPt, Regular)
 		return y - top
 	}
-	pt := math.Max(MinNumberPt, math.Min(figPt, 12))
+	pt := math.Max(MinNumberPt, math.Min(figPt, maxAccelPt))
 	big := fmt.Sprintf("%.0f %s: %.0f KIAS", a.MidpointDist, d.Unit, a.SpeedKIAS)
 	pt = b.fitPt(big, w, pt, MinNumberPt, Bold)
 	b.text(blk, Rect{x, y, w, pt * ptMM}, big, pt, Bold, Left, Black, Number)
 	y += pt*ptMM + 0.6
-	rule := fmt.Sprintf("By the runway midpoint reach 0.7 × VR %s, or abandon (FAA AIM 7-5-7).",
+	rule := fmt.Sprintf("By the runway midpoint reach 0.7 × VR %s, or abandon (FAA AIM 7-6-8).",
 		Keep(trimNum(a.RotateKIAS, 1)+" KIAS"))
 	y += b.paragraph(blk, x, y, w, rule, bodyPt, Regular)
 	var items []string

@@ -1,6 +1,7 @@
 package layout
 
 import (
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -83,4 +84,55 @@ func TestPagesAndSheets(t *testing.T) {
 	assert.InDelta(t, 8.5*25.4, p.HeightMM, 1e-9)
 	_, err := PageByName("b5")
 	assert.ErrorContains(t, err, "known sizes are 5x8, a5, half-letter")
+}
+
+// Issue 8.9: a figure that touches a grid line or overruns its frame is a layout
+// problem. A 9 pt "1100" (4 x 0.556 em advance, read from the Go font: 7.06 mm) in a
+// 7.5 mm wide frame leaves 0.22 mm each side, above the 0.1 mm clearance; in a 7.2 mm
+// frame it touches.
+func TestCheckTextTouchingLines(t *testing.T) {
+	f, err := NewFonts()
+	require.NoError(t, err)
+	p, _ := PageByName("a5")
+	mk := func(frameW float64) []Problem {
+		blk := Block{Name: "grid", Box: Rect{10, 10, 40, 20}}
+		b := &builder{f: f, card: &Card{Page: p}}
+		b.text(&blk, Rect{10, 10, 20, 5}, "1100", 9, Bold, Center, Black, Number)
+		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{20 - frameW/2, 10.2, frameW, 4.6}, Color: Black, LineMM: 0.001})
+		c := &Card{Page: p, Blocks: []Block{blk}}
+		return c.Check()
+	}
+	assert.Empty(t, mk(7.5))
+	probs := mk(7.2)
+	require.Len(t, probs, 1)
+	assert.Contains(t, probs[0].String(), `text "1100" touches a line`)
+	// A rule through the middle of a text is caught too.
+	blk := Block{Name: "b", Box: Rect{0, 0, 50, 10}, Shapes: []Shape{{Kind: Line, Box: Rect{0, 2.5, 50, 0}, LineMM: 0.15}}}
+	bb := &builder{f: f, card: &Card{Page: p}}
+	bb.text(&blk, Rect{1, 1, 30, 3.5}, "tail 10", 8, Regular, Left, Black, Label)
+	c := &Card{Page: p, Blocks: []Block{blk}}
+	assert.Len(t, c.Check(), 1)
+}
+
+// Issue 8.8: a list of factors wraps between items, never inside one, and a figure
+// joined to its unit with a no-break space stays with it.
+func TestWrapKeepsItemsWhole(t *testing.T) {
+	f, err := NewFonts()
+	require.NoError(t, err)
+	b := &builder{f: f}
+	items := []string{"UK CAA advisory factors: dry grass +20 %", Keep("upslope 0.3 %") + " " + Keep("+1.5 %"), "TOD ×1.33 ≤ TORA"}
+	whole := f.WidthMM(strings.Join(items, " · "), 8, Regular)
+	for _, w := range []float64{whole + 1, whole * 0.8, whole * 0.6, 40} {
+		lines := b.wrapItems(items, " · ", w, 8, Regular)
+		joined := strings.Join(lines, "\n")
+		for _, it := range items[1:] {
+			assert.Contains(t, joined, it, "width %.0f: item %q kept whole", w, it)
+		}
+		for _, l := range lines {
+			assert.LessOrEqual(t, f.WidthMM(l, 8, Regular), w+1e-9)
+		}
+	}
+	lines := b.wrap("add "+Keep("4 °C")+" to the OAT", f.WidthMM("add 4 °", 8, Regular), 8, Regular)
+	require.Greater(t, len(lines), 2)
+	assert.Contains(t, strings.Join(lines, "\n"), Keep("4 °C"), "the figure stays with its unit")
 }

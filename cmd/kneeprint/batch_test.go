@@ -21,12 +21,12 @@ func TestSeasonEndToEnd(t *testing.T) {
 	plan := filepath.Join(dir, "demo-season.yaml")
 	code, out, errOut := runCLI(t, "cards", "--plan", plan)
 	require.Equal(t, exitOK, code, errOut+out)
-	assert.Contains(t, out, "4 card file(s), 12 card page(s) written to "+filepath.Join(dir, "cards"))
+	assert.Contains(t, out, "4 card file(s), 20 card page(s) written to "+filepath.Join(dir, "cards"))
 	assert.Contains(t, errOut, "[4/4] wrote", "plain progress lines when not on a terminal")
 
 	code, out, _ = runCLI(t, "stale", filepath.Join(dir, "cards"))
 	assert.Equal(t, exitOK, code, out)
-	assert.Contains(t, out, "all 12 card(s) match their inputs")
+	assert.Contains(t, out, "all 20 card(s) match their inputs")
 
 	// A copy of the airfield with runway 25 shortened; the plan now names the copy.
 	src, err := os.ReadFile(filepath.Join(dir, "wrenmoor.yaml"))

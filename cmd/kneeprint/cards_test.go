@@ -1,6 +1,7 @@
 package main
 
 import (
+	"encoding/json"
 	"os"
 	"path/filepath"
 	"strings"
@@ -20,7 +21,7 @@ func TestCardsDemo(t *testing.T) {
 	for _, e := range entries {
 		assert.True(t, strings.HasSuffix(e.Name(), ".pdf") || e.Name() == "kneeprint-index.json", "no temporary file left: %s", e.Name())
 	}
-	assert.Contains(t, out, "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf (2 page(s))")
+	assert.Contains(t, out, "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf (4 page(s))")
 	assert.Contains(t, out, "no-go")
 }
 
@@ -29,7 +30,7 @@ func TestCardsUserFilesAndOptions(t *testing.T) {
 	code, out, errOut := runCLI(t, "cards", "--aircraft", "demo:quillwing-qt6", "--airfield", "demo:saltpan", "--template", "5x8",
 		"--sheet", "letter", "--date", "2027-03-01", "--valid-until", "2027-10-31", "--policy", "eu-class-b", "-o", dir)
 	require.Equal(t, exitOK, code, errOut)
-	assert.Contains(t, out, "kp-spm_quillwing-qt-6-demo-tourer_5x8_letter-2up.pdf (1 page(s))")
+	assert.Contains(t, out, "kp-spm_quillwing-qt-6-demo-tourer_5x8_letter-2up.pdf (2 page(s))")
 	_, err := os.Stat(filepath.Join(dir, "kp-spm_quillwing-qt-6-demo-tourer_5x8_letter-2up.pdf"))
 	assert.NoError(t, err)
 }
@@ -53,4 +54,79 @@ func TestCardsBadInput(t *testing.T) {
 	assert.Contains(t, out, "af-toda-short.yaml:10:15: runways[0].ends[0].toda")
 	entries, _ := os.ReadDir(dir)
 	assert.Empty(t, entries)
+}
+
+// Issue 8.10: a card on which no cell has a figure is never printed quietly. The demo
+// trainer's table stops at 8000 ft of pressure altitude: an airfield at 9000 ft has no
+// data in any cell. The summary lists it and the command exits 1 unless --allow-empty.
+func TestCardsEmptyCardIsNotSilent(t *testing.T) {
+	dir := t.TempDir()
+	af := filepath.Join(dir, "high.yaml")
+	require.NoError(t, os.WriteFile(af, []byte(`kind: airfield
+name: High Test Strip
+ident: HITS
+elevation: 9000 ft
+runways:
+  - surface: paved
+    condition: dry
+    ends:
+      - {designator: "09", tora: 2000 m}
+      - {designator: "27", tora: 2000 m}
+`), 0o644))
+	out := filepath.Join(dir, "cards")
+	code, stdout, errOut := runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", af, "-o", out)
+	assert.Equal(t, exitFailure, code, stdout+errOut)
+	assert.Contains(t, stdout, "card pages with no figure at all (2):")
+	assert.Contains(t, stdout, "hits_sedgefin-sf-2-demo-trainer_a5.pdf runway 09: ")
+	assert.Contains(t, stdout, "above the table's highest")
+	assert.Contains(t, errOut, "--allow-empty")
+
+	code, stdout, errOut = runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", af, "-o", out, "--allow-empty")
+	assert.Equal(t, exitOK, code, stdout+errOut)
+	assert.Contains(t, stdout, "card pages with no figure at all (2):", "still listed")
+}
+
+// Issue 8.11: cards --data writes the card's content beside each PDF.
+func TestCardsData(t *testing.T) {
+	dir := t.TempDir()
+	code, out, errOut := runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "--data", "-o", dir, "--date", "2026-12-01")
+	require.Equal(t, exitOK, code, out+errOut)
+	data, err := os.ReadFile(filepath.Join(dir, "kp-wrm_sedgefin-sf-2-demo-trainer_a5.json"))
+	require.NoError(t, err)
+	var f struct {
+		Format int `json:"format"`
+		Pages  []struct {
+			Page     string `json:"page"`
+			Unit     string `json:"unit"`
+			Declared struct {
+				TORA *float64 `json:"tora"`
+				LDA  *float64 `json:"lda"`
+			} `json:"declared"`
+			Blocks []struct {
+				Weight float64 `json:"weight"`
+				Cells  []struct {
+					Figure *float64 `json:"figure"`
+					State  string   `json:"state"`
+				} `json:"cells"`
+			} `json:"blocks"`
+		} `json:"pages"`
+	}
+	require.NoError(t, json.Unmarshal(data, &f))
+	assert.Equal(t, 1, f.Format)
+	var pages []string
+	for _, p := range f.Pages {
+		pages = append(pages, p.Page)
+		assert.Equal(t, "m", p.Unit)
+		require.NotEmpty(t, p.Blocks)
+		assert.Len(t, p.Blocks[0].Cells, 8*7)
+	}
+	assert.Equal(t, []string{"07", "25", "15 dry", "15 wet", "33 dry", "33 wet"}, pages)
+	assert.Equal(t, 840.0, *f.Pages[0].Declared.TORA)
+	assert.Equal(t, 780.0, *f.Pages[0].Declared.LDA)
+	// Without --data, no JSON beside the cards.
+	dir2 := t.TempDir()
+	code, _, _ = runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "-o", dir2)
+	require.Equal(t, exitOK, code)
+	matches, _ := filepath.Glob(filepath.Join(dir2, "*.json"))
+	assert.Equal(t, []string{filepath.Join(dir2, "kneeprint-index.json")}, matches)
 }

@@ -66,16 +66,18 @@ func TestRunPlanAndIndex(t *testing.T) {
 		assert.Equal(t, "2027-03-01", c.Date)
 		ends += len(c.Ends)
 	}
-	assert.Equal(t, 12, ends)
+	// 2 aircraft x (4 + 2 ends), and the 4 unpaved ends have a dry and a wet page each.
+	assert.Equal(t, 20, ends)
 	rep, err := Stale(filepath.Join(dir, "cards"), nil, "", "test")
 	require.NoError(t, err)
 	assert.Empty(t, rep.Stale)
-	assert.Equal(t, 12, rep.Checked)
+	assert.Equal(t, 20, rep.Checked)
 
 	var sb strings.Builder
 	s.WriteSummary(&sb)
-	assert.Contains(t, sb.String(), "4 card file(s), 12 card page(s) written")
-	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04:")
+	assert.Contains(t, sb.String(), "4 card file(s), 20 card page(s) written")
+	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04 dry:")
+	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04 wet:")
 }
 
 // One bad airfield is reported; every other card is still made.
@@ -118,9 +120,10 @@ func TestStaleNamesExactlyTheAffectedCards(t *testing.T) {
 	require.NoError(t, os.WriteFile(path, []byte(edited), 0o644))
 	rep, err = Stale(out, nil, "", "test")
 	require.NoError(t, err)
-	require.Len(t, rep.Stale, 2)
+	require.Len(t, rep.Stale, 4, "2 aircraft x the dry and the wet page of grass runway 15")
 	for _, s := range rep.Stale {
 		assert.Equal(t, "15", s.Designator)
+		assert.Contains(t, []string{"15 dry", "15 wet"}, s.Page)
 		assert.True(t, strings.HasPrefix(s.File, "kp-wrm_"))
 		require.Len(t, s.Reasons, 1)
 		assert.Contains(t, s.Reasons[0], "runway end 15 changed in")
@@ -178,8 +181,8 @@ func TestStaleWithPlan(t *testing.T) {
 			t.Errorf("unexpected %+v", s)
 		}
 	}
-	assert.Equal(t, 4, surface, "2 aircraft x 2 runway ends at the edited strip")
-	assert.Equal(t, 12, unprinted, "the half-letter cards were never printed")
+	assert.Equal(t, 8, surface, "2 aircraft x 2 runway ends x dry and wet pages at the edited strip")
+	assert.Equal(t, 12, unprinted, "the half-letter cards were never printed (one line per runway end)")
 }
 
 // A cancelled batch leaves no file of a card that was not finished, and no temporary.

@@ -203,9 +203,11 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 	}
 	d.PolicyTitle, d.PolicyItems = pol.Title, policyItems(pol, end, covers)
 	// The QNH the figures hold for and above, as a pilot compares it: rounded up to
-	// the whole hPa and the hundredth of an inHg, so that "or more" holds.
-	d.QNHhPa = math.Ceil(units.HPa(t.QNHPa) - 1e-6)
-	d.QNHinHg = math.Ceil(units.InHg(t.QNHPa)*100-1e-6) / 100
+	// the hundredth of an hPa and of an inHg, so that "or more" holds; the inHg within
+	// 0.05 hPa (about 1.4 ft of pressure altitude), so that 1013.25 hPa prints 29.92
+	// inHg (29.9212), not 29.93.
+	d.QNHhPa = math.Ceil(units.HPa(t.QNHPa)*100-1e-3) / 100
+	d.QNHinHg = math.Ceil((units.InHg(t.QNHPa)-units.InHg(5))*100) / 100
 	d.PressureAltFt = units.Feet(g.PressureAltM)
 	d.HotterPer10hPa = hotterPer10hPa(t)
 	d.Unit, d.MassUnit, d.TempUnit = rnd.UnitName(), t.MassUnit, t.TempUnit
@@ -326,7 +328,8 @@ func surfaceAssumption(s perf.Surface) string {
 }
 
 // accelCheck is the accelerate check: the runway midpoint and 0.7 x the profile's
-// rotation speed (FAA AIM 7-5-7, runway half-way signs), and, as information, where
+// rotation speed (FAA Aeronautical Information Manual 7-6-8, runway half-way signs;
+// 7-5-7 in older editions), and, as information, where
 // 70 % of the rotation speed is expected for each weight block: from the ground roll
 // factored for surface and slope (the effects the model does not cover, as the policy
 // factors them), in calm wind, at the hottest column whose calm cell fits, rounded
