@@ -29,7 +29,7 @@ import (
 // Caution is printed on every card.
 const Caution = "CAUTION: planning figures, not a substitute for the approved flight manual: verify against it. " +
 	"The pilot in command decides. Figures assume the profile's aircraft, engine and technique; a worn aircraft, " +
-	"soft or contaminated ground or a rushed takeoff needs more. Local regulations and licensed practice take precedence."
+	"soft or contaminated ground or a rushed takeoff needs more. Local regulations and licensed practice prevail."
 
 // Job is one aircraft at one airfield with one card template.
 type Job struct {
@@ -425,7 +425,7 @@ func policyItems(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) []string 
 	if floor {
 		// The model includes surface or slope itself: its own figure counts where it
 		// is longer than the published factor gives (Policy.Require).
-		items = append(items, "the model's own surface and slope figure where longer")
+		items = append(items, "the model's own figure where longer")
 	}
 	return items
 }
