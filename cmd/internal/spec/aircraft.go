@@ -30,9 +30,6 @@ const (
 const (
 	// Most light-aircraft manuals give tailwind corrections up to 10 kt (from memory).
 	defaultMaxTailwindKt = 10
-	// A common operating temperature range for light piston data (from memory).
-	defaultMinTempC = -30
-	defaultMaxTempC = 45
 	// Lift-off at 1.1 V_stall (Raymer, Aircraft Design, ch. 17; Anderson sec. 6.7).
 	defaultLiftoffFactor = 1.1
 	// About one second of rotation for small aircraft (from memory; domain notes).

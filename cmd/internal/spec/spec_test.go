@@ -278,3 +278,30 @@ func FuzzPlan(f *testing.F) {
 	seed(f, templates.FS, "plans/demo-season.yaml", "starter/plan.yaml")
 	f.Fuzz(fuzzParse)
 }
+
+// Issue 8.2: a card template names the units its card prints in; the old
+// accelerate_check_temperature key is accepted with a warning to delete it.
+func TestTemplateUnits(t *testing.T) {
+	data, err := fs.ReadFile(templates.FS, "cards/a5.yaml")
+	require.NoError(t, err)
+	src := strings.Replace(strings.Replace(string(data), "mass_unit: kg", "mass_unit: lb", 1), "temperature_unit: C", "temperature_unit: F", 1)
+	doc, err := Parse("us.yaml", []byte(src))
+	require.NoError(t, err)
+	assert.Equal(t, "lb", doc.Template.MassUnit)
+	assert.Equal(t, "F", doc.Template.TempUnit)
+	assert.Equal(t, perf.Rounding{Unit: "m", Step: 10}, doc.Template.Rounding())
+
+	// Defaults, said by validate.
+	src = strings.Replace(strings.Replace(string(data), "mass_unit: kg", "", 1), "temperature_unit: C", "", 1)
+	doc, err = Parse("old.yaml", []byte(src+"accelerate_check_temperature: 20 C\n"))
+	require.NoError(t, err)
+	assert.Equal(t, "kg", doc.Template.MassUnit)
+	assert.Equal(t, "C", doc.Template.TempUnit)
+	assert.Contains(t, strings.Join(doc.Defaults, "\n"), "mass_unit not given: weights in kg")
+	require.Len(t, doc.Warnings, 1)
+	assert.Contains(t, doc.Warnings[0], "accelerate_check_temperature: no longer used")
+
+	_, err = Parse("bad.yaml", []byte(strings.Replace(string(data), "mass_unit: kg", "mass_unit: stone", 1)))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), `bad.yaml:7:12: mass_unit: "stone" is not one of: kg, lb`)
+}
