@@ -591,3 +591,15 @@ func TestItem11CardData(t *testing.T) {
 	assert.Nil(t, rd.Data)
 	assert.False(t, errors.Is(err, perf.ErrNoData))
 }
+
+// Item 6: without a rotation speed in the profile there is no speed to check: the card
+// says so instead of inventing one.
+func TestItem6NoRotationSpeed(t *testing.T) {
+	j := demoJob(t, "a5", "Sedgefin", "KP-WRM")
+	a := *j.Aircraft
+	a.RotateIASMS = 0
+	j.Aircraft = &a
+	d, card := build(t, j, endOf(t, j, "07"), perf.Dry)
+	assert.Zero(t, d.Accel.SpeedKIAS)
+	assert.Contains(t, flatText(card), "No rotation speed in the profile (speeds.rotation)")
+}
