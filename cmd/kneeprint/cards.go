@@ -44,8 +44,8 @@ func newCardsCmd(e env) *cobra.Command {
 		Use:   "cards (--demo | --aircraft FILE --airfield FILE | --plan PLAN) -o DIR [flags]",
 		Short: "Write kneeboard cards: one PDF per aircraft and airfield, one card per runway end",
 		Long: `cards computes every runway end's grid and writes printable kneeboard cards, one PDF
-per aircraft x airfield and one page per runway end (or one sheet per two cards with
---sheet). A plan file (kind: plan) names a whole season: every aircraft at every
+per aircraft x airfield and one page per runway end, two (dry and wet) on grass and
+gravel (or one sheet per two cards with --sheet). A plan file (kind: plan) names a whole season: every aircraft at every
 airfield with every card template. Cards are made in parallel; each file is written
 to a temporary name and renamed into place, so a crash or Ctrl-C never leaves half a
 PDF. The folder gets an index (kneeprint-index.json) that 'kneeprint stale' reads.
