@@ -154,19 +154,22 @@ func Keep(s string) string { return strings.ReplaceAll(s, " ", NBSP) }
 
 // wrap breaks s into lines no wider than maxW at size pt, at ordinary spaces only.
 func (b *builder) wrap(s string, maxW, pt float64, st FontStyle) []string {
+	// Widths add up (advance widths, no kerning): each word is measured once.
 	var lines []string
-	cur := ""
+	cur, curW := "", 0.0
+	space := b.f.WidthMM(" ", pt, st)
 	for _, w := range strings.FieldsFunc(s, func(r rune) bool { return r == ' ' || r == '\n' || r == '\t' }) {
-		try := w
-		if cur != "" {
-			try = cur + " " + w
+		ww := b.f.WidthMM(w, pt, st)
+		if cur == "" {
+			cur, curW = w, ww
+			continue
 		}
-		if b.f.WidthMM(try, pt, st) <= maxW || cur == "" {
-			cur = try
+		if curW+space+ww <= maxW {
+			cur, curW = cur+" "+w, curW+space+ww
 			continue
 		}
 		lines = append(lines, cur)
-		cur = w
+		cur, curW = w, ww
 	}
 	if cur != "" {
 		lines = append(lines, cur)

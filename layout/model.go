@@ -163,24 +163,23 @@ func (t Text) Ink() Rect {
 	return Rect{x, base - inkAboveEm*em, t.WidthMM, (inkAboveEm + below) * em}
 }
 
-// strokes returns the lines a shape draws, each as the rectangle its ink covers.
-func (s Shape) strokes() []Rect {
+// appendStrokes appends the lines a shape draws, each as the rectangle its ink covers.
+func (s Shape) appendStrokes(out []Rect) []Rect {
 	half := s.LineMM / 2
 	r := s.Box
 	switch s.Kind {
 	case Line:
 		x0, x1 := math.Min(r.X, r.X+r.W), math.Max(r.X, r.X+r.W)
 		y0, y1 := math.Min(r.Y, r.Y+r.H), math.Max(r.Y, r.Y+r.H)
-		return []Rect{{x0 - half, y0 - half, x1 - x0 + 2*half, y1 - y0 + 2*half}}
+		return append(out, Rect{x0 - half, y0 - half, x1 - x0 + 2*half, y1 - y0 + 2*half})
 	case StrokeRect:
-		return []Rect{
-			{r.X - half, r.Y - half, r.W + 2*half, 2 * half},
-			{r.X - half, r.Y + r.H - half, r.W + 2*half, 2 * half},
-			{r.X - half, r.Y - half, 2 * half, r.H + 2*half},
-			{r.X + r.W - half, r.Y - half, 2 * half, r.H + 2*half},
-		}
+		return append(out,
+			Rect{r.X - half, r.Y - half, r.W + 2*half, 2 * half},
+			Rect{r.X - half, r.Y + r.H - half, r.W + 2*half, 2 * half},
+			Rect{r.X - half, r.Y - half, 2 * half, r.H + 2*half},
+			Rect{r.X + r.W - half, r.Y - half, 2 * half, r.H + 2*half})
 	}
-	return nil
+	return out
 }
 
 func grow(r Rect, d float64) Rect { return Rect{r.X - d, r.Y - d, r.W + 2*d, r.H + 2*d} }
@@ -191,7 +190,12 @@ func grow(r Rect, d float64) Rect { return Rect{r.X - d, r.Y - d, r.W + 2*d, r.H
 func (c *Card) Check() []Problem {
 	var out []Problem
 	page := Rect{0, 0, c.Page.WidthMM, c.Page.HeightMM}
+	var strokes []Rect
 	for i, b := range c.Blocks {
+		strokes = strokes[:0]
+		for _, s := range b.Shapes {
+			strokes = s.appendStrokes(strokes)
+		}
 		if !b.Box.Inside(page) {
 			out = append(out, Problem{b.Name, fmt.Sprintf("block %+v leaves the page %+v", b.Box, page)})
 		}
@@ -229,13 +233,10 @@ func (c *Card) Check() []Problem {
 				out = append(out, Problem{b.Name, fmt.Sprintf("text %q at %.1f pt is taller than its %.1f mm box", t.S, t.SizePt, t.Box.H)})
 			}
 			ink := grow(t.Ink(), lineClearMM)
-		lines:
-			for _, s := range b.Shapes {
-				for _, st := range s.strokes() {
-					if ink.Overlaps(st) {
-						out = append(out, Problem{b.Name, fmt.Sprintf("text %q touches a line at %+v", t.S, s.Box)})
-						break lines
-					}
+			for _, st := range strokes {
+				if ink.Overlaps(st) {
+					out = append(out, Problem{b.Name, fmt.Sprintf("text %q touches a line at %+v", t.S, st)})
+					break
 				}
 			}
 		}
