@@ -135,7 +135,10 @@ func Evaluate(k Case) Cell {
 	if k.MassKg > a.MTOWKg+1e-9 {
 		c.worsen(BeyondLimits, reason{kind: reasonMTOW, a: k.MassKg, b: a.MTOWKg})
 	}
-	if tail := -k.Wind.HeadwindMS; tail > a.MaxTailwindMS+1e-9 {
+	// The along-runway wind for the tailwind limit and the distance: the gust for a
+	// tailwind, the steady wind for a headwind (Components.ForDistanceMS).
+	along := k.Wind.ForDistanceMS()
+	if tail := -along; tail > a.MaxTailwindMS+1e-9 {
 		c.worsen(BeyondLimits, reason{kind: reasonTailwind, a: tail, b: a.MaxTailwindMS})
 	}
 	if a.MaxCrosswindMS > 0 && c.CrosswindMS > a.MaxCrosswindMS+1e-9 {
@@ -145,7 +148,7 @@ func Evaluate(k Case) Cell {
 		c.worsen(BeyondLimits, reason{kind: reasonTemperature, a: k.TempK, b: a.MinTempK, c: a.MaxTempK})
 	}
 
-	c.CreditedWindMS = CreditedWindMS(k.Wind.HeadwindMS, WindFactoringIncluded(k.Model))
+	c.CreditedWindMS = CreditedWindMS(along, WindFactoringIncluded(k.Model))
 	cond := Conditions{
 		PressureAltM: k.PressureAltM, TempK: k.TempK, MassKg: k.MassKg,
 		HeadwindMS: c.CreditedWindMS, SlopePct: k.End.SlopePct,

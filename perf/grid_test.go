@@ -132,3 +132,28 @@ func benchmarkGrid(b *testing.B, m Model) {
 func BenchmarkGridPhysics(b *testing.B) { benchmarkGrid(b, demoPhysics()) }
 
 func BenchmarkGridTable(b *testing.B) { benchmarkGrid(b, smallTable()) }
+
+// Issue 9.1: 068/06G16 on a 248 deg runway is a 16 kt tailwind for the limit and the
+// distance, not 6 kt (gust for any tailwind: common practice, domain notes sec. 5d).
+func TestEvaluateGustTailwind(t *testing.T) {
+	m := smallTable()
+	a := testAircraft(m) // tailwind limit 10 kt
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	end := RunwayEnd{Designator: "25", HeadingDeg: 248, TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Paved, Condition: Dry}
+	comp := WindComponents(Wind{FromDeg: 68, SpeedMS: 6 * knot, GustMS: 16 * knot}, 248, 0)
+	c := Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 273.15, MassKg: 900, Wind: comp})
+	assert.Equal(t, BeyondLimits, c.State)
+	assert.Contains(t, c.Reasons()[0], "tailwind 16 kt above the 10 kt limit")
+	// Within the limit the distance uses the gust: 4 kt gusting 8 kt behind is +4 % per
+	// kt x 8 kt = x1.32 on the test table's 400 m (its invented note; arithmetic).
+	comp = WindComponents(Wind{FromDeg: 68, SpeedMS: 4 * knot, GustMS: 8 * knot}, 248, 0)
+	c = Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 273.15, MassKg: 900, Wind: comp})
+	assert.Equal(t, Go, c.State, c.Reasons())
+	assert.InDelta(t, -8*knot, c.CreditedWindMS, 1e-9)
+	assert.InDelta(t, 400*1.32, c.To50ftM, 1e-9)
+	// A headwind with gusts is credited at its steady speed: 6 % per 5 kt x 4 kt.
+	comp = WindComponents(Wind{FromDeg: 248, SpeedMS: 4 * knot, GustMS: 14 * knot}, 248, 0)
+	c = Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 273.15, MassKg: 900, Wind: comp})
+	assert.InDelta(t, 4*knot, c.CreditedWindMS, 1e-9)
+	assert.InDelta(t, 400*(1-0.06*4/5), c.To50ftM, 1e-9)
+}
