@@ -148,6 +148,10 @@ func Evaluate(k Case) Cell {
 		c.worsen(BeyondLimits, reason{kind: reasonTemperature, a: k.TempK, b: a.MinTempK, c: a.MaxTempK})
 	}
 
+	if err := k.Policy.CheckSlope(k.End.SlopePct); err != nil { // no published correction
+		c.worsen(NoData, reason{s: err.Error()})
+		return c
+	}
 	c.CreditedWindMS = CreditedWindMS(along, WindFactoringIncluded(k.Model))
 	cond := Conditions{
 		PressureAltM: k.PressureAltM, TempK: k.TempK, MassKg: k.MassKg,
@@ -212,8 +216,8 @@ const (
 type Grid struct {
 	Spec         GridSpec
 	End          RunwayEnd
-	ElevationM   float64
-	PressureAltM float64 // at Spec.QNHPa and the aerodrome elevation
+	ElevationM   float64 // the elevation used: TakeoffElevationM
+	PressureAltM float64 // at Spec.QNHPa and ElevationM
 	Policy       Policy
 	Cells        [][][]Cell // [weight][wind][temperature]
 }
@@ -232,8 +236,8 @@ func DefaultGridSpec(a *Aircraft) GridSpec {
 }
 
 // ComputeGrid evaluates every cell of spec for runway end e of airfield f. The
-// pressure altitude comes from the assumed QNH at the aerodrome elevation (the
-// highest point of the landing area, so conservative for every runway end).
+// pressure altitude comes from the assumed QNH at the highest of the aerodrome
+// elevation and the runway's threshold elevations (TakeoffElevationM).
 func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec GridSpec) (*Grid, error) {
 	if len(spec.TempsK) == 0 || len(spec.HeadwindsMS) == 0 || len(spec.WeightsKg) == 0 {
 		return nil, errors.New("grid: every axis needs at least one value")
@@ -244,8 +248,18 @@ func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec G
 	if !(spec.QNHPa > 80000 && spec.QNHPa < 110000) {
 		return nil, fmt.Errorf("grid: QNH %.1f hPa outside 800 to 1100 hPa", spec.QNHPa/100)
 	}
-	g := &Grid{Spec: spec, End: e, ElevationM: f.ElevationM, Policy: p}
-	g.PressureAltM = PressureAltitudeFromQNH(spec.QNHPa, f.ElevationM)
+	for _, w := range spec.WeightsKg {
+		if err := CheckMass(a, w); err != nil {
+			return nil, fmt.Errorf("grid: %w", err)
+		}
+	}
+	for _, t := range spec.TempsK {
+		if err := CheckTemp(t); err != nil {
+			return nil, fmt.Errorf("grid: %w", err)
+		}
+	}
+	g := &Grid{Spec: spec, End: e, ElevationM: TakeoffElevationM(f, e), Policy: p}
+	g.PressureAltM = PressureAltitudeFromQNH(spec.QNHPa, g.ElevationM)
 	g.Cells = make([][][]Cell, len(spec.WeightsKg))
 	for wi, w := range spec.WeightsKg {
 		g.Cells[wi] = make([][]Cell, len(spec.HeadwindsMS))

@@ -157,3 +157,44 @@ func TestEvaluateGustTailwind(t *testing.T) {
 	assert.InDelta(t, 4*knot, c.CreditedWindMS, 1e-9)
 	assert.InDelta(t, 400*(1-0.06*4/5), c.To50ftM, 1e-9)
 }
+
+// Issue 9.6: beyond the 2 % that AMC2 CAT.POL.A.305 covers, eu-class-b gives no
+// figure (with the reason); uk-advisory gives one, with a caution.
+func TestEvaluateSlopeBeyondTwoPercent(t *testing.T) {
+	m := smallTable()
+	a := testAircraft(m)
+	eu, _ := PolicyByID(PolicyEUClassB)
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	end := RunwayEnd{Designator: "09", TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Paved, Condition: Dry, SlopePct: 2.6}
+	k := Case{Aircraft: a, Model: m, Policy: eu, End: end, TempK: 273.15, MassKg: 900}
+	c := Evaluate(k)
+	assert.Equal(t, NoData, c.State)
+	assert.False(t, c.HasDistance)
+	assert.Contains(t, c.Reasons()[0], "AMC2 CAT.POL.A.305")
+	k.Policy = uk
+	c = Evaluate(k)
+	assert.Equal(t, Go, c.State, c.Reasons())
+	assert.NotEmpty(t, c.Requirement.Caution)
+	// 2 % exactly is inside the published correction: a figure under either policy.
+	k.End.SlopePct, k.Policy = 2, eu
+	assert.True(t, Evaluate(k).HasDistance)
+}
+
+// Issue 9.7: the grid's pressure altitude is taken at the highest threshold when it is
+// above the aerodrome elevation; the elevation used is exposed.
+func TestComputeGridHighestElevation(t *testing.T) {
+	m := smallTable()
+	a := testAircraft(m)
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	lo := RunwayEnd{Designator: "04", TORAM: 1100, TODAM: 1100, ASDAM: 1100, Surface: Paved, Condition: Dry, ElevationM: 290}
+	hi := lo
+	hi.Designator, hi.ElevationM = "22", 310
+	f := Airfield{ElevationM: 300, Runways: []Runway{{Ends: []RunwayEnd{lo, hi}}}}
+	spec := DefaultGridSpec(a)
+	spec.QNHPa = ISASeaLevelPressurePa
+	g, err := ComputeGrid(a, m, uk, f, lo, spec)
+	require.NoError(t, err)
+	assert.InDelta(t, 310, g.ElevationM, 1e-9)
+	// At QNH 1013.25 hPa the pressure altitude equals the elevation (ISA, ICAO Doc 7488).
+	assert.InDelta(t, 310, g.PressureAltM, 1e-6)
+}
