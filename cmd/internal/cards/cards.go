@@ -155,7 +155,7 @@ func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
 	d.PolicyTitle, d.PolicyLine = pol.Title, policyLine(pol, e, covers)
 	d.QNHhPa = units.HPa(t.QNHPa)
 	d.PressureAltFt = units.Feet(g.PressureAltM)
-	d.FtPerHPa = units.Feet(perf.PressureAltitudeFromQNH(t.QNHPa-100, f.ElevationM) - g.PressureAltM)
+	d.FtPerHPa = units.Feet(perf.PressureAltitudeFromQNH(t.QNHPa-100, g.ElevationM) - g.PressureAltM)
 	d.Unit = t.Unit
 	d.TightMarginPct = t.TightMargin * 100
 	for _, k := range t.TempsK {
@@ -244,6 +244,7 @@ func crosswindHelper(t spec.CardTemplate) layout.CrosswindHelper {
 
 func policyLine(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) string {
 	var parts []string
+	floor := false
 	sf, slf := p.SurfaceFactor(e.Surface, e.Condition), p.SlopeFactor(e.SlopePct)
 	for _, f := range []struct {
 		f       perf.Factor
@@ -255,19 +256,29 @@ func policyLine(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) string {
 		s := fmt.Sprintf("%s ×%.2f", f.f.Label(), f.f.Value)
 		if f.covered {
 			s += " (or the model's own figure if longer)"
+			floor = true
 		}
 		parts = append(parts, s)
 	}
-	checks := p.OverallMultipliers(e)
-	var cs []string
-	for _, c := range checks {
-		if c.Multiplier == 1 {
-			cs = append(cs, "TOD ≤ "+c.Declared)
-		} else {
-			cs = append(cs, fmt.Sprintf("TOD ×%.2f ≤ %s", c.Multiplier, c.Declared))
+	var rules []string // a policy is met by any one of its rules (CAT.POL.A.305(b)(1) or (2))
+	for _, r := range p.Rules(e) {
+		var cs []string
+		for _, c := range r.Checks {
+			if c.Multiplier == 1 {
+				cs = append(cs, "TOD ≤ "+c.Declared)
+			} else {
+				cs = append(cs, fmt.Sprintf("TOD ×%.2f ≤ %s", c.Multiplier, c.Declared))
+			}
 		}
+		rules = append(rules, strings.Join(cs, ", "))
 	}
-	parts = append(parts, strings.Join(cs, ", "))
+	parts = append(parts, strings.Join(rules, ", or "))
+	if floor {
+		parts = append(parts, "the factor as a floor is kneeprint's own rule")
+	}
+	if c := p.SlopeCaution(e.SlopePct); c != "" {
+		parts = append(parts, c)
+	}
 	return strings.Join(parts, " · ")
 }
 
