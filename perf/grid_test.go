@@ -80,7 +80,7 @@ func TestEvaluateWindNotAppliedTwice(t *testing.T) {
 	assert.InDelta(t, 376, c.To50ftM, 1e-9, "x0.94 once")
 	m.Table.WindInData = false
 	c = Evaluate(Case{Aircraft: a, Model: m, Policy: eu, End: end, TempK: 273.15, MassKg: 900, Wind: Components{HeadwindMS: 5 * knot}})
-	// 50 % of a reported headwind: 14 CFR 23.1587 [pub].
+	// 50 % of a reported headwind: 14 CFR 23.1587(c)(3), pre-2017 text [pub].
 	assert.InDelta(t, 2.5*knot, c.CreditedWindMS, 1e-12)
 	assert.InDelta(t, 388, c.To50ftM, 1e-9, "50 % of 5 kt -> x0.97")
 }

@@ -17,7 +17,7 @@ type Table struct {
 	To50ftM     [][][]float64
 
 	// WindInData is true when the manual's wind corrections already credit only part
-	// of a headwind and more than all of a tailwind (14 CFR 23.1587 data usually do):
+	// of a headwind and more than all of a tailwind (data under 14 CFR 23.1587(c)(3), pre-2017, usually do):
 	// kneeprint then passes the reported wind and does not factor it again.
 	WindInData  bool
 	Corrections Corrections

@@ -54,7 +54,9 @@ func TestWindTrueAndGust(t *testing.T) {
 }
 
 func TestCreditedWind(t *testing.T) {
-	// 14 CFR 23.1587: not more than 50 % of headwind, not less than 150 % of tailwind.
+	// 14 CFR 23.1587(c)(3) (as it stood before the 2017 rewrite of Part 23, 2014 edition
+	// [pub]): not more than 50 % of headwind, not less than 150 % of tailwind; the same
+	// for operations in CAT.POL.A.305(c) [pub].
 	assert.Equal(t, 5.0, CreditedWindMS(10, false))
 	assert.Equal(t, -15.0, CreditedWindMS(-10, false))
 	// Already in the manual's data: not applied twice.

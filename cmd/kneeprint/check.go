@@ -161,11 +161,11 @@ func checkRun(e env, opts *checkOptions) error {
 		in.WindText = opts.wind
 		switch {
 		case w.True:
-			in.WindSource = "report group: true"
+			in.WindSource = "report group"
 		case opts.windTrue:
 			w.True, in.WindSource = true, "tower form with --wind-true"
 		default:
-			in.WindSource = "tower form: magnetic; --wind-true if it is true"
+			in.WindSource = "tower form; --wind-true if it is true"
 		}
 		if rep != nil && rep.Wind != nil {
 			in.FlagsOverReport = append(in.FlagsOverReport, fmt.Sprintf("--wind %s (the report's %s not used)", opts.wind, rep.WindGroup))
@@ -174,7 +174,7 @@ func checkRun(e env, opts *checkOptions) error {
 		if rep.Wind == nil {
 			return fmt.Errorf("--metar: the report has no usable wind group (%s): give --wind", orMissing(rep.WindGroup))
 		}
-		w, in.WindText, in.WindSource = *rep.Wind, rep.WindGroup, "from the report: true"
+		w, in.WindText, in.WindSource = *rep.Wind, rep.WindGroup, "from the report"
 		in.FromReport = append([]string{fmt.Sprintf("wind %s (true)", rep.WindGroup)}, in.FromReport...)
 	default:
 		in.WindText, in.WindSource = "calm", "no --wind given: calm"

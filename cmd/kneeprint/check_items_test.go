@@ -99,7 +99,7 @@ func TestCheckWindReference(t *testing.T) {
 	}
 	code, out, _ := runCLI(t, append(append([]string{"check"}, base...), "--wind", "22015KT")...)
 	require.Equal(t, exitOK, code)
-	assert.Contains(t, out, "wind 22015KT, true (report group: true)")
+	assert.Contains(t, out, "wind 22015KT, true (report group)")
 	for _, bad := range []string{"24/15", "240/15G", "240/1g5", "+90/5", "090/+5", "-0/0"} {
 		code, _, errOut := runCLI(t, append(append([]string{"check"}, base...), "--wind", bad)...)
 		assert.Equal(t, exitUsage, code, bad)
@@ -266,4 +266,23 @@ func TestCheckImplausibleTemperatures(t *testing.T) {
 			assert.NotContains(t, out+errOut, "Inf", temp)
 		}
 	}
+}
+
+// Issue 9.11: validate prints, per aircraft, the ground roll and distance to 50 ft at
+// sea level ISA and MTOW in m and ft (the demo trainer's invented table: 825 ft and
+// 1495 ft by linear interpolation between its 10 C and 20 C columns), and warns when a
+// table's figures are implausible for the class (a feet table marked m).
+func TestValidateReferenceFigures(t *testing.T) {
+	code, out, _ := runCLI(t, "validate", "--demo")
+	require.Equal(t, exitOK, code)
+	assert.Contains(t, out, "MTOW 1000 kg, paved, dry, level, calm: ground roll 252 m (825 ft), to 50 ft 456 m (1495 ft)")
+	assert.Equal(t, 2, strings.Count(out, "reference, to hold against the manual"), "one per aircraft")
+
+	data, err := os.ReadFile("../../templates/aircraft/sedgefin-sf2.yaml")
+	require.NoError(t, err)
+	slip := writeFile(t, "slip.yaml", strings.Replace(string(data), "distance_unit: ft", "distance_unit: m", 1))
+	code, out, _ = runCLI(t, "validate", slip)
+	assert.Equal(t, exitOK, code, "a warning, not an error")
+	assert.Contains(t, out, "warnings:")
+	assert.Contains(t, out, "check the table's distance_unit")
 }
