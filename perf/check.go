@@ -64,7 +64,7 @@ const maxWindMS = 99 * knot
 // CheckTemp refuses an outside air temperature outside the plausible range, NaN or
 // infinite (issue 14.5: nothing but finite numbers reaches the output).
 func CheckTemp(tempK float64) error {
-	if !(tempK >= MinPlausibleTempK && tempK <= MaxPlausibleTempK) {
+	if !(tempK >= MinPlausibleTempK-1e-9 && tempK <= MaxPlausibleTempK+1e-9) { // 1e-9: "-90C" parses to 183.14999999999998 K
 		return fmt.Errorf("temperature %s is outside %.0f to %.0f C, the range of air temperatures ever recorded at the surface", showC(tempK), MinPlausibleTempK-273.15, MaxPlausibleTempK-273.15)
 	}
 	return nil
@@ -109,7 +109,7 @@ func (q Question) Check(a *Aircraft) error {
 			return fmt.Errorf("wind: %g is not a finite number", x)
 		}
 	}
-	if w.SpeedMS < 0 || w.GustMS < 0 || w.SpeedMS > maxWindMS || w.GustMS > maxWindMS {
+	if w.SpeedMS < 0 || w.GustMS < 0 || w.SpeedMS > maxWindMS+1e-9 || w.GustMS > maxWindMS+1e-9 {
 		return fmt.Errorf("wind: speeds must be 0 to 99 kt")
 	}
 	return nil

@@ -245,7 +245,7 @@ func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec G
 	if len(spec.TempsK) > MaxGridTemps || len(spec.HeadwindsMS) > MaxGridWinds || len(spec.WeightsKg) > MaxGridWeights {
 		return nil, fmt.Errorf("grid: at most %d temperatures, %d winds and %d weights", MaxGridTemps, MaxGridWinds, MaxGridWeights)
 	}
-	if !(spec.QNHPa > 80000 && spec.QNHPa < 110000) {
+	if !(spec.QNHPa >= MinQNHPa && spec.QNHPa <= MaxQNHPa) { // the range check accepts too
 		return nil, fmt.Errorf("grid: QNH %.1f hPa outside 800 to 1100 hPa", spec.QNHPa/100)
 	}
 	for _, w := range spec.WeightsKg {

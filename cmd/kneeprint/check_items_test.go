@@ -266,6 +266,15 @@ func TestCheckImplausibleTemperatures(t *testing.T) {
 			assert.NotContains(t, out+errOut, "Inf", temp)
 		}
 	}
+	// The ends of the range are answered, with valid JSON (encoding/json refuses NaN
+	// and infinities), on both demo models and in the strongest winds accepted.
+	for _, ac := range []string{"demo:sedgefin-sf2", "demo:quillwing-qt6"} {
+		for _, temp := range []string{"-90C", "60C", "140F"} {
+			for _, wind := range []string{"VRB/90G99", "220/99", "040/99"} {
+				checkJSON(t, "--aircraft", ac, "--airfield", "demo:saltpan", "--temp", temp, "--qnh", "800hPa", "--wind", wind)
+			}
+		}
+	}
 }
 
 // Issue 9.11: validate prints, per aircraft, the ground roll and distance to 50 ft at
