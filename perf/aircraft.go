@@ -8,6 +8,7 @@ type Aircraft struct {
 	Notes string
 
 	MTOWKg    float64   // maximum takeoff mass
+	MinMassKg float64   // lowest flyable mass: no question below it is answered (0: none stated)
 	WeightsKg []float64 // the weights a card shows, heaviest first
 
 	RotateIASMS float64 // rotation (lift-off) indicated airspeed from the manual

@@ -109,3 +109,26 @@ func DensityAltitudeM(paM, oatK float64) float64 {
 // isaDensity0 is rho0 computed from p0/(R T0) = 1.2250 kg/m3, so that the ISA
 // itself has density altitude exactly equal to pressure altitude.
 func isaDensity0() float64 { return ISASeaLevelPressurePa / (GasConstantAir * ISASeaLevelTempK) }
+
+// TakeoffElevationM is the elevation a takeoff from runway end e of airfield f takes
+// its pressure altitude at: the highest of the aerodrome elevation and the threshold
+// elevations of e's runway (both ends). The aerodrome elevation is by definition the
+// highest point of the landing area (ICAO Annex 14, definitions), but a file can give a
+// threshold above it; the higher figure gives the higher pressure altitude, which is
+// the conservative one.
+func TakeoffElevationM(f Airfield, e RunwayEnd) float64 {
+	h := math.Max(f.ElevationM, e.ElevationM)
+	for _, r := range f.Runways {
+		mine := false
+		for _, x := range r.Ends {
+			mine = mine || x.Designator == e.Designator
+		}
+		if !mine {
+			continue
+		}
+		for _, x := range r.Ends {
+			h = math.Max(h, x.ElevationM)
+		}
+	}
+	return h
+}

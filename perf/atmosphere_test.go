@@ -111,3 +111,22 @@ func TestDensityAltitude(t *testing.T) {
 	// At ISA temperature, DA = PA exactly (property).
 	assert.InDelta(t, 4000*ft, DensityAltitudeM(4000*ft, ISATempK(4000*ft)), 1e-6)
 }
+
+// Issue 9.7: the pressure altitude of a takeoff uses the highest of the aerodrome
+// elevation and the runway's threshold elevations (the aerodrome elevation is defined
+// as the highest point of the landing area, ICAO Annex 14 definitions; a file can still
+// say otherwise, and the higher figure is the conservative one).
+func TestTakeoffElevation(t *testing.T) {
+	f := Airfield{ElevationM: 4950 * ft, Runways: []Runway{
+		{Ends: []RunwayEnd{{Designator: "04", ElevationM: 4935 * ft}, {Designator: "22", ElevationM: 4975 * ft}}},
+		{Ends: []RunwayEnd{{Designator: "13", ElevationM: 4940 * ft}, {Designator: "31", ElevationM: 4945 * ft}}},
+	}}
+	assert.InDelta(t, 4975*ft, TakeoffElevationM(f, f.Runways[0].Ends[0]), 1e-9, "the far threshold of 04 is the highest")
+	assert.InDelta(t, 4975*ft, TakeoffElevationM(f, f.Runways[0].Ends[1]), 1e-9)
+	assert.InDelta(t, 4950*ft, TakeoffElevationM(f, f.Runways[1].Ends[0]), 1e-9, "the aerodrome elevation when above both thresholds")
+	// Property: never below the aerodrome elevation nor the end's own threshold.
+	for _, e := range f.Ends() {
+		assert.GreaterOrEqual(t, TakeoffElevationM(f, e), f.ElevationM)
+		assert.GreaterOrEqual(t, TakeoffElevationM(f, e), e.ElevationM)
+	}
+}

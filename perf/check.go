@@ -1,6 +1,8 @@
 package perf
 
 import (
+	"fmt"
+	"math"
 	"sort"
 )
 
@@ -9,8 +11,7 @@ type Question struct {
 	QNHPa       float64
 	TempK       float64
 	MassKg      float64
-	Wind        Wind
-	Variable    bool      // variable wind: taken as a full tailwind and a full crosswind on every end (conservative)
+	Wind        Wind      // a variable wind (Wind.Variable) is a full tailwind and crosswind on every end
 	Condition   Condition // "" keeps each runway's declared condition
 	TightMargin float64
 }
@@ -20,10 +21,19 @@ type EndAnswer struct {
 	End  RunwayEnd
 	Wind Components
 	Cell Cell
+	// The atmosphere this end was answered in: the pressure altitude is taken at
+	// ElevationM, the highest of the aerodrome elevation and the runway's thresholds
+	// (TakeoffElevationM).
+	ElevationM   float64
+	PressureAltM float64
+	DensityAltM  float64
+	ISADevK      float64
 }
 
 // Answer is the answer for the whole airfield, runway ends ranked best first.
 type Answer struct {
+	// The aerodrome elevation and the atmosphere there; each end's own, possibly
+	// higher, figures are in its EndAnswer.
 	ElevationM   float64
 	PressureAltM float64
 	DensityAltM  float64
@@ -31,31 +41,108 @@ type Answer struct {
 	Ends         []EndAnswer
 }
 
+// Plausible outside air temperatures: beyond the extremes recorded at the Earth's
+// surface (WMO World Weather and Climate Extremes Archive: -89.2 C at Vostok, 1983;
+// 56.7 C at Death Valley, 1913 - from memory) a temperature is a typing slip, and
+// no figure is computed for it.
+const (
+	MinPlausibleTempK = -90 + 273.15
+	MaxPlausibleTempK = 60 + 273.15
+)
+
+// QNH range accepted: beyond the lowest and highest sea-level pressures ever reduced
+// (about 870 and 1084 hPa, WMO extremes archive - from memory), with a margin.
+const (
+	MinQNHPa = 80000.0
+	MaxQNHPa = 110000.0
+)
+
+// maxWindMS bounds a reported wind: 99 kt, the largest two-digit report (WMO FM 15);
+// past it no light aircraft takes off.
+const maxWindMS = 99 * knot
+
+// CheckTemp refuses an outside air temperature outside the plausible range, NaN or
+// infinite (issue 14.5: nothing but finite numbers reaches the output).
+func CheckTemp(tempK float64) error {
+	if !(tempK >= MinPlausibleTempK-1e-9 && tempK <= MaxPlausibleTempK+1e-9) { // 1e-9: "-90C" parses to 183.14999999999998 K
+		return fmt.Errorf("temperature %s is outside %.0f to %.0f C, the range of air temperatures ever recorded at the surface", showC(tempK), MinPlausibleTempK-273.15, MaxPlausibleTempK-273.15)
+	}
+	return nil
+}
+
+func showC(k float64) string {
+	if math.IsNaN(k) || math.IsInf(k, 0) || math.Abs(k) > 1e6 {
+		return fmt.Sprintf("%g K", k)
+	}
+	return fmt.Sprintf("%.1f C", k-273.15)
+}
+
+// CheckMass refuses a takeoff mass that is not finite, not positive, or below the
+// profile's lowest flyable mass (issue 14.2: "100 kg" for 1000 kg is a dropped zero,
+// not a light aircraft).
+func CheckMass(a *Aircraft, kg float64) error {
+	switch {
+	case !(kg > 0) || math.IsInf(kg, 0):
+		return fmt.Errorf("weight %g kg is not a mass an aircraft can have", kg)
+	case a.MinMassKg > 0 && kg < a.MinMassKg-1e-9:
+		return fmt.Errorf("weight %.0f kg is below the lowest flyable mass %.0f kg of %q (min_mass): check the figure", kg, a.MinMassKg, a.Name)
+	}
+	return nil
+}
+
+// Check refuses a question kneeprint cannot answer honestly: an impossible weight or
+// temperature, a QNH outside the range above, a wind that is not finite, negative
+// or faster than 99 kt.
+func (q Question) Check(a *Aircraft) error {
+	if err := CheckTemp(q.TempK); err != nil {
+		return err
+	}
+	if err := CheckMass(a, q.MassKg); err != nil {
+		return err
+	}
+	if !(q.QNHPa >= MinQNHPa && q.QNHPa <= MaxQNHPa) {
+		return fmt.Errorf("QNH %g hPa is outside %.0f to %.0f hPa", q.QNHPa/100, MinQNHPa/100, MaxQNHPa/100)
+	}
+	w := q.Wind
+	for _, x := range []float64{w.FromDeg, w.SpeedMS, w.GustMS, w.VaryFromDeg, w.VaryToDeg} {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return fmt.Errorf("wind: %g is not a finite number", x)
+		}
+	}
+	if w.SpeedMS < 0 || w.GustMS < 0 || w.SpeedMS > maxWindMS+1e-9 || w.GustMS > maxWindMS+1e-9 {
+		return fmt.Errorf("wind: speeds must be 0 to 99 kt")
+	}
+	return nil
+}
+
 // Ask evaluates q on every runway end of airfield f and ranks the ends: by state
-// (go first), then by required over available distance, then by designator.
-func Ask(a *Aircraft, m Model, p Policy, f Airfield, q Question) Answer {
+// (go first), then by required over available distance, then by designator. Each end
+// takes its pressure altitude at TakeoffElevationM. A question that fails Check is
+// refused with its error.
+func Ask(a *Aircraft, m Model, p Policy, f Airfield, q Question) (Answer, error) {
+	if err := q.Check(a); err != nil {
+		return Answer{}, err
+	}
 	ans := Answer{ElevationM: f.ElevationM}
 	ans.PressureAltM = PressureAltitudeFromQNH(q.QNHPa, f.ElevationM)
 	ans.DensityAltM = DensityAltitudeM(ans.PressureAltM, q.TempK)
 	ans.ISADevK = q.TempK - ISATempK(ans.PressureAltM)
 	for _, e := range f.Ends() {
+		ea := EndAnswer{ElevationM: TakeoffElevationM(f, e)}
 		if q.Condition != "" {
 			e.Condition = q.Condition
 		}
-		comp := WindComponents(q.Wind, e.HeadingDeg, f.VariationDeg)
-		if q.Variable {
-			gust := q.Wind.SpeedMS
-			if q.Wind.GustMS > gust {
-				gust = q.Wind.GustMS
-			}
-			comp = Components{HeadwindMS: -q.Wind.SpeedMS, CrosswindMS: q.Wind.SpeedMS, GustCrosswindMS: gust}
-		}
-		cell := Evaluate(Case{
+		ea.End = e
+		ea.PressureAltM = PressureAltitudeFromQNH(q.QNHPa, ea.ElevationM)
+		ea.DensityAltM = DensityAltitudeM(ea.PressureAltM, q.TempK)
+		ea.ISADevK = q.TempK - ISATempK(ea.PressureAltM)
+		ea.Wind = WindComponents(q.Wind, e.HeadingDeg, f.VariationDeg)
+		ea.Cell = Evaluate(Case{
 			Aircraft: a, Model: m, Policy: p, End: e,
-			PressureAltM: ans.PressureAltM, TempK: q.TempK, MassKg: q.MassKg,
-			Wind: comp, TightMargin: q.TightMargin,
+			PressureAltM: ea.PressureAltM, TempK: q.TempK, MassKg: q.MassKg,
+			Wind: ea.Wind, TightMargin: q.TightMargin,
 		})
-		ans.Ends = append(ans.Ends, EndAnswer{End: e, Wind: comp, Cell: cell})
+		ans.Ends = append(ans.Ends, ea)
 	}
 	sort.SliceStable(ans.Ends, func(i, j int) bool {
 		a, b := ans.Ends[i].Cell, ans.Ends[j].Cell
@@ -70,5 +157,5 @@ func Ask(a *Aircraft, m Model, p Policy, f Airfield, q Question) Answer {
 		}
 		return ans.Ends[i].End.Designator < ans.Ends[j].End.Designator
 	})
-	return ans
+	return ans, nil
 }

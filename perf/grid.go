@@ -170,7 +170,10 @@ func Evaluate(k Case) Cell {
 	if k.MassKg > a.MTOWKg+1e-9 {
 		c.worsen(BeyondLimits, reason{kind: reasonMTOW, a: k.MassKg, b: a.MTOWKg})
 	}
-	if tail := -k.Wind.HeadwindMS; tail > a.MaxTailwindMS+1e-9 {
+	// The along-runway wind for the tailwind limit and the distance: the gust for a
+	// tailwind, the steady wind for a headwind (Components.ForDistanceMS).
+	along := k.Wind.ForDistanceMS()
+	if tail := -along; tail > a.MaxTailwindMS+1e-9 {
 		c.worsen(BeyondLimits, reason{kind: reasonTailwind, a: tail, b: a.MaxTailwindMS})
 	}
 	switch {
@@ -183,7 +186,11 @@ func Evaluate(k Case) Cell {
 		c.worsen(BeyondLimits, reason{kind: reasonTemperature, a: k.TempK, b: a.MinTempK, c: a.MaxTempK})
 	}
 
-	c.CreditedWindMS = CreditedWindMS(k.Wind.HeadwindMS, WindFactoringIncluded(k.Model))
+	if err := k.Policy.CheckSlope(k.End.SlopePct); err != nil { // no published correction
+		c.worsen(NoData, reason{s: err.Error()})
+		return c
+	}
+	c.CreditedWindMS = CreditedWindMS(along, WindFactoringIncluded(k.Model))
 	cond := Conditions{
 		PressureAltM: k.PressureAltM, TempK: k.TempK, MassKg: k.MassKg,
 		HeadwindMS: c.CreditedWindMS, SlopePct: k.End.SlopePct,
@@ -275,8 +282,8 @@ const (
 type Grid struct {
 	Spec         GridSpec
 	End          RunwayEnd
-	ElevationM   float64
-	PressureAltM float64 // at Spec.QNHPa and the aerodrome elevation
+	ElevationM   float64 // the elevation used: TakeoffElevationM
+	PressureAltM float64 // at Spec.QNHPa and ElevationM
 	Policy       Policy
 	Cells        [][][]Cell // [weight][wind][temperature]
 }
@@ -295,8 +302,8 @@ func DefaultGridSpec(a *Aircraft) GridSpec {
 }
 
 // ComputeGrid evaluates every cell of spec for runway end e of airfield f. The
-// pressure altitude comes from the assumed QNH at the aerodrome elevation (the
-// highest point of the landing area, so conservative for every runway end).
+// pressure altitude comes from the assumed QNH at the highest of the aerodrome
+// elevation and the runway's threshold elevations (TakeoffElevationM).
 func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec GridSpec) (*Grid, error) {
 	if len(spec.TempsK) == 0 || len(spec.HeadwindsMS) == 0 || len(spec.WeightsKg) == 0 {
 		return nil, errors.New("grid: every axis needs at least one value")
@@ -304,14 +311,24 @@ func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec G
 	if len(spec.TempsK) > MaxGridTemps || len(spec.HeadwindsMS) > MaxGridWinds || len(spec.WeightsKg) > MaxGridWeights {
 		return nil, fmt.Errorf("grid: at most %d temperatures, %d winds and %d weights", MaxGridTemps, MaxGridWinds, MaxGridWeights)
 	}
-	if !(spec.QNHPa > 80000 && spec.QNHPa < 110000) {
+	if !(spec.QNHPa >= MinQNHPa && spec.QNHPa <= MaxQNHPa) { // the range check accepts too
 		return nil, fmt.Errorf("grid: QNH %.1f hPa outside 800 to 1100 hPa", spec.QNHPa/100)
 	}
 	if err := spec.Rounding.Validate(); err != nil {
 		return nil, fmt.Errorf("grid: %w", err)
 	}
-	g := &Grid{Spec: spec, End: e, ElevationM: f.ElevationM, Policy: p}
-	g.PressureAltM = PressureAltitudeFromQNH(spec.QNHPa, f.ElevationM)
+	for _, w := range spec.WeightsKg {
+		if err := CheckMass(a, w); err != nil {
+			return nil, fmt.Errorf("grid: %w", err)
+		}
+	}
+	for _, t := range spec.TempsK {
+		if err := CheckTemp(t); err != nil {
+			return nil, fmt.Errorf("grid: %w", err)
+		}
+	}
+	g := &Grid{Spec: spec, End: e, ElevationM: TakeoffElevationM(f, e), Policy: p}
+	g.PressureAltM = PressureAltitudeFromQNH(spec.QNHPa, g.ElevationM)
 	g.Cells = make([][][]Cell, len(spec.WeightsKg))
 	for wi, w := range spec.WeightsKg {
 		g.Cells[wi] = make([][]Cell, len(spec.HeadwindsMS))

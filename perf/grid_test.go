@@ -89,7 +89,7 @@ func TestEvaluateWindNotAppliedTwice(t *testing.T) {
 	assert.InDelta(t, 376, c.To50ftM, 1e-9, "x0.94 once")
 	m.Table.WindInData = false
 	c = Evaluate(Case{Aircraft: a, Model: m, Policy: eu, End: end, TempK: 273.15, MassKg: 900, Wind: Components{HeadwindMS: 5 * knot}})
-	// 50 % of a reported headwind: 14 CFR 23.1587 [pub].
+	// 50 % of a reported headwind: 14 CFR 23.1587(c)(3), pre-2017 text [pub].
 	assert.InDelta(t, 2.5*knot, c.CreditedWindMS, 1e-12)
 	assert.InDelta(t, 388, c.To50ftM, 1e-9, "50 % of 5 kt -> x0.97")
 }
@@ -288,4 +288,70 @@ func TestWetNeverShorterThanDry(t *testing.T) {
 			assert.Contains(t, wet.Reasons(), "wet figure raised to the dry one: wet is never shorter than dry")
 		}
 	}
+}
+
+// Issue 9.1: 068/06G16 on a 248 deg runway is a 16 kt tailwind for the limit and the
+// distance, not 6 kt (gust for any tailwind: common practice, domain notes sec. 5d).
+func TestEvaluateGustTailwind(t *testing.T) {
+	m := smallTable()
+	a := testAircraft(m) // tailwind limit 10 kt
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	end := RunwayEnd{Designator: "25", HeadingDeg: 248, TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Paved, Condition: Dry}
+	comp := WindComponents(Wind{FromDeg: 68, SpeedMS: 6 * knot, GustMS: 16 * knot}, 248, 0)
+	c := Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 273.15, MassKg: 900, Wind: comp})
+	assert.Equal(t, BeyondLimits, c.State)
+	assert.Contains(t, c.Reasons()[0], "tailwind 16 kt above the 10 kt limit")
+	// Within the limit the distance uses the gust: 4 kt gusting 8 kt behind is +4 % per
+	// kt x 8 kt = x1.32 on the test table's 400 m (its invented note; arithmetic).
+	comp = WindComponents(Wind{FromDeg: 68, SpeedMS: 4 * knot, GustMS: 8 * knot}, 248, 0)
+	c = Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 273.15, MassKg: 900, Wind: comp})
+	assert.Equal(t, Go, c.State, c.Reasons())
+	assert.InDelta(t, -8*knot, c.CreditedWindMS, 1e-9)
+	assert.InDelta(t, 400*1.32, c.To50ftM, 1e-9)
+	// A headwind with gusts is credited at its steady speed: 6 % per 5 kt x 4 kt.
+	comp = WindComponents(Wind{FromDeg: 248, SpeedMS: 4 * knot, GustMS: 14 * knot}, 248, 0)
+	c = Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 273.15, MassKg: 900, Wind: comp})
+	assert.InDelta(t, 4*knot, c.CreditedWindMS, 1e-9)
+	assert.InDelta(t, 400*(1-0.06*4/5), c.To50ftM, 1e-9)
+}
+
+// Issue 9.6: beyond the 2 % that AMC2 CAT.POL.A.305 covers, eu-class-b gives no
+// figure (with the reason); uk-advisory gives one, with a caution.
+func TestEvaluateSlopeBeyondTwoPercent(t *testing.T) {
+	m := smallTable()
+	a := testAircraft(m)
+	eu, _ := PolicyByID(PolicyEUClassB)
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	end := RunwayEnd{Designator: "09", TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Paved, Condition: Dry, SlopePct: 2.6}
+	k := Case{Aircraft: a, Model: m, Policy: eu, End: end, TempK: 273.15, MassKg: 900}
+	c := Evaluate(k)
+	assert.Equal(t, NoData, c.State)
+	assert.False(t, c.HasDistance)
+	assert.Contains(t, c.Reasons()[0], "AMC2 CAT.POL.A.305")
+	k.Policy = uk
+	c = Evaluate(k)
+	assert.Equal(t, Go, c.State, c.Reasons())
+	assert.NotEmpty(t, c.Requirement.Caution)
+	// 2 % exactly is inside the published correction: a figure under either policy.
+	k.End.SlopePct, k.Policy = 2, eu
+	assert.True(t, Evaluate(k).HasDistance)
+}
+
+// Issue 9.7: the grid's pressure altitude is taken at the highest threshold when it is
+// above the aerodrome elevation; the elevation used is exposed.
+func TestComputeGridHighestElevation(t *testing.T) {
+	m := smallTable()
+	a := testAircraft(m)
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	lo := RunwayEnd{Designator: "04", TORAM: 1100, TODAM: 1100, ASDAM: 1100, Surface: Paved, Condition: Dry, ElevationM: 290}
+	hi := lo
+	hi.Designator, hi.ElevationM = "22", 310
+	f := Airfield{ElevationM: 300, Runways: []Runway{{Ends: []RunwayEnd{lo, hi}}}}
+	spec := DefaultGridSpec(a)
+	spec.QNHPa = ISASeaLevelPressurePa
+	g, err := ComputeGrid(a, m, uk, f, lo, spec)
+	require.NoError(t, err)
+	assert.InDelta(t, 310, g.ElevationM, 1e-9)
+	// At QNH 1013.25 hPa the pressure altitude equals the elevation (ISA, ICAO Doc 7488).
+	assert.InDelta(t, 310, g.PressureAltM, 1e-6)
 }

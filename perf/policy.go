@@ -29,10 +29,31 @@ type Check struct {
 	Multiplier float64 // the policy's factor on the takeoff distance for this check
 	RequiredM  float64
 	AvailableM float64
+	// Note says why a declared distance stands in for another (an ASDA shorter
+	// than the TORA limits the takeoff run); empty otherwise.
+	Note string
 }
 
 // Ratio is required over available: above 1 does not fit.
 func (c Check) Ratio() float64 { return c.RequiredM / c.AvailableM }
+
+// Rule is one way of meeting a policy: every check of the rule must hold. A policy
+// with several rules is met when any one of them is (CAT.POL.A.305(b): (1) or (2)).
+type Rule struct {
+	Name   string // e.g. "CAT.POL.A.305(b)(1)"
+	Checks []Check
+}
+
+// worst is the check of the rule with the largest required/available ratio.
+func (r Rule) worst() Check {
+	w := r.Checks[0]
+	for _, c := range r.Checks[1:] {
+		if c.Ratio() > w.Ratio() {
+			w = c
+		}
+	}
+	return w
+}
 
 // Policy is a named, published way of turning a model's takeoff distance into the
 // distance a runway must offer: surface and slope factors, an overall factor, and the
@@ -44,8 +65,13 @@ type Policy struct {
 	// surface and slope give the published factors for a paved, dry, level basis.
 	surface func(Surface, Condition) Factor
 	slope   func(pct float64) Factor
-	// checks turns the factored distance into required lengths per declared distance.
-	checks func(todM float64, e RunwayEnd) []Check
+	// rules turns the factored distance into the rules that can meet the policy.
+	rules func(todM float64, e RunwayEnd) []Rule
+	// slopeCoveredPct is the largest slope (either sign) the published slope
+	// correction covers; beyond it the policy gives no figure when slopeNoData, or a
+	// caution otherwise. Zero: no bound.
+	slopeCoveredPct float64
+	slopeNoData     bool
 }
 
 // Policy identifiers.
@@ -53,6 +79,28 @@ const (
 	PolicyEUClassB   = "eu-class-b"
 	PolicyUKAdvisory = "uk-advisory"
 )
+
+// FloorRule is printed wherever the floor under a model's own figure is applied: it
+// is kneeprint's own conservative choice, not a published rule.
+const FloorRule = "the published factor on the model's paved, dry, level figure is kept as a floor under the model's own figure (kneeprint's own conservative choice, not a published rule)"
+
+// publishedSlopePct is the largest slope the published slope correction covers:
+// AMC2 CAT.POL.A.305 ("correction factors for runways with slopes in excess of 2 %
+// should only be applied when the operator has demonstrated to the competent
+// authority that the necessary data ... contain the appropriate procedures").
+const publishedSlopePct = 2.0
+
+// takeoffRun is the run a policy compares its factored distance with: the TORA, or
+// the ASDA where it is shorter. A takeoff run from which the aircraft could not stop
+// on the runway is not a run available (common practice; declared distances
+// normally have ASDA >= TORA, so a shorter ASDA is a restriction the pilot must
+// honour).
+func takeoffRun(e RunwayEnd, mult, tod float64) Check {
+	if e.ASDAM > 0 && e.ASDAM < e.TORAM-0.5 {
+		return Check{"ASDA", mult, mult * tod, e.ASDAM, "ASDA shorter than TORA: taken as the takeoff run available"}
+	}
+	return Check{"TORA", mult, mult * tod, e.TORAM, ""}
+}
 
 var policies = map[string]Policy{
 	PolicyEUClassB: {
@@ -63,25 +111,29 @@ var policies = map[string]Policy{
 		surface: func(s Surface, c Condition) Factor {
 			switch {
 			case s != Paved && c == Wet:
-				return Factor{Name: "wet grass", Value: 1.3, Source: "AMC1 CAT.POL.A.305(e): wet grass on firm soil x1.3"}
+				return Factor{Name: "wet grass", Value: 1.3, Source: "AMC1 CAT.POL.A.305, Table 1: wet grass on firm soil x1.3"}
 			case s != Paved:
-				return Factor{Name: "dry grass", Value: 1.2, Source: "AMC1 CAT.POL.A.305(e): dry grass on firm soil x1.2"}
+				return Factor{Name: "dry grass", Value: 1.2, Source: "AMC1 CAT.POL.A.305, Table 1: dry grass on firm soil x1.2"}
 			case c == Wet:
-				return Factor{Name: "wet paved", Value: 1.0, Source: "AMC1 CAT.POL.A.305(e): wet paved x1.0"}
+				return Factor{Name: "wet paved", Value: 1.0, Source: "AMC1 CAT.POL.A.305, Table 1: wet paved x1.0"}
 			}
 			return Factor{Name: "dry paved", Value: 1.0, Source: "flight-manual basis"}
 		},
-		slope: slopeFivePerPercent("AMC2 CAT.POL.A.305(e)"),
-		checks: func(tod float64, e RunwayEnd) []Check {
+		slope: slopeFivePerPercent("AMC2 CAT.POL.A.305"),
+		rules: func(tod float64, e RunwayEnd) []Rule {
+			b1 := Rule{"CAT.POL.A.305(b)(1)", []Check{takeoffRun(e, 1.25, tod)}}
 			if !e.HasStopwayOrClearway() {
-				return []Check{{"TORA", 1.25, 1.25 * tod, e.TORAM}}
+				return []Rule{b1}
 			}
-			return []Check{
-				{"TORA", 1.0, tod, e.TORAM},
-				{"TODA", 1.15, 1.15 * tod, e.TODAM},
-				{"ASDA", 1.3, 1.3 * tod, e.ASDAM},
-			}
+			b2 := Rule{"CAT.POL.A.305(b)(2)", []Check{
+				takeoffRun(e, 1.0, tod),
+				{"TODA", 1.15, 1.15 * tod, e.TODAM, ""},
+				{"ASDA", 1.3, 1.3 * tod, e.ASDAM, ""},
+			}}
+			return []Rule{b1, b2}
 		},
+		slopeCoveredPct: publishedSlopePct,
+		slopeNoData:     true,
 	},
 	PolicyUKAdvisory: {
 		ID:     PolicyUKAdvisory,
@@ -99,12 +151,36 @@ var policies = map[string]Policy{
 			return Factor{Name: "dry paved", Value: 1.0, Source: "flight-manual basis"}
 		},
 		slope: slopeFivePerPercent("SSL 7c: 2 % uphill x1.1"),
-		checks: func(tod float64, e RunwayEnd) []Check {
+		rules: func(tod float64, e RunwayEnd) []Rule {
 			// The advisory factored distance is compared with the takeoff run: no
 			// clearway credit (common practice for private operations).
-			return []Check{{"TORA", 1.33, 1.33 * tod, e.TORAM}}
+			return []Rule{{"SSL 7c overall factor", []Check{takeoffRun(e, 1.33, tod)}}}
 		},
+		slopeCoveredPct: publishedSlopePct,
 	},
+}
+
+// CheckSlope returns an ErrNoData error when the policy gives no figure for a runway
+// of slope pct (percent, uphill positive): eu-class-b beyond the 2 % that AMC2
+// CAT.POL.A.305 covers. Nil otherwise.
+func (p Policy) CheckSlope(pct float64) error {
+	if !p.slopeNoData || p.slopeCoveredPct <= 0 || math.Abs(pct) <= p.slopeCoveredPct+1e-9 {
+		return nil
+	}
+	return fmt.Errorf("%w: slope %.1f %% is beyond the %g %% AMC2 CAT.POL.A.305 covers (steeper slopes need data the authority has accepted)", ErrNoData, math.Abs(pct), p.slopeCoveredPct)
+}
+
+// SlopeCaution is the caution the policy prints for a runway end of slope pct when it
+// still gives a figure beyond the slopes its published correction covers (uk-advisory
+// past 2 %); empty otherwise. The wording is kneeprint's own.
+func (p Policy) SlopeCaution(pct float64) string {
+	if p.slopeNoData || p.slopeCoveredPct <= 0 || math.Abs(pct) <= p.slopeCoveredPct+1e-9 {
+		return ""
+	}
+	if pct > 0 {
+		return fmt.Sprintf("caution: upslope %.1f %% is beyond the %g %% the published slope guidance covers; +5 %% per 1 %% is carried on, a steep slope may cost more", pct, p.slopeCoveredPct)
+	}
+	return fmt.Sprintf("caution: downslope %.1f %% is beyond the %g %% the published slope guidance covers; no credit is taken for it", -pct, p.slopeCoveredPct)
 }
 
 // slopeFivePerPercent is +5 % of distance per 1 % of upslope, linear, and no credit
@@ -143,9 +219,20 @@ func (p Policy) SurfaceFactor(s Surface, c Condition) Factor { return p.surface(
 // SlopeFactor is the policy's factor for a slope in percent (uphill positive).
 func (p Policy) SlopeFactor(pct float64) Factor { return p.slope(pct) }
 
-// OverallMultipliers returns the per-declared-distance factors the policy uses for
-// runway end e, for printing (e.g. "TORA x1.25").
-func (p Policy) OverallMultipliers(e RunwayEnd) []Check { return p.checks(1, e) }
+// OverallMultipliers returns the per-declared-distance factors of every rule the
+// policy may use for runway end e, rule after rule, for printing (e.g. "TORA x1.25").
+// Rules says how they combine.
+func (p Policy) OverallMultipliers(e RunwayEnd) []Check {
+	var out []Check
+	for _, r := range p.rules(1, e) {
+		out = append(out, r.Checks...)
+	}
+	return out
+}
+
+// Rules returns the rules the policy may use for runway end e with multipliers only
+// (a takeoff distance of 1): the policy is met when every check of any one rule is.
+func (p Policy) Rules(e RunwayEnd) []Rule { return p.rules(1, e) }
 
 // Requirement is what a policy made of one model result for one runway end.
 type Requirement struct {
@@ -153,8 +240,14 @@ type Requirement struct {
 	// (or the model's own figure for those effects, whichever is longer).
 	FactoredTODM float64
 	Factors      [2]Factor // surface, slope
-	Checks       []Check
-	Limiting     Check // the check with the largest required/available ratio
+	// Floor is true when the published factors on the paved, dry, level figure
+	// governed over the model's own figure (see FloorRule).
+	Floor    bool
+	Rule     string  // the rule used: the one that fits best
+	Rules    []Rule  // every rule the policy offered, for printing
+	Checks   []Check // the checks of the rule used
+	Limiting Check   // the check of that rule with the largest required/available ratio
+	Caution  string  // a caution the policy prints for this runway end, if any
 }
 
 // Require applies the policy to a model result on runway end e. actual is the model's
@@ -168,6 +261,10 @@ type Requirement struct {
 //	max(actual x factors for effects not covered, ref x all published factors)
 //
 // so a model's optimism about grass or a downslope never beats the published factor.
+// That floor is kneeprint's own conservative choice (FloorRule), not a published rule.
+//
+// A policy with several rules is met by any of them: the rule whose worst check has
+// the smallest required/available ratio is used (it passes whenever any rule passes).
 func (p Policy) Require(actual, ref Result, e RunwayEnd) Requirement {
 	fs, fsl := p.surface(e.Surface, e.Condition), p.slope(e.SlopePct)
 	uncovered := 1.0
@@ -179,15 +276,19 @@ func (p Policy) Require(actual, ref Result, e RunwayEnd) Requirement {
 	}
 	tod := actual.To50ftM * uncovered
 	if actual.Covers.Surface || actual.Covers.Slope {
-		tod = math.Max(tod, ref.To50ftM*fs.Value*fsl.Value)
-	}
-	req := Requirement{FactoredTODM: tod, Factors: [2]Factor{fs, fsl}}
-	req.Checks = p.checks(tod, e)
-	req.Limiting = req.Checks[0]
-	for _, c := range req.Checks[1:] {
-		if c.Ratio() > req.Limiting.Ratio() {
-			req.Limiting = c
+		if floor := ref.To50ftM * fs.Value * fsl.Value; floor > tod {
+			tod = floor
 		}
 	}
+	req := Requirement{FactoredTODM: tod, Factors: [2]Factor{fs, fsl}, Caution: p.SlopeCaution(e.SlopePct)}
+	req.Floor = tod > actual.To50ftM*uncovered
+	req.Rules = p.rules(tod, e)
+	best := 0
+	for i, r := range req.Rules {
+		if r.worst().Ratio() < req.Rules[best].worst().Ratio() {
+			best = i
+		}
+	}
+	req.Rule, req.Checks, req.Limiting = req.Rules[best].Name, req.Rules[best].Checks, req.Rules[best].worst()
 	return req
 }

@@ -21,7 +21,9 @@ func TestEUClassBWorkedExample(t *testing.T) {
 }
 
 func TestEUClassBWithStopwayAndClearway(t *testing.T) {
-	// With them: TOD <= TORA, TOD x 1.15 <= TODA, TOD x 1.3 <= ASDA (CAT.POL.A.305(b)).
+	// With them: TOD <= TORA, TOD x 1.15 <= TODA, TOD x 1.3 <= ASDA (CAT.POL.A.305(b)(2)),
+	// or TOD x 1.25 <= TORA (b)(1): 500 x 1.25 = 625 > 600, so (b)(2) is the one that
+	// passes (Regulation (EU) No 965/2012 Annex IV CAT.POL.A.305(b) [pub]).
 	p, _ := PolicyByID(PolicyEUClassB)
 	e := RunwayEnd{TORAM: 600, TODAM: 650, ASDAM: 700, Surface: Paved, Condition: Dry}
 	req := p.Require(Result{To50ftM: 500}, Result{}, e)
@@ -31,6 +33,85 @@ func TestEUClassBWithStopwayAndClearway(t *testing.T) {
 		assert.InDelta(t, want[c.Declared], c.RequiredM, 1e-9, c.Declared)
 	}
 	assert.Equal(t, "ASDA", req.Limiting.Declared, "650/700 is the largest ratio")
+	assert.Equal(t, "CAT.POL.A.305(b)(2)", req.Rule)
+	require.Len(t, req.Rules, 2, "both rules are kept for printing")
+}
+
+// Issue 9.5: CAT.POL.A.305(b) is met by (1) OR (2): a clearway never makes a runway
+// worse. TOD 500 m, TORA 640 m: (b)(1) needs 625 m <= 640 m and passes; a clearway
+// (TODA 700 m) with no stopway makes (b)(2) ask 650 m of an ASDA of 640 m, which fails.
+func TestEUClassBEitherRule(t *testing.T) {
+	p, _ := PolicyByID(PolicyEUClassB)
+	plain := RunwayEnd{TORAM: 640, TODAM: 640, ASDAM: 640, Surface: Paved, Condition: Dry}
+	withClearway := plain
+	withClearway.TODAM = 700
+	r1 := p.Require(Result{To50ftM: 500}, Result{}, plain)
+	r2 := p.Require(Result{To50ftM: 500}, Result{}, withClearway)
+	assert.Equal(t, "CAT.POL.A.305(b)(1)", r1.Rule)
+	assert.Equal(t, "CAT.POL.A.305(b)(1)", r2.Rule, "(b)(1) still passes with a clearway")
+	assert.InDelta(t, 625, r2.Limiting.RequiredM, 1e-9)
+	assert.LessOrEqual(t, r2.Limiting.Ratio(), 1.0)
+	// Property: adding clearway or stopway never raises the limiting ratio.
+	for _, todm := range []float64{640, 660, 700, 900} {
+		for _, asdm := range []float64{640, 660, 700, 900} {
+			e := plain
+			e.TODAM, e.ASDAM = todm, asdm
+			for _, tod := range []float64{300, 480, 500, 520, 600} {
+				got := p.Require(Result{To50ftM: tod}, Result{}, e).Limiting.Ratio()
+				base := p.Require(Result{To50ftM: tod}, Result{}, plain).Limiting.Ratio()
+				assert.LessOrEqual(t, got, base+1e-12, "TODA %v ASDA %v TOD %v", todm, asdm, tod)
+			}
+		}
+	}
+}
+
+// Issue 14.3: an ASDA shorter than the TORA limits the takeoff run (a run from which
+// the aircraft could not stop is not available: common practice). TORA 800 m,
+// ASDA 300 m, TOD 400 m: 400 x 1.33 = 532 m > 300 m under the advisory factors.
+func TestShortASDALimitsTheRun(t *testing.T) {
+	for _, id := range []string{PolicyUKAdvisory, PolicyEUClassB} {
+		p, _ := PolicyByID(id)
+		e := RunwayEnd{TORAM: 800, TODAM: 800, ASDAM: 300, Surface: Paved, Condition: Dry}
+		req := p.Require(Result{To50ftM: 400}, Result{}, e)
+		assert.Equal(t, "ASDA", req.Limiting.Declared, id)
+		assert.InDelta(t, 300, req.Limiting.AvailableM, 1e-9, id)
+		assert.Greater(t, req.Limiting.Ratio(), 1.0, "%s: must not fit", id)
+		assert.NotEmpty(t, req.Limiting.Note, id)
+	}
+}
+
+// Issue 9.6: AMC2 CAT.POL.A.305 gives +5 % per 1 % upslope and covers slopes up to
+// 2 %: beyond, eu-class-b has no data; uk-advisory keeps the rate with a caution.
+func TestSlopeBeyondPublishedCorrection(t *testing.T) {
+	eu, _ := PolicyByID(PolicyEUClassB)
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	for _, pct := range []float64{-2, 0, 1, 2} {
+		assert.NoError(t, eu.CheckSlope(pct), pct)
+		assert.Empty(t, uk.SlopeCaution(pct), pct)
+	}
+	for _, pct := range []float64{2.1, 3, -2.5} {
+		err := eu.CheckSlope(pct)
+		require.Error(t, err, pct)
+		assert.ErrorIs(t, err, ErrNoData)
+		assert.Contains(t, err.Error(), "AMC2 CAT.POL.A.305")
+		assert.NoError(t, uk.CheckSlope(pct), pct)
+		assert.NotEmpty(t, uk.SlopeCaution(pct), pct)
+	}
+	// The UK caution reaches the requirement so that check can print it.
+	req := uk.Require(Result{To50ftM: 400}, Result{}, RunwayEnd{TORAM: 900, TODAM: 900, ASDAM: 900, Surface: Paved, Condition: Dry, SlopePct: 3})
+	assert.Contains(t, req.Caution, "2 %")
+	assert.InDelta(t, 400*1.15*1.33, req.Limiting.RequiredM, 1e-9, "5 %% per 1 %% kept: 3 %% -> x1.15")
+}
+
+// Sources are cited as they stand: AMC1/AMC2 CAT.POL.A.305 have no paragraph letters
+// (sources pinned from Regulation (EU) No 965/2012 Annex IV, AMC to CAT.POL.A.305).
+func TestSourcesCitedAsTheyAre(t *testing.T) {
+	for _, id := range PolicyIDs() {
+		p, _ := PolicyByID(id)
+		for _, f := range []Factor{p.SurfaceFactor(Grass, Dry), p.SurfaceFactor(Grass, Wet), p.SurfaceFactor(Paved, Wet), p.SlopeFactor(1)} {
+			assert.NotContains(t, f.Source, "305(e)", id)
+		}
+	}
 }
 
 func TestPublishedFactors(t *testing.T) {

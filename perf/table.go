@@ -17,7 +17,7 @@ type Table struct {
 	To50ftM     [][][]float64
 
 	// WindInData is true when the manual's wind corrections already credit only part
-	// of a headwind and more than all of a tailwind (14 CFR 23.1587 data usually do):
+	// of a headwind and more than all of a tailwind (data under 14 CFR 23.1587(c)(3), pre-2017, usually do):
 	// kneeprint then passes the reported wind and does not factor it again.
 	WindInData  bool
 	Corrections Corrections
@@ -75,7 +75,10 @@ func (m *TableModel) Takeoff(c Conditions) (Result, error) {
 		return r, err
 	}
 	if note != "" {
-		r.Notes = append(r.Notes, note)
+		// Say what was done, not that it is conservative: a weight below the table
+		// is as likely a typing slip (100 kg for 1000 kg) as a light aircraft, and
+		// the profile's lowest flyable mass is checked before a model is asked.
+		r.Notes = append(r.Notes, fmt.Sprintf("weight %.0f kg is below the table's lightest block: the %.0f kg figures are used", c.MassKg, t.WeightKg[0]))
 	}
 	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "pressure altitude", func(x float64) string { return fmt.Sprintf("%.0f ft", x/0.3048) })
 	if err != nil {

@@ -69,6 +69,9 @@ func TestTableNeverExtrapolates(t *testing.T) {
 	require.NoError(t, err)
 	assert.Equal(t, 200.0, r.GroundRollM)
 	assert.Len(t, r.Notes, 3)
+	// Issue 14.2: below the lightest block the note says what was done and does not
+	// call it conservative for the pilot's real weight.
+	assert.Equal(t, "weight 800 kg is below the table's lightest block: the 900 kg figures are used", r.Notes[0])
 }
 
 func TestTableCorrections(t *testing.T) {

@@ -2,9 +2,11 @@ package main
 
 import (
 	"errors"
+	"fmt"
 
 	"github.com/spf13/cobra"
 
+	"kneeprint/cmd/internal/metar"
 	"kneeprint/cmd/internal/report"
 	"kneeprint/cmd/internal/units"
 	"kneeprint/perf"
@@ -15,6 +17,7 @@ type checkOptions struct {
 	temp, qnh, weight  string
 	wind               string
 	windTrue           bool
+	metar              string
 	surface            string
 	policy             string
 	margin             string
@@ -24,17 +27,30 @@ type checkOptions struct {
 func newCheckCmd(e env) *cobra.Command {
 	opts := &checkOptions{}
 	cmd := &cobra.Command{
-		Use:   "check --aircraft FILE --airfield FILE --temp T [flags]",
+		Use:   "check --aircraft FILE --airfield FILE (--temp T --qnh P | --metar REPORT) [flags]",
 		Short: "Answer for one set of conditions on every runway end, ranked",
 		Long: `check computes the takeoff for one set of conditions on every runway end of the
 airfield and ranks the ends, best first. Quantities take units exactly as files do.
-The wind is direction/speed in knots as a tower gives it (magnetic); --wind-true for
-a forecast's true direction. The headwind printed is the reported component; the
-credited wind (50 % of a headwind, 150 % of a tailwind, unless the profile's data
-already include that) is what the model used. Exit 0 when computed, whatever the verdict.
+
+Today's conditions: --temp and --qnh, or --metar with a whole routine weather report
+(METAR/SPECI), from which the wind group (with a dddVddd direction range), the
+temperature group (M05 is minus 5) and the QNH group (Q1003 or A2962) are taken. A
+flag given alongside a report replaces the report's value and is named in the output.
+The QNH is never assumed: give --qnh or a report with a QNH group.
+
+Winds: the tower form 240/15, 240/15G25, VRB/05 or calm, with a three-digit direction
+in knots, is MAGNETIC (as a tower or broadcast gives it); --wind-true says it is true.
+A report group (24015G25KT, VRB05KT, 00000KT, 27008MPS), alone or from --metar, is
+TRUE, as reports are; true directions are made magnetic with the airfield's variation.
+The output says which reference was used. A tailwind counts at its gust, a headwind
+at its steady speed; a variable wind is a full tailwind and crosswind on every end.
+The headwind printed is the reported component; the credited wind (50 % of a
+headwind, 150 % of a tailwind, unless the profile's data already include that) is
+what the model used. Exit 0 when computed, whatever the verdict.
 
 ` + caution,
 		Example: `  kneeprint check --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --temp 30C --qnh 1003hPa --wind 240/15G25
+  kneeprint check --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --metar "METAR ZZZZ 121250Z 25012G22KT 9999 FEW040 24/11 Q1009"
   kneeprint check --aircraft my-plane.yaml --airfield home.yaml --temp 86F --qnh 29.62inHg --weight 2300lb --surface wet --json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error { return checkRun(e, opts) },
@@ -42,11 +58,12 @@ already include that) is what the model used. Exit 0 when computed, whatever the
 	f := cmd.Flags()
 	f.StringVar(&opts.aircraft, "aircraft", "", "aircraft profile file, or demo:NAME")
 	f.StringVar(&opts.airfield, "airfield", "", "airfield file, or demo:NAME")
-	f.StringVar(&opts.temp, "temp", "", "outside air temperature, e.g. 30C or 86F (required)")
-	f.StringVar(&opts.qnh, "qnh", "1013.25hPa", "QNH, e.g. 1003hPa or 29.62inHg")
+	f.StringVar(&opts.temp, "temp", "", "outside air temperature, e.g. 30C or 86F (required unless --metar has one)")
+	f.StringVar(&opts.qnh, "qnh", "", "QNH, e.g. 1003hPa or 29.62inHg (required unless --metar has one: never assumed)")
+	f.StringVar(&opts.metar, "metar", "", "a routine weather report: wind, temperature and QNH are taken from it")
 	f.StringVar(&opts.weight, "weight", "", "takeoff weight, e.g. 1050kg or 2300lb (default: the profile's MTOW)")
-	f.StringVar(&opts.wind, "wind", "calm", "wind direction/speed in knots: 240/15, 240/15G25, VRB/05, calm")
-	f.BoolVar(&opts.windTrue, "wind-true", false, "the wind direction is true (forecast), not magnetic (tower)")
+	f.StringVar(&opts.wind, "wind", "", "wind: 240/15, 240/15G25, VRB/05, calm (magnetic) or 24015G25KT (true); default: the report's, else calm")
+	f.BoolVar(&opts.windTrue, "wind-true", false, "a tower-form --wind direction is true, not magnetic")
 	f.StringVar(&opts.surface, "surface", "", "runway condition dry|wet (default: as the airfield file declares)")
 	f.StringVar(&opts.policy, "policy", defaultPolicy, "safety policy: "+policyList())
 	f.StringVar(&opts.margin, "margin", "10%", "spare margin below which a fitting runway is marked tight")
@@ -66,44 +83,125 @@ func policyList() string {
 }
 
 func checkRun(e env, opts *checkOptions) error {
-	if opts.temp == "" {
-		return errors.New("--temp is required, e.g. --temp 30C")
+	var rep *metar.Report
+	if opts.metar != "" {
+		r, err := metar.Parse(opts.metar)
+		if err != nil {
+			return fmt.Errorf("--metar: %w", err)
+		}
+		rep = &r
+	}
+	if opts.temp == "" && (rep == nil || !rep.HasTemp) {
+		if rep != nil {
+			return fmt.Errorf("--metar: the report has no usable temperature group (e.g. 18/10, M05/M08): give --temp")
+		}
+		return errors.New("--temp is required, e.g. --temp 30C (or --metar with a whole report)")
+	}
+	if opts.qnh == "" && (rep == nil || !rep.HasQNH) {
+		if rep != nil {
+			return fmt.Errorf("--metar: the report has no usable QNH group (e.g. Q1003 or A2962): give --qnh")
+		}
+		return errors.New("--qnh is required, e.g. --qnh 1003hPa or --qnh 29.62inHg (or --metar with a whole report): kneeprint never assumes a pressure")
 	}
 	j, err := loadJob(opts.aircraft, opts.airfield, opts.policy)
 	if err != nil {
 		return err
 	}
+	in := report.CheckInput{Aircraft: j.aircraft, Airfield: j.airfield, Policy: j.policy}
 	q := perf.Question{MassKg: j.aircraft.MTOWKg}
-	if q.TempK, err = quantity("temp", opts.temp, units.Temperature); err != nil {
-		return err
+
+	// Temperature and QNH: the flag wins over the report and is named.
+	if rep != nil {
+		in.METAR = rep.Text
 	}
-	if q.QNHPa, err = quantity("qnh", opts.qnh, units.Pressure); err != nil {
-		return err
+	if opts.temp != "" {
+		if q.TempK, err = quantity("temp", opts.temp, units.Temperature); err != nil {
+			return err
+		}
+		if rep != nil && rep.HasTemp {
+			in.FlagsOverReport = append(in.FlagsOverReport, fmt.Sprintf("--temp %s (the report's temperature %s not used)", opts.temp, rep.TempGroup))
+		}
+	} else {
+		q.TempK = rep.TempK
+		in.FromReport = append(in.FromReport, fmt.Sprintf("temperature %.0f C (%s)", units.Celsius(rep.TempK), rep.TempGroup))
 	}
-	if q.QNHPa < 80000 || q.QNHPa > 110000 {
+	if err := perf.CheckTemp(q.TempK); err != nil {
+		return fmt.Errorf("--temp: %w", err)
+	}
+	if opts.qnh != "" {
+		if q.QNHPa, err = quantity("qnh", opts.qnh, units.Pressure); err != nil {
+			return err
+		}
+		if rep != nil && rep.HasQNH {
+			in.FlagsOverReport = append(in.FlagsOverReport, fmt.Sprintf("--qnh %s (the report's %s not used)", opts.qnh, rep.QNHGroup))
+		}
+	} else {
+		q.QNHPa = rep.QNHPa
+		in.FromReport = append(in.FromReport, fmt.Sprintf("QNH %.1f hPa (%s)", units.HPa(rep.QNHPa), rep.QNHGroup))
+	}
+	if q.QNHPa < perf.MinQNHPa || q.QNHPa > perf.MaxQNHPa {
 		return errors.New("--qnh: outside 800 to 1100 hPa")
 	}
 	if opts.weight != "" {
 		if q.MassKg, err = quantity("weight", opts.weight, units.Mass); err != nil {
 			return err
 		}
+		if err := perf.CheckMass(j.aircraft, q.MassKg); err != nil {
+			return fmt.Errorf("--weight: %w", err)
+		}
 	}
-	w, err := units.ParseWind(opts.wind)
-	if err != nil {
-		return err
+
+	// Wind: the flag, else the report's, else calm; its reference is said.
+	var w units.WindReport
+	switch {
+	case opts.wind != "":
+		if w, err = units.ParseWind(opts.wind); err != nil {
+			return fmt.Errorf("--wind: %w", err)
+		}
+		in.WindText = opts.wind
+		switch {
+		case w.True:
+			in.WindSource = "report group"
+		case opts.windTrue:
+			w.True, in.WindSource = true, "tower form with --wind-true"
+		default:
+			in.WindSource = "tower form; --wind-true if it is true"
+		}
+		if rep != nil && rep.Wind != nil {
+			in.FlagsOverReport = append(in.FlagsOverReport, fmt.Sprintf("--wind %s (the report's %s not used)", opts.wind, rep.WindGroup))
+		}
+	case rep != nil:
+		if rep.Wind == nil {
+			return fmt.Errorf("--metar: the report has no usable wind group (%s): give --wind", orMissing(rep.WindGroup))
+		}
+		w, in.WindText, in.WindSource = *rep.Wind, rep.WindGroup, "from the report"
+		in.FromReport = append([]string{fmt.Sprintf("wind %s (true)", rep.WindGroup)}, in.FromReport...)
+	default:
+		in.WindText, in.WindSource = "calm", "no --wind given: calm"
 	}
-	q.Wind = perf.Wind{FromDeg: w.FromDeg, SpeedMS: w.SpeedMS, GustMS: w.GustMS, True: opts.windTrue}
-	q.Variable = w.Variable
+	q.Wind = perf.Wind{FromDeg: w.FromDeg, SpeedMS: w.SpeedMS, GustMS: w.GustMS, True: w.True, Variable: w.Variable,
+		Varies: w.Varies, VaryFromDeg: w.VaryFromDeg, VaryToDeg: w.VaryToDeg}
 	if q.Condition, err = conditionFlag(opts.surface); err != nil {
 		return err
 	}
 	if q.TightMargin, err = marginFlag(opts.margin); err != nil {
 		return err
 	}
-	ans := perf.Ask(j.aircraft, j.model, j.policy, *j.airfield, q)
-	run := report.BuildCheck(report.CheckInput{Aircraft: j.aircraft, Airfield: j.airfield, Policy: j.policy, Question: q, WindText: opts.wind}, ans)
+	ans, err := perf.Ask(j.aircraft, j.model, j.policy, *j.airfield, q)
+	if err != nil {
+		return err
+	}
+	in.Question = q
+	run := report.BuildCheck(in, ans)
 	if opts.json {
 		return report.WriteCheckJSON(e.stdout, run)
 	}
 	return report.WriteCheckText(e.stdout, run)
+}
+
+func orMissing(g string) string {
+	if g == "" {
+		return "none found"
+	}
+	return g + " reported missing"
 }

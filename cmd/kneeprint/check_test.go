@@ -55,7 +55,7 @@ func TestCheckBadFlags(t *testing.T) {
 		assert.Equal(t, exitUsage, code, strings.Join(args, " "))
 		assert.NotEmpty(t, errOut)
 	}
-	code, _, errOut := runCLI(t, "check", "--aircraft", "demo:wrenmoor", "--airfield", "demo:wrenmoor", "--temp", "30C")
+	code, _, errOut := runCLI(t, "check", "--aircraft", "demo:wrenmoor", "--airfield", "demo:wrenmoor", "--temp", "30C", "--qnh", "1013hPa")
 	assert.Equal(t, exitFailure, code)
 	assert.Contains(t, errOut, "an aircraft file is needed here")
 }

@@ -3,10 +3,12 @@ package main
 import (
 	"errors"
 	"fmt"
+	"strings"
 
 	"github.com/spf13/cobra"
 
 	"kneeprint/cmd/internal/report"
+	kspec "kneeprint/cmd/internal/spec"
 	"kneeprint/cmd/internal/units"
 	"kneeprint/perf"
 )
@@ -71,12 +73,29 @@ func gridRun(e env, opts *gridOptions) error {
 	if spec.TempsK, err = quantityList("temps", opts.temps, units.Temperature); err != nil {
 		return err
 	}
+	for _, t := range spec.TempsK {
+		if err := perf.CheckTemp(t); err != nil {
+			return fmt.Errorf("--temps: %w", err)
+		}
+	}
 	if spec.HeadwindsMS, err = quantityList("winds", opts.winds, units.Speed); err != nil {
 		return err
 	}
 	if opts.weights != "" {
 		if spec.WeightsKg, err = quantityList("weights", opts.weights, units.Mass); err != nil {
 			return err
+		}
+		for _, w := range spec.WeightsKg {
+			if err := perf.CheckMass(j.aircraft, w); err != nil {
+				return fmt.Errorf("--weights: %w", err)
+			}
+		}
+	}
+	runway := ""
+	if opts.runway != "" {
+		// Read as the files are: "7" is runway 07.
+		if runway, err = kspec.NormalizeDesignator(opts.runway); err != nil {
+			return fmt.Errorf("--runway: %w", err)
 		}
 	}
 	if spec.TightMargin, err = marginFlag(opts.margin); err != nil {
@@ -88,7 +107,7 @@ func gridRun(e env, opts *gridOptions) error {
 	}
 	in := report.GridInput{Aircraft: j.aircraft, Airfield: j.airfield, Policy: j.policy}
 	for _, end := range j.airfield.Ends() {
-		if opts.runway != "" && end.Designator != opts.runway {
+		if runway != "" && end.Designator != runway {
 			continue
 		}
 		if cond != "" {
@@ -101,7 +120,11 @@ func gridRun(e env, opts *gridOptions) error {
 		in.Grids = append(in.Grids, g)
 	}
 	if len(in.Grids) == 0 {
-		return fmt.Errorf("--runway %s: no such runway end at %s", opts.runway, j.airfield.Ident)
+		var have []string
+		for _, e := range j.airfield.Ends() {
+			have = append(have, e.Designator)
+		}
+		return fmt.Errorf("--runway %s: no runway end %s at %s (it has %s)", opts.runway, runway, j.airfield.Ident, strings.Join(have, ", "))
 	}
 	switch {
 	case opts.json:

@@ -33,6 +33,8 @@ func TestValidateDemo(t *testing.T) {
 	}
 }
 
+// Issue 9.9: unedited starters are refused by validate and cards, each placeholder
+// named by file:line:column and key; the plan starter (no placeholders) validates.
 func TestInitStartersValidate(t *testing.T) {
 	dir := t.TempDir()
 	for _, kind := range []string{"aircraft", "airfield", "plan"} {
@@ -40,12 +42,34 @@ func TestInitStartersValidate(t *testing.T) {
 		code, _, errOut := runCLI(t, "init", kind, p)
 		require.Equal(t, exitOK, code, errOut)
 		code, out, _ := runCLI(t, "validate", p)
-		assert.Equal(t, exitOK, code, out)
+		if kind == "plan" {
+			assert.Equal(t, exitOK, code, out)
+		} else {
+			assert.Equal(t, exitFailure, code, out)
+			assert.Contains(t, out, p+":")
+			assert.Contains(t, out, "is a starter placeholder")
+		}
 		// A second init must not overwrite the pilot's work.
 		code, _, errOut = runCLI(t, "init", kind, p)
 		assert.Equal(t, exitFailure, code)
 		assert.Contains(t, errOut, "already exists")
 	}
+	ac := filepath.Join(dir, "aircraft.yaml")
+	code, out, _ := runCLI(t, "validate", ac)
+	require.Equal(t, exitFailure, code)
+	assert.Contains(t, out, ac+":10:7: mtow: \"EXAMPLE 1000 kg\" is a starter placeholder")
+	assert.Contains(t, out, "table.wind_factoring_included: required, no default")
+
+	// cards refuses it too, and writes nothing.
+	outDir := filepath.Join(dir, "cards")
+	code, cout, errOut := runCLI(t, "cards", "--aircraft", ac, "--airfield", "demo:wrenmoor", "-o", outDir)
+	assert.Equal(t, exitFailure, code)
+	assert.Contains(t, cout+errOut, "mtow: \"EXAMPLE 1000 kg\" is a starter placeholder")
+	pdfs, _ := filepath.Glob(filepath.Join(outDir, "*.pdf"))
+	assert.Empty(t, pdfs)
+	code, cout, errOut = runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", filepath.Join(dir, "airfield.yaml"), "-o", outDir)
+	assert.Equal(t, exitFailure, code)
+	assert.Contains(t, cout+errOut, "runways[0].ends[0].tora: \"EXAMPLE 800 m\" is a starter placeholder")
 }
 
 func TestInitDemoRoundTrip(t *testing.T) {

@@ -399,7 +399,8 @@ func crosswindHelper(a *perf.Aircraft, t spec.CardTemplate) layout.CrosswindHelp
 }
 
 // policyItems are the policy's factors and checks for runway end e, each exactly as
-// applied (1.015 prints +1.5 %), each printed whole on one line.
+// applied (1.015 prints +1.5 %), each printed whole on one line. A policy met by any
+// one of several rules (CAT.POL.A.305(b)(1) or (b)(2)) prints them joined by "or".
 func policyItems(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) []string {
 	var items []string
 	sf, slf := p.SurfaceFactor(e.Surface, e.Condition), p.SlopeFactor(e.SlopePct)
@@ -415,17 +416,27 @@ func policyItems(p perf.Policy, e perf.RunwayEnd, covers perf.Effects) []string 
 		items = append(items, layout.Keep(layout.SlopeWords(e.SlopePct))+" "+layout.Keep(pctFactor(slf.Value)))
 	}
 	floor := (covers.Surface && sf.Value != 1) || (covers.Slope && slf.Value != 1)
-	for _, c := range p.OverallMultipliers(e) {
-		if c.Multiplier == 1 {
-			items = append(items, "TOD ≤ "+c.Declared)
-		} else {
-			items = append(items, "TOD ×"+trimNum(c.Multiplier, 4)+" ≤ "+c.Declared)
+	rules := p.Rules(e)
+	for ri, r := range rules {
+		for ci, c := range r.Checks {
+			s := "TOD ≤ " + c.Declared
+			if c.Multiplier != 1 {
+				s = "TOD ×" + trimNum(c.Multiplier, 4) + " ≤ " + c.Declared
+			}
+			if ri > 0 && ci == 0 {
+				s = "or " + s
+			}
+			items = append(items, s)
 		}
 	}
 	if floor {
 		// The model includes surface or slope itself: its own figure counts where it
-		// is longer than the published factor gives (Policy.Require).
-		items = append(items, "the model's own figure where longer")
+		// is longer than the published factor gives (Policy.Require). The published
+		// factor as a floor is kneeprint's own conservative rule (perf.FloorRule).
+		items = append(items, "the model's own figure where longer (the factor as a floor: kneeprint's own rule)")
+	}
+	if c := p.SlopeCaution(e.SlopePct); c != "" {
+		items = append(items, c)
 	}
 	return items
 }

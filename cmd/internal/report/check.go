@@ -21,7 +21,16 @@ type CheckInput struct {
 	Airfield *perf.Airfield
 	Policy   perf.Policy
 	Question perf.Question
-	WindText string // as the user wrote it
+	WindText string // as the user wrote it, or the report's wind group
+	// WindSource says where the wind's reference came from, e.g. "tower form" or
+	// "report group"; the reference itself is Question.Wind.True.
+	WindSource string
+	// METAR is the routine weather report given with --metar, if any; FromReport
+	// lists what was taken from it and FlagsOverReport the flags that replaced one of
+	// its values, each as a short sentence.
+	METAR           string
+	FromReport      []string
+	FlagsOverReport []string
 }
 
 // CheckRun is the JSON form of one check.
@@ -40,28 +49,43 @@ type CheckRun struct {
 	WeightKg           float64    `json:"weight_kg"`
 	Wind               string     `json:"wind"`
 	WindTrue           bool       `json:"wind_true"`
+	WindReference      string     `json:"wind_reference"` // "magnetic" or "true"
+	WindSource         string     `json:"wind_source"`
+	METAR              string     `json:"metar,omitempty"`
+	FromReport         []string   `json:"from_report,omitempty"`
+	FlagsOverReport    []string   `json:"flags_over_report,omitempty"`
 	Ends               []CheckEnd `json:"runway_ends"`
 	Caution            string     `json:"caution"`
 }
 
 // CheckEnd is the JSON form of one runway end's answer.
 type CheckEnd struct {
-	Rank            int     `json:"rank"`
-	Designator      string  `json:"designator"`
-	HeadingDeg      float64 `json:"heading_deg"`
-	Surface         string  `json:"surface"`
-	Condition       string  `json:"condition"`
-	SlopePct        float64 `json:"slope_pct"`
-	HeadwindKt      float64 `json:"headwind_kt"`
-	CrosswindKt     float64 `json:"crosswind_kt"`
-	GustCrosswindKt float64 `json:"gust_crosswind_kt"`
-	CreditedWindKt  float64 `json:"credited_headwind_kt"`
+	Rank       int     `json:"rank"`
+	Designator string  `json:"designator"`
+	HeadingDeg float64 `json:"heading_deg"`
+	Surface    string  `json:"surface"`
+	Condition  string  `json:"condition"`
+	SlopePct   float64 `json:"slope_pct"`
+	// The atmosphere of this end: elevation used (the highest of the aerodrome
+	// elevation and the runway's thresholds) and the altitudes it gives.
+	ElevationUsedFt    float64 `json:"elevation_used_ft"`
+	PressureAltitudeFt float64 `json:"pressure_altitude_ft"`
+	DensityAltitudeFt  float64 `json:"density_altitude_ft"`
+	HeadwindKt         float64 `json:"headwind_kt"`
+	GustHeadwindKt     float64 `json:"gust_headwind_kt"`
+	DistanceWindKt     float64 `json:"headwind_for_distance_kt"`
+	CrosswindKt        float64 `json:"crosswind_kt"`
+	GustCrosswindKt    float64 `json:"gust_crosswind_kt"`
+	CreditedWindKt     float64 `json:"credited_headwind_kt"`
 	Distances
 	AccelerateCheckM *float64 `json:"accelerate_check_m"`
 	TORAM            float64  `json:"tora_m"`
 	TODAM            float64  `json:"toda_m"`
 	ASDAM            float64  `json:"asda_m"`
+	Rule             string   `json:"rule"`
 	Factors          []string `json:"factors"`
+	PolicyNotes      []string `json:"policy_notes"`
+	PolicyCaution    string   `json:"policy_caution"`
 	Status           string   `json:"status"`
 	Reasons          []string `json:"reasons"`
 }
@@ -103,6 +127,9 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 		ISADeviationC:      round1(ans.ISADevK),
 		WeightKg:           math.Round(in.Question.MassKg),
 		Wind:               in.WindText, WindTrue: in.Question.Wind.True,
+		WindReference: map[bool]string{true: "true", false: "magnetic"}[in.Question.Wind.True],
+		WindSource:    in.WindSource,
+		METAR:         in.METAR, FromReport: in.FromReport, FlagsOverReport: in.FlagsOverReport,
 		Caution: Caution,
 	}
 	for i, ea := range ans.Ends {
@@ -110,10 +137,15 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 		e := CheckEnd{
 			Rank: i + 1, Designator: ea.End.Designator, HeadingDeg: ea.End.HeadingDeg,
 			Surface: string(ea.End.Surface), Condition: string(ea.End.Condition), SlopePct: math.Round(ea.End.SlopePct*100) / 100,
-			HeadwindKt: round1(units.Knots(ea.Wind.HeadwindMS)), CrosswindKt: round1(units.Knots(ea.Wind.CrosswindMS)),
-			GustCrosswindKt: round1(units.Knots(ea.Wind.GustCrosswindMS)), CreditedWindKt: round1(units.Knots(c.CreditedWindMS)),
-			TORAM: ea.End.TORAM, TODAM: ea.End.TODAM, ASDAM: ea.End.ASDAM,
-			Status: c.State.String(), Reasons: c.Reasons(), Factors: []string{},
+			ElevationUsedFt:    math.Round(units.Feet(ea.ElevationM)),
+			PressureAltitudeFt: math.Round(units.Feet(ea.PressureAltM)),
+			DensityAltitudeFt:  math.Round(units.Feet(ea.DensityAltM)),
+			HeadwindKt:         round1(units.Knots(ea.Wind.HeadwindMS)), GustHeadwindKt: round1(units.Knots(ea.Wind.GustHeadwindMS)),
+			DistanceWindKt: round1(units.Knots(ea.Wind.ForDistanceMS())),
+			CrosswindKt:    round1(units.Knots(ea.Wind.CrosswindMS)), GustCrosswindKt: round1(units.Knots(ea.Wind.GustCrosswindMS)),
+			CreditedWindKt: round1(units.Knots(c.CreditedWindMS)),
+			TORAM:          ea.End.TORAM, TODAM: ea.End.TODAM, ASDAM: ea.End.ASDAM,
+			Status: c.State.String(), Reasons: c.Reasons(), Factors: []string{}, PolicyNotes: []string{},
 		}
 		if e.Reasons == nil {
 			e.Reasons = []string{}
@@ -121,11 +153,21 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 		e.Distances = distances(c)
 		if c.HasDistance {
 			e.AccelerateCheckM = ptr(ceilM(c.AccelCheckM))
+			e.Rule = c.Requirement.Rule
+			e.PolicyCaution = c.Requirement.Caution
 			for _, f := range c.Requirement.Factors {
 				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f (%s)", f.Label(), f.Value, f.Source))
 			}
+			if c.Covers.Surface || c.Covers.Slope {
+				e.Factors = append(e.Factors, "floor: "+perf.FloorRule)
+			}
 			for _, ch := range c.Requirement.Checks {
-				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f", ch.Declared, ch.Multiplier))
+				f := fmt.Sprintf("%s x%.2f", ch.Declared, ch.Multiplier)
+				if ch.Note != "" {
+					f += " (" + ch.Note + ")"
+					e.PolicyNotes = append(e.PolicyNotes, ch.Note)
+				}
+				e.Factors = append(e.Factors, f)
 			}
 		}
 		r.Ends = append(r.Ends, e)
@@ -140,9 +182,20 @@ func WriteCheckJSON(w io.Writer, run CheckRun) error { return WriteJSON(w, run) 
 func WriteCheckText(w io.Writer, run CheckRun) error {
 	b := &strings.Builder{}
 	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s model)\n", run.Aircraft, run.Airfield, run.Ident, run.Policy, run.Model)
-	fmt.Fprintf(b, "elevation %.0f ft, QNH %.1f hPa -> pressure altitude %.0f ft; %.0f C (ISA%+.0f) -> density altitude %.0f ft; weight %.0f kg; wind %s%s\n\n",
-		run.ElevationFt, run.QNHhPa, run.PressureAltitudeFt, run.TemperatureC, run.ISADeviationC, run.DensityAltitudeFt, run.WeightKg, run.Wind, map[bool]string{true: " (true)", false: ""}[run.WindTrue])
-	fmt.Fprintf(b, "%-4s %-4s %-13s %7s %7s %8s %8s %9s %9s %-5s  %s\n", "rank", "rwy", "surface", "head", "cross", "roll m", "50ft m", "required", "available", "limit", "status")
+	fmt.Fprintf(b, "elevation %.0f ft, QNH %.1f hPa -> pressure altitude %.0f ft; %.0f C (ISA%+.0f) -> density altitude %.0f ft; weight %.0f kg\n",
+		run.ElevationFt, run.QNHhPa, run.PressureAltitudeFt, run.TemperatureC, run.ISADeviationC, run.DensityAltitudeFt, run.WeightKg)
+	fmt.Fprintf(b, "wind %s, %s (%s)\n", run.Wind, run.WindReference, run.WindSource)
+	if run.METAR != "" {
+		fmt.Fprintf(b, "report: %s\n", run.METAR)
+		if len(run.FromReport) > 0 {
+			fmt.Fprintf(b, "  taken from it: %s\n", strings.Join(run.FromReport, "; "))
+		}
+		for _, f := range run.FlagsOverReport {
+			fmt.Fprintf(b, "  given by flag instead: %s\n", f)
+		}
+	}
+	b.WriteString("\n")
+	fmt.Fprintf(b, "%-4s %-4s %-13s %7s %7s %7s %7s %8s %8s %9s %9s %-5s  %s\n", "rank", "rwy", "surface", "head", "gust", "cross", "gust", "roll m", "50ft m", "required", "available", "limit", "status")
 	for _, e := range run.Ends {
 		dist := func(p *float64) string {
 			if p == nil {
@@ -150,14 +203,30 @@ func WriteCheckText(w io.Writer, run CheckRun) error {
 			}
 			return fmt.Sprintf("%.0f", *p)
 		}
-		fmt.Fprintf(b, "%-4d %-4s %-13s %6.1fkt %6.1fkt %8s %8s %9s %9s %-5s  %s\n",
-			e.Rank, e.Designator, e.Surface+" "+e.Condition, e.HeadwindKt, e.CrosswindKt,
+		fmt.Fprintf(b, "%-4d %-4s %-13s %5.1fkt %5.1fkt %5.1fkt %5.1fkt %8s %8s %9s %9s %-5s  %s\n",
+			e.Rank, e.Designator, e.Surface+" "+e.Condition, e.HeadwindKt, e.GustHeadwindKt, e.CrosswindKt, e.GustCrosswindKt,
 			dist(e.GroundRollM), dist(e.Distance50ftM), dist(e.RequiredM), dist(e.AvailableM), e.Limiting, strings.ToUpper(e.Status))
+		if e.ElevationUsedFt != run.ElevationFt {
+			fmt.Fprintf(b, "         - pressure altitude %.0f ft, taken at %.0f ft: this runway's highest threshold, above the aerodrome elevation\n", e.PressureAltitudeFt, e.ElevationUsedFt)
+		}
+		if e.DistanceWindKt < 0 {
+			fmt.Fprintf(b, "         - distance and tailwind limit taken with a %.1f kt tailwind (the gust counts for a tailwind)\n", -e.DistanceWindKt)
+		}
+		if e.Rule != "" && strings.HasPrefix(e.Rule, "CAT.POL") {
+			fmt.Fprintf(b, "         - rule used: %s\n", e.Rule)
+		}
+		for _, n := range e.PolicyNotes {
+			fmt.Fprintf(b, "         - %s\n", n)
+		}
+		if e.PolicyCaution != "" {
+			fmt.Fprintf(b, "         - %s\n", e.PolicyCaution)
+		}
 		for _, r := range e.Reasons {
 			fmt.Fprintf(b, "         - %s\n", r)
 		}
 	}
-	fmt.Fprintf(b, "\nheadwind: the reported component (negative: tailwind); distances rounded up.\n%s\n", Caution)
+	fmt.Fprintf(b, "\nhead, cross: the reported steady components, gust: the same from the gust (negative head: tailwind);\n")
+	fmt.Fprintf(b, "a tailwind counts at its gust, a headwind at its steady speed; distances rounded up.\n%s\n", Caution)
 	_, err := io.WriteString(w, b.String())
 	return err
 }

@@ -37,15 +37,19 @@ type GridRun struct {
 
 // GridEnd is one runway end's grid.
 type GridEnd struct {
-	Designator string     `json:"designator"`
-	HeadingDeg float64    `json:"heading_deg"`
-	Surface    string     `json:"surface"`
-	Condition  string     `json:"condition"`
-	SlopePct   float64    `json:"slope_pct"`
-	TORAM      float64    `json:"tora_m"`
-	TODAM      float64    `json:"toda_m"`
-	ASDAM      float64    `json:"asda_m"`
-	Cells      []GridCell `json:"cells"`
+	Designator string  `json:"designator"`
+	HeadingDeg float64 `json:"heading_deg"`
+	Surface    string  `json:"surface"`
+	Condition  string  `json:"condition"`
+	SlopePct   float64 `json:"slope_pct"`
+	TORAM      float64 `json:"tora_m"`
+	TODAM      float64 `json:"toda_m"`
+	ASDAM      float64 `json:"asda_m"`
+	// The elevation this end's pressure altitude is taken at (the highest of the
+	// aerodrome elevation and the runway's thresholds) and that pressure altitude.
+	ElevationUsedFt    float64    `json:"elevation_used_ft"`
+	PressureAltitudeFt float64    `json:"pressure_altitude_ft"`
+	Cells              []GridCell `json:"cells"`
 }
 
 // GridCell is one cell.
@@ -68,12 +72,15 @@ func BuildGrid(in GridInput) GridRun {
 	}
 	for _, g := range in.Grids {
 		r.QNHhPa = round1(units.HPa(g.Spec.QNHPa))
-		r.PressureAltitudeFt = math.Round(units.Feet(g.PressureAltM))
+		// At the aerodrome elevation; each end's own is in its runway_ends entry.
+		r.PressureAltitudeFt = math.Round(units.Feet(perf.PressureAltitudeFromQNH(g.Spec.QNHPa, in.Airfield.ElevationM)))
 		r.TightMarginPct = round1(g.Spec.TightMargin * 100)
 		ge := GridEnd{
 			Designator: g.End.Designator, HeadingDeg: g.End.HeadingDeg, Surface: string(g.End.Surface),
 			Condition: string(g.End.Condition), SlopePct: math.Round(g.End.SlopePct*100) / 100,
 			TORAM: g.End.TORAM, TODAM: g.End.TODAM, ASDAM: g.End.ASDAM,
+			ElevationUsedFt:    math.Round(units.Feet(g.ElevationM)),
+			PressureAltitudeFt: math.Round(units.Feet(g.PressureAltM)),
 		}
 		for _, blk := range g.Cells {
 			for _, row := range blk {
@@ -140,8 +147,11 @@ func WriteGridText(w io.Writer, in GridInput) error {
 	fmt.Fprintf(b, "required distance in m (rounded up).  ~ tight (less than the margin spare)  X no-go  ? no data  L beyond limits\n")
 	for _, g := range in.Grids {
 		e := g.End
-		fmt.Fprintf(b, "\nrunway %s, %03.0f° M, %s %s, slope %+.1f %%; TORA %.0f TODA %.0f ASDA %.0f m; QNH %.0f hPa assumed -> PA %.0f ft\n",
-			e.Designator, e.HeadingDeg, e.Surface, e.Condition, e.SlopePct, e.TORAM, e.TODAM, e.ASDAM, units.HPa(g.Spec.QNHPa), units.Feet(g.PressureAltM))
+		fmt.Fprintf(b, "\nrunway %s, %03.0f° M, %s %s, slope %+.1f %%; TORA %.0f TODA %.0f ASDA %.0f m; QNH %.0f hPa assumed at %.0f ft -> PA %.0f ft\n",
+			e.Designator, e.HeadingDeg, e.Surface, e.Condition, e.SlopePct, e.TORAM, e.TODAM, e.ASDAM, units.HPa(g.Spec.QNHPa), units.Feet(g.ElevationM), units.Feet(g.PressureAltM))
+		if c := g.Policy.SlopeCaution(e.SlopePct); c != "" {
+			fmt.Fprintf(b, "  %s\n", c)
+		}
 		for wi, blk := range g.Cells {
 			fmt.Fprintf(b, "  %.0f kg      ", g.Spec.WeightsKg[wi])
 			for _, t := range g.Spec.TempsK {

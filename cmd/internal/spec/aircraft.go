@@ -52,7 +52,13 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 	a.Notes = m.str("notes", false)
 	mtow, mtowOK := m.quantity("mtow", units.Mass, true, minMassKg, maxMassKg)
 	a.MTOWKg = mtow
+	minMass, minMassOK := m.quantity("min_mass", units.Mass, false, minMassKg, maxMassKg)
+	if minMassOK && mtowOK && minMass >= mtow {
+		d.errorf(m.vals["min_mass"], "min_mass", "%s is not below the MTOW %s", m.vals["min_mass"].Value, m.vals["mtow"].Value)
+		minMassOK = false
+	}
 
+	var weightNodes []*yaml.Node
 	if ws, nodes, ok := m.quantities("weights", units.Mass, false, minMassKg, maxMassKg); len(ws) > maxWeights {
 		d.errorf(m.vals["weights"], "weights", "%d weights, at most %d: a card holds no more blocks", len(ws), maxWeights)
 	} else if ws != nil {
@@ -71,6 +77,9 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 		}
 		a.WeightsKg = append([]float64(nil), ws...)
 		sort.Sort(sort.Reverse(sort.Float64Slice(a.WeightsKg)))
+		if ok {
+			weightNodes = nodes
+		}
 	} else if !m.has("weights") && mtowOK {
 		a.WeightsKg = []float64{mtow}
 		d.notef("weights not given: cards show the MTOW only")
@@ -129,6 +138,7 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 	default:
 		a.Model = perf.ModelPhysics
 	}
+	d.lowestMass(m, a, minMass, minMassOK, weightNodes)
 	if a.Physics != nil && a.TakeoffFlap != "" {
 		cl, ok := flaps[a.TakeoffFlap]
 		if !ok {
@@ -164,10 +174,48 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 	return a
 }
 
+// lowestMass sets the profile's lowest flyable mass (issue 14.2): min_mass when
+// given; else the table's lightest block, below which a table has no figure of its
+// own; a profile without a table must state it. No card weight may be below it.
+func (d *decoder) lowestMass(m *mapping, a *perf.Aircraft, minMass float64, given bool, weightNodes []*yaml.Node) {
+	switch {
+	case given:
+		a.MinMassKg = minMass
+	case m.has("min_mass"):
+		return // its error is reported
+	case a.Table != nil && len(a.Table.WeightKg) > 0:
+		a.MinMassKg = a.Table.WeightKg[0]
+		d.notef("min_mass not given: the table's lightest block, %.0f kg, is the lowest mass kneeprint answers for", a.MinMassKg)
+	case a.Table == nil && a.Physics != nil:
+		d.errorf(m.n, "min_mass", "missing required field \"min_mass\": a profile without a table states its lowest flyable mass (empty mass plus the lightest crew and the least fuel), so that a mistyped weight is refused")
+		return
+	default:
+		return // the table's errors are reported
+	}
+	for i, n := range weightNodes {
+		if w, err := units.Parse(n.Value, units.Mass); err == nil && w < a.MinMassKg-1e-9 {
+			d.errorf(n, fmt.Sprintf("weights[%d]", i), "%s is below the lowest flyable mass (min_mass) %.0f kg", n.Value, a.MinMassKg)
+		}
+	}
+}
+
+// windFactoringHelp says how to answer table.wind_factoring_included from the manual.
+const windFactoringHelp = "required, no default: write true when the manual's takeoff chart or its wind notes already credit " +
+	"only part of a headwind and more than all of a tailwind (the flight manual says so beside the chart, e.g. that the wind " +
+	"correction includes the factors of the certification rules), false when its wind notes are for the full reported wind " +
+	"or it gives none; false is the conservative answer when in doubt"
+
 func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 	m := d.mapping(n, "table")
 	t := &perf.Table{}
-	if v, ok := m.boolean("wind_factoring_included", true); ok {
+	if !m.has("wind_factoring_included") && n != nil && n.Kind == yaml.MappingNode {
+		at := n // the table, or the empty value when the key is written without one
+		if v := m.vals["wind_factoring_included"]; v != nil {
+			at = v
+		}
+		m.get("wind_factoring_included", false)
+		d.errorf(at, "table.wind_factoring_included", "%s", windFactoringHelp)
+	} else if v, ok := m.boolean("wind_factoring_included", true); ok {
 		t.WindInData = v
 	}
 	unit := m.oneOf("distance_unit", true, "m", "ft")
@@ -205,8 +253,9 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 			gr, grN = d.grid(bm, "ground_roll", len(t.PressureAltM), len(t.TempK), factor)
 			to, toN = d.grid(bm, "to_50ft", len(t.PressureAltM), len(t.TempK), factor)
 		} else {
-			bm.get("ground_roll", false)
-			bm.get("to_50ft", false)
+			// Not read against unknown axes; still name any placeholder in them.
+			d.placeholdersIn(bm.get("ground_roll", false), bm.field("ground_roll"))
+			d.placeholdersIn(bm.get("to_50ft", false), bm.field("to_50ft"))
 		}
 		bm.finish()
 		if !wOK || gr == nil || to == nil {

@@ -66,13 +66,21 @@ func (d *decoder) variation(v *yaml.Node, field string) float64 {
 		d.errorf(v, field, "expected an angle such as \"3 deg E\" or \"2 deg W\"")
 		return 0
 	}
+	if d.placeholder(v, field) {
+		return 0
+	}
 	s := strings.TrimSpace(v.Value)
-	sign := 1.0
+	sign, hemisphere := 1.0, false
 	switch {
 	case strings.HasSuffix(s, "E"):
-		s = strings.TrimSpace(strings.TrimSuffix(s, "E"))
+		s, hemisphere = strings.TrimSpace(strings.TrimSuffix(s, "E")), true
 	case strings.HasSuffix(s, "W"):
-		s, sign = strings.TrimSpace(strings.TrimSuffix(s, "W")), -1
+		s, sign, hemisphere = strings.TrimSpace(strings.TrimSuffix(s, "W")), -1, true
+	}
+	if hemisphere && (strings.HasPrefix(s, "-") || strings.HasPrefix(s, "+")) {
+		// "-3 deg W" could mean 3 deg W or 3 deg E: refuse rather than guess.
+		d.errorf(v, field, "%q gives both a sign and E or W: write \"3 deg W\" (or \"-3 deg\", east positive), not both", v.Value)
+		return 0
 	}
 	x, err := units.Parse(s, units.Angle)
 	if err != nil {
@@ -105,7 +113,8 @@ func (d *decoder) runway(n *yaml.Node, path string, fieldElev float64, seen map[
 	elevs := make([]float64, len(endNodes))
 	haveElev := make([]bool, len(endNodes))
 	for i, en := range endNodes {
-		e, elev, ok := d.runwayEnd(en, fmt.Sprintf("%s.ends[%d]", path, i), seen)
+		e, elev, elevNode := d.runwayEnd(en, fmt.Sprintf("%s.ends[%d]", path, i), seen)
+		ok := elevNode != nil
 		if e == nil {
 			continue
 		}
@@ -113,6 +122,11 @@ func (d *decoder) runway(n *yaml.Node, path string, fieldElev float64, seen map[
 		e.ElevationM = fieldElev
 		if ok {
 			e.ElevationM, elevs[i], haveElev[i] = elev, elev, true
+			if elev > fieldElev+0.5 { // half a metre: elevations are whole feet or metres
+				d.warnf(elevNode, fmt.Sprintf("%s.ends[%d].threshold_elevation", path, i),
+					"%s is above the aerodrome elevation %.0f ft, which is the highest point of the landing area: check both; kneeprint takes the pressure altitude at the higher figure",
+					elevNode.Value, units.Feet(fieldElev))
+			}
 		}
 		r.Ends = append(r.Ends, *e)
 	}
@@ -165,6 +179,17 @@ func runwayName(r *perf.Runway) string {
 	return strings.Join(ds, "/")
 }
 
+// NormalizeDesignator reads a runway designator as the files do ("7" is "07", "9l"
+// is "09L") and returns it in the form the loaded files use, or an error.
+func NormalizeDesignator(s string) (string, error) {
+	m := designatorPattern.FindStringSubmatch(strings.ToUpper(strings.TrimSpace(s)))
+	if m == nil {
+		return "", fmt.Errorf("%q is not a runway designator: 01 to 36, optionally followed by L, C or R", s)
+	}
+	num, _ := strconv.Atoi(m[1])
+	return fmt.Sprintf("%02d%s", num, m[2]), nil
+}
+
 func designatorNumber(s string) int {
 	m := designatorPattern.FindStringSubmatch(s)
 	if m == nil {
@@ -174,7 +199,9 @@ func designatorNumber(s string) int {
 	return n
 }
 
-func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Node) (*perf.RunwayEnd, float64, bool) {
+// runwayEnd reads one runway end; the threshold elevation is returned with its node,
+// which is nil when none was given.
+func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Node) (*perf.RunwayEnd, float64, *yaml.Node) {
 	m := d.mapping(n, path)
 	e := &perf.RunwayEnd{}
 	des := m.str("designator", true)
@@ -218,8 +245,8 @@ func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Nod
 	}
 	if asda, ok := m.quantity("asda", units.Length, false, 1, maxDistanceM); ok {
 		e.ASDAM = asda
-		if toraOK && asda < tora {
-			d.warnf(m.vals["asda"], m.field("asda"), "ASDA is shorter than TORA: the policy will use it as declared")
+		if toraOK && asda < tora-0.5 {
+			d.warnf(m.vals["asda"], m.field("asda"), "ASDA %s is shorter than TORA %s: kneeprint takes the ASDA as the takeoff run available (a run the aircraft could not stop within is not available)", m.vals["asda"].Value, m.vals["tora"].Value)
 		}
 	} else if !m.has("asda") {
 		e.ASDAM = tora
@@ -231,7 +258,10 @@ func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Nod
 	elev, haveElev := m.quantity("threshold_elevation", units.Length, false, minElevationM, maxElevationM)
 	e.Notes = m.str("notes", false)
 	m.finish()
-	return e, elev, haveElev
+	if !haveElev {
+		return e, elev, nil
+	}
+	return e, elev, m.vals["threshold_elevation"]
 }
 
 // angleDiff returns a-b in (-180, 180].

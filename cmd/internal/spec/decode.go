@@ -234,10 +234,47 @@ func describe(n *yaml.Node) string {
 	return "something else"
 }
 
+// PlaceholderMark starts every value of a starter file (kneeprint init) that the
+// pilot must replace: a file still holding one is refused, naming the key, so an
+// unedited starter never prints a normal-looking card.
+const PlaceholderMark = "EXAMPLE"
+
+// placeholder reports, as an error naming the field, a value that still carries the
+// starter's mark.
+func (d *decoder) placeholder(v *yaml.Node, field string) bool {
+	if v.Kind != yaml.ScalarNode {
+		return false
+	}
+	if s := strings.TrimSpace(v.Value); s == PlaceholderMark || strings.HasPrefix(s, PlaceholderMark+" ") {
+		d.errorf(v, field, "%q is a starter placeholder: replace it with the figure from your own flight manual or aerodrome data (and remove %s)", v.Value, PlaceholderMark)
+		return true
+	}
+	return false
+}
+
+// placeholdersIn reports every placeholder in a part of the tree that is not read
+// value by value (for instance table rows whose axes are in error).
+func (d *decoder) placeholdersIn(n *yaml.Node, field string) {
+	if n == nil {
+		return
+	}
+	switch n.Kind {
+	case yaml.ScalarNode:
+		d.placeholder(n, field)
+	case yaml.SequenceNode:
+		for i, c := range n.Content {
+			d.placeholdersIn(c, fmt.Sprintf("%s[%d]", field, i))
+		}
+	}
+}
+
 // str reads a text value. Numbers written unquoted are taken as their text.
 func (m *mapping) str(k string, required bool) string {
 	v := m.get(k, required)
 	if v == nil {
+		return ""
+	}
+	if m.d.placeholder(v, m.field(k)) {
 		return ""
 	}
 	if v.Kind != yaml.ScalarNode {
@@ -288,6 +325,9 @@ func (m *mapping) quantity(k string, dim units.Dimension, required bool, lo, hi 
 }
 
 func (d *decoder) quantity(v *yaml.Node, field string, dim units.Dimension, lo, hi float64) (float64, bool) {
+	if d.placeholder(v, field) {
+		return 0, false
+	}
 	if v.Kind != yaml.ScalarNode {
 		d.errorf(v, field, "expected a %s with a unit (%s), found %s", dim, strings.Join(units.Accepted(dim), ", "), describe(v))
 		return 0, false
@@ -341,6 +381,9 @@ func (m *mapping) number(k string, required bool, lo, hi float64) (float64, bool
 }
 
 func (d *decoder) number(v *yaml.Node, field string, lo, hi float64) (float64, bool) {
+	if d.placeholder(v, field) {
+		return 0, false
+	}
 	if v.Kind != yaml.ScalarNode || (v.Tag != "!!int" && v.Tag != "!!float") {
 		d.errorf(v, field, "expected a plain number, found %s", describe(v))
 		return 0, false
@@ -360,7 +403,7 @@ func (d *decoder) number(v *yaml.Node, field string, lo, hi float64) (float64, b
 // boolean reads true or false.
 func (m *mapping) boolean(k string, required bool) (bool, bool) {
 	v := m.get(k, required)
-	if v == nil {
+	if v == nil || m.d.placeholder(v, m.field(k)) {
 		return false, false
 	}
 	if v.Kind != yaml.ScalarNode || v.Tag != "!!bool" {

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math/rand"
+	"os"
 	"strings"
 	"testing"
 
@@ -21,6 +22,7 @@ func nested(open, close string, n int) string {
 // hostileInputs is a corpus of malformed and hostile files. Each must be answered by a
 // clear error naming the file, and never by a panic, a hang or a huge allocation.
 func hostileInputs() map[string]string {
+	okAircraft := string(mustReadFile("testdata/bad/ok-aircraft.yaml"))
 	rnd := rand.New(rand.NewSource(7))
 	binary := make([]byte, 4096)
 	rnd.Read(binary)
@@ -93,6 +95,19 @@ func hostileInputs() map[string]string {
 		"key without value":     "kind:\n",
 		"plan with 10k entries": "kind: plan\nname: p\ndate: 2027-01-01\noutput: o\nairfields: [a.yaml]\naircraft: [" + strings.Repeat("x.yaml,", 10000) + "]\n",
 		"plan bad date":         "kind: plan\nname: p\ndate: 01/03/2027\noutput: o\nairfields: [a.yaml]\naircraft: [x.yaml]\n",
+		// Issue 14 ("Smaller") and issues 9.9, 9.10, 14.2: plausible mistakes that
+		// once loaded.
+		"variation sign and hemisphere": strings.Replace(okAirfield, "elevation: 300 ft\n", "elevation: 300 ft\nvariation: -3 deg W\n", 1),
+		"variation plus and E":          strings.Replace(okAirfield, "elevation: 300 ft\n", "elevation: 300 ft\nvariation: +3 deg E\n", 1),
+		"starter placeholder":           strings.Replace(okAirfield, "800 m", "EXAMPLE 800 m", 1),
+		"placeholder designator":        strings.Replace(okAirfield, `"09"`, `"EXAMPLE 09"`, 1),
+		"valid_days fraction":           strings.Replace(string(mustReadFile("../../../templates/cards/a5.yaml")), "valid_days: 120", "valid_days: 1.9", 1),
+		"wind factoring not answered":   strings.Replace(okAircraft, "  wind_factoring_included: true\n", "  wind_factoring_included:\n", 1),
+		"wind factoring left out":       strings.Replace(okAircraft, "  wind_factoring_included: true\n", "", 1),
+		"min_mass above mtow":           strings.Replace(okAircraft, "mtow: 1000 kg\n", "mtow: 1000 kg\nmin_mass: 1200 kg\n", 1),
+		"min_mass zero":                 strings.Replace(okAircraft, "mtow: 1000 kg\n", "mtow: 1000 kg\nmin_mass: 0 kg\n", 1),
+		"min_mass negative":             strings.Replace(okAircraft, "mtow: 1000 kg\n", "mtow: 1000 kg\nmin_mass: -1000 kg\n", 1),
+		"card weight below min_mass":    strings.Replace(okAircraft, "mtow: 1000 kg\n", "mtow: 1000 kg\nmin_mass: 800 kg\nweights: [1000 kg, 100 kg]\n", 1),
 		"template 100 temps": "kind: card-template\nname: t\npage: a5\nunit: m\npolicy: uk-advisory\nqnh: 1000 hPa\ntight_margin: 10 %\ntemperatures: [" + func() string {
 			var b strings.Builder
 			for i := 0; i < 100; i++ {
@@ -101,6 +116,14 @@ func hostileInputs() map[string]string {
 			return b.String()
 		}() + "]\nwinds: [0 kt]\nmax_blocks: 2\naccelerate_check_temperature: 20 C\ncrosswind_speeds: [10 kt]\ncrosswind_angles: [30 deg]\nvalid_days: 10\n",
 	}
+}
+
+func mustReadFile(p string) []byte {
+	b, err := os.ReadFile(p)
+	if err != nil {
+		panic(err)
+	}
+	return b
 }
 
 func TestHostileInputs(t *testing.T) {

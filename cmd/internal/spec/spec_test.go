@@ -64,6 +64,17 @@ func TestBadFiles(t *testing.T) {
 		{"ac-no-model.yaml", []string{"ac-no-model.yaml:1:1: table: a profile needs a performance model"}},
 		{"ac-both-no-model.yaml", []string{`ac-both-no-model.yaml:1:1: model: missing required field "model"`, `ac-both-no-model.yaml:7:15: takeoff_flap: "0" is not in the flaps list`}},
 		{"ac-alias.yaml", []string{"ac-alias.yaml:2:7: anchors and aliases (& and *) are not accepted"}},
+		// Issue 9.9, 9.10, 14.2 and issue 14's smaller items.
+		{"ac-placeholder.yaml", []string{
+			`ac-placeholder.yaml:4:7: mtow: "EXAMPLE 1000 kg" is a starter placeholder: replace it`,
+			`ac-placeholder.yaml:16:12: table.weights[0].ground_roll[0][0]: "EXAMPLE 250" is a starter placeholder`,
+		}},
+		{"af-placeholder.yaml", []string{`af-placeholder.yaml:9:15: runways[0].ends[0].tora: "EXAMPLE 800 m" is a starter placeholder`}},
+		{"ac-no-wind-factoring.yaml", []string{"ac-no-wind-factoring.yaml:9:3: table.wind_factoring_included: required, no default: write true when"}},
+		{"ac-weight-below-min.yaml", []string{"ac-weight-below-min.yaml:5:20: weights[1]: 700 kg is below the lowest flyable mass (min_mass) 1000 kg"}},
+		{"ac-physics-no-min-mass.yaml", []string{`ac-physics-no-min-mass.yaml:1:1: min_mass: missing required field "min_mass": a profile without a table states its lowest flyable mass`}},
+		{"af-variation-sign.yaml", []string{`af-variation-sign.yaml:5:12: variation: "-3 deg W" gives both a sign and E or W`}},
+		{"tpl-valid-days.yaml", []string{"tpl-valid-days.yaml:16:13: valid_days: 1.9 is not a whole number of days"}},
 		{"empty.yaml", []string{"empty.yaml: file is empty"}},
 		{"syntax.yaml", []string{"syntax.yaml:1:1: not valid YAML: did not find expected ',' or ']'"}},
 		{"not-mapping.yaml", []string{`not-mapping.yaml:1:1: expected a mapping of key: value lines, found "just a string"`}},
@@ -118,7 +129,11 @@ func TestEmbeddedFilesValidate(t *testing.T) {
 		}
 	}
 	check(t, templates.FS, "aircraft")
-	check(t, templates.FS, "starter")
+	// The aircraft and airfield starters hold placeholders and are refused
+	// (TestStarterPlaceholdersRefused); the plan starter loads.
+	doc, err := Load(templates.FS, templates.StarterPlan)
+	require.NoError(t, err)
+	assert.Empty(t, doc.Warnings)
 	check(t, templates.FS, "cards")
 	check(t, templates.FS, "plans")
 	check(t, airfields.FS, ".")
@@ -220,6 +235,14 @@ func fuzzParse(t *testing.T, data []byte) {
 	case KindAircraft:
 		if doc.Aircraft == nil || doc.Aircraft.MTOWKg <= 0 || len(doc.Aircraft.WeightsKg) == 0 {
 			t.Fatalf("aircraft accepted without MTOW or weights: %+v", doc.Aircraft)
+		}
+		if a := doc.Aircraft; !(a.MinMassKg > 0 && a.MinMassKg <= a.MTOWKg) {
+			t.Fatalf("aircraft accepted without a lowest flyable mass below its MTOW: %+v", a)
+		}
+		for _, w := range doc.Aircraft.WeightsKg {
+			if w < doc.Aircraft.MinMassKg-1e-9 {
+				t.Fatalf("card weight %v below the lowest flyable mass %v accepted", w, doc.Aircraft.MinMassKg)
+			}
 		}
 	case KindAirfield:
 		if doc.Airfield == nil || len(doc.Airfield.Runways) == 0 {

@@ -12,11 +12,22 @@ import (
 // Summarize writes a plain-text account of what a document holds, the defaults that
 // were applied and the warnings raised, for validate.
 func Summarize(w io.Writer, doc *Document) {
+	warnings := doc.Warnings
 	switch {
 	case doc.Airfield != nil:
 		summarizeAirfield(w, doc.Airfield)
 	case doc.Aircraft != nil:
 		summarizeAircraft(w, doc.Aircraft)
+		// Issue 9.11: a figure to hold against the manual, and a warning when it
+		// looks implausible for the class.
+		if ref, err := ReferenceFigures(doc.Aircraft); err != nil {
+			fmt.Fprintf(w, "  reference (sea level ISA, MTOW): no figure: %v\n", err)
+		} else {
+			fmt.Fprintf(w, "  %s\n", referenceLine(doc.Aircraft, ref))
+			if ref.Warning != "" {
+				warnings = append(append([]string(nil), warnings...), doc.Path+": "+ref.Warning)
+			}
+		}
 	case doc.Template != nil:
 		summarizeTemplate(w, doc.Template)
 	case doc.Plan != nil:
@@ -28,9 +39,9 @@ func Summarize(w io.Writer, doc *Document) {
 			fmt.Fprintf(w, "    - %s\n", s)
 		}
 	}
-	if len(doc.Warnings) > 0 {
+	if len(warnings) > 0 {
 		fmt.Fprintln(w, "  warnings:")
-		for _, s := range doc.Warnings {
+		for _, s := range warnings {
 			fmt.Fprintf(w, "    ! %s\n", s)
 		}
 	}
@@ -69,7 +80,7 @@ func summarizeAircraft(w io.Writer, a *perf.Aircraft) {
 	for _, x := range a.WeightsKg {
 		ws = append(ws, fmt.Sprintf("%.0f", x))
 	}
-	fmt.Fprintf(w, "  MTOW %.0f kg; card weights %s kg; takeoff flap %s\n", a.MTOWKg, strings.Join(ws, ", "), a.TakeoffFlap)
+	fmt.Fprintf(w, "  MTOW %.0f kg; lowest flyable mass %.0f kg; card weights %s kg; takeoff flap %s\n", a.MTOWKg, a.MinMassKg, strings.Join(ws, ", "), a.TakeoffFlap)
 	fmt.Fprintf(w, "  limits: %s\n", limitsLine(a))
 	if a.RotateIASMS > 0 || a.At50ftIASMS > 0 {
 		fmt.Fprintf(w, "  speeds: rotation %.0f kt, at 50 ft %.0f kt (IAS)\n", units.Knots(a.RotateIASMS), units.Knots(a.At50ftIASMS))

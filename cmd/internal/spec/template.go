@@ -1,6 +1,8 @@
 package spec
 
 import (
+	"math"
+
 	"kneeprint/cmd/internal/units"
 	"kneeprint/perf"
 )
@@ -85,6 +87,9 @@ func (d *decoder) cardTemplate(m *mapping) *CardTemplate {
 		d.errorf(m.n, "crosswind_speeds", "at most 6 speeds and 7 angles fit the crosswind helper")
 	}
 	if v, ok := m.number("valid_days", true, 1, 400); ok {
+		if v != math.Trunc(v) {
+			d.errorf(m.vals["valid_days"], "valid_days", "%s is not a whole number of days", m.vals["valid_days"].Value)
+		}
 		t.ValidDays = int(v)
 	}
 	m.finish()
