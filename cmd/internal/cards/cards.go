@@ -357,6 +357,11 @@ func shortHash(s string) string {
 	return hex.EncodeToString(sum[:])[:12]
 }
 
+// Release drops what Card memoized for the job (its model and the model's reference
+// figures, tens of kilobytes): a batch calls it once the job's PDF is made, so that
+// memory does not grow with every card file. A later Card makes them again.
+func (j *Job) Release() { j.model = nil }
+
 // Rendered is a job's PDF and what went into it.
 type Rendered struct {
 	PDF   []byte
