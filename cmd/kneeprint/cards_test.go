@@ -18,7 +18,7 @@ func TestCardsDemo(t *testing.T) {
 	require.NoError(t, err)
 	assert.Len(t, entries, 5, "2 aircraft x 2 airfields, and the index")
 	for _, e := range entries {
-		assert.True(t, strings.HasSuffix(e.Name(), ".pdf") || e.Name() == "kneeprint-index.json", "no temporary file left: %s", e.Name())
+		assert.True(t, strings.HasSuffix(e.Name(), ".pdf") || e.Name() == "kneeprint-index.jsonl", "no temporary file left: %s", e.Name())
 	}
 	assert.Contains(t, out, "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf (2 page(s))")
 	assert.Contains(t, out, "no-go")

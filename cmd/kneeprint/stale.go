@@ -2,6 +2,7 @@ package main
 
 import (
 	"path/filepath"
+	"time"
 
 	"github.com/spf13/cobra"
 
@@ -53,7 +54,9 @@ func staleRun(e env, opts *staleOptions) error {
 		}
 		plan, planDir = p, filepath.Dir(opts.plan)
 	}
-	rep, err := batch.Stale(opts.dir, plan, planDir, version)
+	now := e.now()
+	today := time.Date(now.Year(), now.Month(), now.Day(), 0, 0, 0, 0, time.UTC)
+	rep, err := batch.Stale(opts.dir, plan, planDir, version, today)
 	if err != nil {
 		return dataError{err}
 	}
