@@ -21,7 +21,7 @@ import (
 // renamed copies of the two demo aircraft with their weights shifted, airfields renamed
 // copies of the four-runway demo field with shifted distances and elevation, so every
 // card is computed afresh. Four runway ends per airfield: 20 x 50 gives 4,000 pages.
-func seasonEntries(b *testing.B, nAircraft, nAirfields int, compress bool) []*Entry {
+func seasonEntries(b testing.TB, nAircraft, nAirfields int, compress bool) []*Entry {
 	b.Helper()
 	ac, _ := inputs.Demo()
 	var base []*perf.Aircraft

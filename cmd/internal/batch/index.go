@@ -36,7 +36,7 @@ const indexFormat = 2
 // start when its folder's index would list more card files, and the writer refuses a
 // line the reader would not read. A line (one card file) is a few kilobytes.
 const (
-	MaxIndexCards     = 100_000 // five of the largest plans into one folder
+	MaxIndexCards     = 50_000 // two and a half of the largest plans into one folder
 	MaxIndexLineBytes = 1 << 20
 )
 
