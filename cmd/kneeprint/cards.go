@@ -46,8 +46,10 @@ per aircraft x airfield and one page per runway end (or one sheet per two cards 
 --sheet). A plan file (kind: plan) names a whole season: every aircraft at every
 airfield with every card template. Cards are made in parallel; each file is written
 to a temporary name and renamed into place, so a crash or Ctrl-C never leaves half a
-PDF. The folder gets an index (kneeprint-index.json) that 'kneeprint stale' reads.
-The same inputs and --date give byte-identical PDFs. Exit 1 if any card failed.
+PDF. The folder gets an index (kneeprint-index.jsonl) that 'kneeprint stale' reads.
+-o must name a folder (a file is refused, exit 2). One batch writes into a folder at
+a time: a second one waits until the first has finished. The same inputs and --date
+give byte-identical PDFs. Exit 1 if any card was not made.
 
 Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-letter,
 5x8, or your own file (copy one from templates/cards/).
