@@ -48,8 +48,10 @@ per aircraft x airfield and one page per runway end, two (dry and wet) on grass 
 gravel (or one sheet per two cards with --sheet). A plan file (kind: plan) names a whole season: every aircraft at every
 airfield with every card template. Cards are made in parallel; each file is written
 to a temporary name and renamed into place, so a crash or Ctrl-C never leaves half a
-PDF. The folder gets an index (kneeprint-index.json) that 'kneeprint stale' reads.
-The same inputs and --date give byte-identical PDFs. Exit 1 if any card failed.
+PDF. The folder gets an index (kneeprint-index.jsonl) that 'kneeprint stale' reads.
+-o must name a folder (a file is refused, exit 2). One batch writes into a folder at
+a time: a second one waits until the first has finished. The same inputs and --date
+give byte-identical PDFs. Exit 1 if any card was not made.
 
 A card page on which no cell has a figure (every cell no data, past a limit or no
 takeoff: a pressure altitude above the table, say) is listed in the summary and makes
@@ -81,7 +83,7 @@ Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-let
 	f.StringVar(&opts.validUntil, "valid-until", "", "valid-until date YYYY-MM-DD (default: date + the template's valid_days)")
 	f.StringVarP(&opts.out, "out", "o", "", "output folder, created if needed (a plan gives its own)")
 	f.BoolVar(&opts.noCompress, "no-compress", false, "do not deflate page streams (faster, larger files)")
-	f.IntVar(&opts.workers, "workers", 0, "cards made at once (default: the number of CPUs)")
+	f.IntVar(&opts.workers, "workers", 0, fmt.Sprintf("card files made at once (default: the number of CPUs; at most %d per CPU)", batch.WorkersPerCPU))
 	f.BoolVar(&opts.data, "data", false, "also write each card's content as JSON beside its PDF (NAME.json)")
 	f.BoolVar(&opts.allowEmpty, "allow-empty", false, "accept card pages on which no cell has a figure (exit 0)")
 	return cmd
@@ -187,22 +189,29 @@ func cardsRun(e env, opts *cardsOptions) error {
 			return err
 		}
 	}
+	var page layout.Page
 	if opts.page != "" {
-		if _, err := layout.PageByName(opts.page); err != nil {
+		if page, err = layout.PageByName(opts.page); err != nil {
 			return err
 		}
+	}
+	if opts.out != "" {
+		if st, err := os.Stat(opts.out); err == nil && !st.IsDir() {
+			return fmt.Errorf("-o %s is a file: give a folder (one PDF per aircraft and airfield is written into it)", opts.out)
+		}
+	}
+	if opts.workers < 0 {
+		return fmt.Errorf("--workers %d: give a number of workers, or 0 for one per CPU", opts.workers)
 	}
 	prep, err := batch.Prepare(plan, planDir, opts.out, version, !opts.noCompress)
 	if err != nil {
 		return dataError{err}
 	}
 	if opts.page != "" {
-		page, _ := layout.PageByName(opts.page)
-		for _, en := range prep.Entries {
-			en.Job.Page = page
-			en.Job.Template.Page = page.Name
-			en.Name = en.Job.FileName()
-		}
+		prep.SetPage(page) // names made unique again after the override
+	}
+	if w := batch.Workers(opts.workers, len(prep.Entries)); opts.workers > w {
+		fmt.Fprintf(e.stderr, "--workers %d: %d used (at most one per card file and %d per CPU)\n", opts.workers, w, batch.WorkersPerCPU)
 	}
 	for _, en := range prep.Entries {
 		en.Job.Data = opts.data
@@ -217,7 +226,26 @@ func cardsRun(e env, opts *cardsOptions) error {
 	if opts.plan == "" {
 		progress = batch.NewProgress(e.stdout, false)
 	}
-	sum := prep.Run(ctx, batch.Options{Workers: opts.workers, Progress: progress})
+	waiting := func(msg string) { fmt.Fprintln(e.stderr, msg) }
+	done := make(chan *batch.Summary, 1)
+	go func() {
+		done <- prep.Run(ctx, batch.Options{Workers: opts.workers, Progress: progress, Waiting: waiting})
+	}()
+	var sum *batch.Summary
+	select {
+	case sum = <-done:
+	case <-ctx.Done():
+		// Interrupted: no new card starts and the run ends within moments, unless it
+		// is blocked in the file system. Then it is left behind: the cards in place
+		// are whole (each appears only by rename), the lock goes with the process.
+		stop() // a second Ctrl-C ends the process at once
+		select {
+		case sum = <-done:
+		case <-time.After(stopGrace):
+			return dataError{fmt.Errorf("interrupted: the batch did not stop within %s (blocked reading or writing a file?) and was abandoned; "+
+				"the card files in place are whole, the index may not list the newest", stopGrace)}
+		}
+	}
 	sum.WriteSummary(e.stdout)
 	if sum.Failed() {
 		return dataError{errors.New("not every card was made: see the errors above")}
@@ -227,6 +255,9 @@ func cardsRun(e env, opts *cardsOptions) error {
 	}
 	return nil
 }
+
+// stopGrace is how long an interrupted batch may take to stop before it is abandoned.
+const stopGrace = 3 * time.Second
 
 // isTerminal reports whether w is a terminal (for the progress bar).
 func isTerminal(w any) bool {

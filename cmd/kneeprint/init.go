@@ -6,9 +6,11 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+	"strings"
 
 	"github.com/spf13/cobra"
 
+	"kneeprint/cmd/internal/cards"
 	"kneeprint/cmd/internal/inputs"
 	"kneeprint/templates"
 )
@@ -29,8 +31,9 @@ func newInitCmd(e env) *cobra.Command {
 manual; init airfield FILE writes an airfield file to fill in from your aerodrome's
 published data; init plan FILE writes a season plan. init --demo DIR copies every
 embedded demo file (invented aircraft and airfields, and a plan naming them) into DIR
-so you can copy and adapt them. Existing files are never
-overwritten unless --force is given.
+so you can copy and adapt them. Existing files are never overwritten unless --force
+is given: without it, every target is checked before any is written; with it, a
+symbolic link in DIR is replaced by the file, never followed.
 
 ` + caution,
 		Example: `  kneeprint init aircraft my-trainer.yaml
@@ -84,27 +87,68 @@ func initDemoRun(e env, opts *initOptions) error {
 	}
 	all := append(ac, af...)
 	all = append(all, inputs.Source{FS: templates.FS, Path: templates.DemoPlan})
+	type target struct {
+		dst  string
+		data []byte
+	}
+	var targets []target
+	var problems []string
 	for _, s := range all {
 		data, err := fs.ReadFile(s.FS, s.Path)
 		if err != nil {
 			return err
 		}
 		dst := filepath.Join(opts.demoDir, filepath.Base(s.Path))
-		if err := writeNew(dst, data, opts.force); err != nil {
+		if err := checkTarget(dst, opts.force); err != nil {
+			problems = append(problems, err.Error())
+			continue
+		}
+		targets = append(targets, target{dst, data})
+	}
+	// Every target is checked before any is written: a refusal leaves DIR as it was.
+	if len(problems) > 0 {
+		return dataError{fmt.Errorf("%s\nnothing written", strings.Join(problems, "\n"))}
+	}
+	for _, t := range targets {
+		if err := writeNew(t.dst, t.data, opts.force); err != nil {
 			return dataError{err}
 		}
-		fmt.Fprintf(e.stdout, "wrote %s\n", dst)
+		fmt.Fprintf(e.stdout, "wrote %s\n", t.dst)
 	}
 	return nil
 }
 
-// writeNew writes data to path, refusing to replace an existing file unless force.
-func writeNew(path string, data []byte, force bool) error {
-	flags := os.O_WRONLY | os.O_CREATE | os.O_EXCL
-	if force {
-		flags = os.O_WRONLY | os.O_CREATE | os.O_TRUNC
+// checkTarget says whether init may write path: a new name always; an existing one
+// only with force, and then only a regular file or a symbolic link (which is
+// replaced, never followed), not a folder or a special file.
+func checkTarget(path string, force bool) error {
+	st, err := os.Lstat(path)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return nil
+	case err != nil:
+		return err
+	case !force:
+		return fmt.Errorf("%s already exists: not overwritten (use --force to replace it)", path)
+	case st.Mode().IsRegular() || st.Mode()&fs.ModeSymlink != 0:
+		return nil
 	}
-	f, err := os.OpenFile(path, flags, 0o644)
+	return fmt.Errorf("%s exists and is not a file: not replaced", path)
+}
+
+// writeNew writes data to path, refusing to replace an existing file unless force.
+// Without force the file is created exclusively (an existing name, even a dangling
+// symbolic link, is refused); with force it is written beside and renamed into
+// place, so that a symbolic link at path is replaced, never followed out of the
+// folder.
+func writeNew(path string, data []byte, force bool) error {
+	if err := checkTarget(path, force); err != nil {
+		return err
+	}
+	if force {
+		return cards.WriteAtomic(path, data)
+	}
+	f, err := os.OpenFile(path, os.O_WRONLY|os.O_CREATE|os.O_EXCL, 0o644)
 	if err != nil {
 		if errors.Is(err, fs.ErrExist) {
 			return fmt.Errorf("%s already exists: not overwritten (use --force to replace it)", path)

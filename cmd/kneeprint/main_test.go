@@ -43,7 +43,10 @@ func TestInitStartersValidate(t *testing.T) {
 		require.Equal(t, exitOK, code, errOut)
 		code, out, _ := runCLI(t, "validate", p)
 		if kind == "plan" {
-			assert.Equal(t, exitOK, code, out)
+			// The starter plan names files still to be written: validate says so.
+			assert.Equal(t, exitFailure, code, out)
+			assert.Contains(t, out, "plan.yaml:6:5: aircraft[0]: ")
+			assert.Contains(t, out, "my-trainer.yaml: no such file")
 		} else {
 			assert.Equal(t, exitFailure, code, out)
 			assert.Contains(t, out, p+":")

@@ -2,6 +2,7 @@ package main
 
 import (
 	"path/filepath"
+	"time"
 
 	"github.com/spf13/cobra"
 
@@ -25,9 +26,12 @@ func newStaleCmd(e env) *cobra.Command {
 current input files: the ones the index recorded, or, with --plan, the ones the plan
 names now (for example after pointing the plan at an edited copy of an airfield). A
 card is stale when its aircraft profile, its runway end (declared distances, heading,
-slope, surface...), its card template or the kneeprint version changed, or when the
-PDF itself is missing or was altered. Formatting and comments in the files do not
-count. Exit 0 when every card matches, 1 when any is stale.
+slope, surface...), its card template or the kneeprint version changed, when the PDF
+itself is missing or was altered, or when it is past its valid-until date (listed with
+the date). Formatting, comments, the unit a value is written in and fields no card
+prints and no figure uses (an aircraft's type and notes, the airfield's variation, a
+template's name and valid_days) do not count, nor does a page chosen with cards
+--page. Exit 0 when every card matches, 1 when any is stale or expired.
 
 ` + caution,
 		Example: `  kneeprint stale cards-2027
@@ -53,7 +57,9 @@ func staleRun(e env, opts *staleOptions) error {
 		}
 		plan, planDir = p, filepath.Dir(opts.plan)
 	}
-	rep, err := batch.Stale(opts.dir, plan, planDir, version)
+	now := e.now()
+	today := time.Date(now.Year(), now.Month(), now.Day(), 0, 0, 0, 0, time.UTC)
+	rep, err := batch.Stale(opts.dir, plan, planDir, version, today)
 	if err != nil {
 		return dataError{err}
 	}

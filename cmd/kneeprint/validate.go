@@ -6,6 +6,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"kneeprint/cmd/internal/batch"
 	"kneeprint/cmd/internal/inputs"
 	"kneeprint/cmd/internal/spec"
 )
@@ -22,11 +23,15 @@ func newValidateCmd(e env) *cobra.Command {
 		Short: "Read kneeprint files strictly and report what they hold, defaults and errors",
 		Long: `validate reads aircraft profiles and airfield files (any mix: each file says what it
 is with its kind: line), prints a summary of what was read and the defaults applied,
-and every error with file:line:column and field. It exits 1 if any file has an error.
+and every error with file:line:column and field. A plan is checked with every file it
+names: each must exist and be of the kind its list needs. Text a card prints (names,
+flap, runway notes) must be characters the card's font can print. It exits 1 if any
+file has an error.
 
 ` + caution,
 		Example: `  kneeprint validate --demo
-  kneeprint validate my-aircraft.yaml home-field.yaml`,
+  kneeprint validate my-aircraft.yaml home-field.yaml
+  kneeprint validate season-2027.yaml`,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			opts.files = args
 			if !opts.demo && len(args) == 0 {
@@ -67,6 +72,17 @@ func validateRun(e env, opts *validateOptions) error {
 				fmt.Fprintf(e.stdout, "  %s\n", err)
 			}
 			continue
+		}
+		if doc.Plan != nil && s.FS == nil {
+			// A plan is checked with the files it names, at the plan's lines.
+			if list := batch.CheckPlan(doc.Plan, s.Path); len(list) > 0 {
+				failed++
+				fmt.Fprintf(e.stdout, "%s: ERRORS in the files it names\n", s.Name)
+				for _, fe := range list {
+					fmt.Fprintf(e.stdout, "  %s\n", fe.Error())
+				}
+				continue
+			}
 		}
 		fmt.Fprintf(e.stdout, "%s: ok, %s\n", s.Name, doc.Kind)
 		spec.Summarize(e.stdout, doc)

@@ -8,6 +8,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"runtime"
@@ -26,6 +27,11 @@ import (
 // MaxJobs bounds one plan: a club's season is a few hundred files; more is a mistake.
 const MaxJobs = 20000
 
+// WorkersPerCPU caps the workers of a batch: rendering is computation, so more
+// workers than CPUs gain little (a little more while others wait on the disk), and
+// each holds its fonts and a card file in memory.
+const WorkersPerCPU = 4
+
 // LoadPlan reads a plan file.
 func LoadPlan(path string) (*spec.Plan, error) {
 	doc, err := spec.LoadFile(path)
@@ -40,11 +46,12 @@ func LoadPlan(path string) (*spec.Plan, error) {
 
 // Entry is one job of a plan with the sources it came from.
 type Entry struct {
-	Job         *cards.Job
-	Name        string // output file name, unique in the folder
-	AircraftSrc string // as written, resolved against the plan's folder
-	AirfieldSrc string
-	TemplateSrc string
+	Job          *cards.Job
+	Name         string // output file name, unique in the folder
+	AircraftSrc  string // as written, resolved against the plan's folder
+	AirfieldSrc  string
+	TemplateSrc  string
+	PageOverride string // the page given on the command line over the template's, or ""
 }
 
 // Prepared is a plan with its inputs loaded.
@@ -52,6 +59,9 @@ type Prepared struct {
 	Dir         string // output folder
 	Entries     []*Entry
 	InputErrors []error // files that could not be read: their jobs are not in Entries
+
+	// newFonts makes a worker's fonts (layout.NewFonts when nil); tests count calls.
+	newFonts func() (*layout.Fonts, error)
 }
 
 // Prepare loads every input of plan (paths relative to planDir) and lays out the jobs.
@@ -96,10 +106,7 @@ func Prepare(plan *spec.Plan, planDir, outDir, version string, compress bool) (*
 		afs = append(afs, afIn{src, f})
 	}
 	for _, arg := range plan.Templates {
-		src := arg
-		if strings.ContainsAny(arg, `/\.`) {
-			src = inputs.In(planDir, arg)
-		}
+		src := templateSource(planDir, arg)
 		t, err := inputs.Template(src)
 		if err != nil {
 			p.InputErrors = append(p.InputErrors, fmt.Errorf("template %s: %w", src, err))
@@ -147,9 +154,45 @@ func Prepare(plan *spec.Plan, planDir, outDir, version string, compress bool) (*
 	return p, nil
 }
 
+// templateSource resolves a plan's template entry: a preset name stays a name, a
+// file is taken from the plan's folder.
+func templateSource(planDir, arg string) string {
+	if strings.ContainsAny(arg, `/\.`) {
+		return inputs.In(planDir, arg)
+	}
+	return arg
+}
+
+// SetPage prints every card of the batch on page instead of its template's page
+// (cards --page), and makes the file names unique again: two templates, or two
+// profiles, that differed only by their page now share a name.
+func (p *Prepared) SetPage(page layout.Page) {
+	for _, e := range p.Entries {
+		e.Job.Page = page
+		e.Job.Template.Page = page.Name
+		e.PageOverride = page.Name
+		e.Name = e.Job.FileName()
+	}
+	uniqueNames(p.Entries)
+}
+
+// withPage is a copy of the entries printed on page (see SetPage); p is unchanged.
+func (p *Prepared) withPage(page layout.Page) []*Entry {
+	c := &Prepared{}
+	for _, e := range p.Entries {
+		j := *e.Job
+		ce := *e
+		ce.Job = &j
+		c.Entries = append(c.Entries, &ce)
+	}
+	c.SetPage(page)
+	return c.Entries
+}
+
 // uniqueNames makes output names unique without regard to case (file systems that
 // ignore case would otherwise overwrite one card with another): every name shared by
-// several jobs gets a short hash of the job's sources.
+// several jobs gets a short hash of the job's sources, and should two still meet
+// (one file named twice in different spellings), a number in plan order.
 func uniqueNames(es []*Entry) {
 	groups := map[string][]*Entry{}
 	for _, e := range es {
@@ -165,11 +208,34 @@ func uniqueNames(es []*Entry) {
 			e.Name = strings.TrimSuffix(e.Name, ".pdf") + "_" + tag + ".pdf"
 		}
 	}
+	used := map[string]bool{}
+	for _, e := range es {
+		base, name := strings.TrimSuffix(e.Name, ".pdf"), e.Name
+		for n := 2; used[strings.ToLower(name)]; n++ {
+			name = fmt.Sprintf("%s-%d.pdf", base, n)
+		}
+		e.Name = name
+		used[strings.ToLower(name)] = true
+	}
+}
+
+// sameNames reports two entries that would write one path (without regard to case).
+func sameNames(es []*Entry) error {
+	seen := map[string]string{}
+	for _, e := range es {
+		k := strings.ToLower(e.Name)
+		if prev, ok := seen[k]; ok {
+			return fmt.Errorf("two card files of this batch are named %s and %s: nothing written", prev, e.Name)
+		}
+		seen[k] = e.Name
+	}
+	return nil
 }
 
 // JobResult is what happened to one job.
 type JobResult struct {
 	Entry    *Entry
+	Written  bool // the PDF is in place, whole
 	Pages    int
 	Ends     []cards.EndSummary
 	SHA256   string
@@ -188,8 +254,11 @@ type Progress interface {
 
 // Options controls a run.
 type Options struct {
-	Workers  int // 0: GOMAXPROCS
+	Workers  int // 0: GOMAXPROCS; capped (see Workers)
 	Progress Progress
+	// Waiting, when set, hears once that another batch holds the output folder and
+	// this one waits for it.
+	Waiting func(msg string)
 }
 
 // Summary is the outcome of a run.
@@ -197,58 +266,109 @@ type Summary struct {
 	Dir         string
 	Results     []JobResult // in plan order
 	InputErrors []error
+	RunErr      error // the run could not start (folder, lock, index): nothing written
 	IndexErr    error
+	Notes       []string // things the user should know that are not errors
+	Workers     int      // workers started
 	Elapsed     time.Duration
 }
 
 // Failed reports whether anything failed or was not done.
 func (s *Summary) Failed() bool {
-	if len(s.InputErrors) > 0 || s.IndexErr != nil {
+	if len(s.InputErrors) > 0 || s.IndexErr != nil || s.RunErr != nil {
 		return true
 	}
 	for _, r := range s.Results {
-		if r.Err != nil || r.Canceled {
+		if !r.Written {
 			return true
 		}
 	}
 	return false
 }
 
-// Run renders every entry with up to opts.Workers workers. A job that fails is
-// reported and the others go on. When ctx is cancelled no new job starts, and a job
-// whose PDF is not yet in place leaves nothing behind.
+// Workers is the number of workers a run of jobs uses when asked for requested
+// (0: one per CPU): never more than the jobs, nor WorkersPerCPU per CPU.
+func Workers(requested, jobs int) int {
+	cpus := runtime.GOMAXPROCS(0)
+	w := requested
+	if w <= 0 {
+		w = cpus
+	}
+	return max(0, min(w, WorkersPerCPU*cpus, jobs))
+}
+
+// Run renders every entry with up to opts.Workers workers. It holds an exclusive lock
+// on the output folder from start to end: a second batch into the same folder waits
+// for it (reporting so through opts.Waiting), and gives up when ctx is cancelled. A
+// job that fails is reported and the others go on. When ctx is cancelled no new job
+// starts, and a job whose PDF is not yet in place leaves nothing behind.
 func (p *Prepared) Run(ctx context.Context, opts Options) *Summary {
 	start := time.Now()
 	s := &Summary{Dir: p.Dir, InputErrors: p.InputErrors, Results: make([]JobResult, len(p.Entries))}
-	if err := os.MkdirAll(p.Dir, 0o755); err != nil {
-		s.InputErrors = append(s.InputErrors, err)
+	defer func() { s.Elapsed = time.Since(start) }()
+	for i, e := range p.Entries {
+		s.Results[i].Entry = e
+	}
+	if s.RunErr = sameNames(p.Entries); s.RunErr != nil {
+		return s
+	}
+	if s.RunErr = makeFolder(p.Dir); s.RunErr != nil {
+		return s
+	}
+	lock, err := lockFolder(ctx, p.Dir, opts.Waiting)
+	if err != nil {
+		s.RunErr = err
+		return s
+	}
+	defer lock.Unlock()
+	idx, err := readIndexForUpdate(p.Dir)
+	switch {
+	case errors.Is(err, errOldIndex):
+		s.Notes = append(s.Notes, fmt.Sprintf("%s was written by an earlier kneeprint: replaced by one listing only the cards of this run", filepath.Join(p.Dir, IndexName)))
+		idx = &rawIndex{lines: map[string][]byte{}}
+	case err != nil:
+		s.RunErr = fmt.Errorf("%w: nothing written", err)
+		return s
+	}
+	if n := idx.countWith(p.Entries); n > MaxIndexCards {
+		s.RunErr = fmt.Errorf("%s would list %d card files, more than the %d one folder's index holds: write into another folder", p.Dir, n, MaxIndexCards)
 		return s
 	}
 	removeLeftovers(p.Dir)
-	workers := opts.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
+
+	s.Workers = Workers(opts.Workers, len(p.Entries))
 	if opts.Progress != nil {
 		opts.Progress.Start(len(p.Entries))
 	}
-	idx := make(chan int)
+	newFonts := p.newFonts
+	if newFonts == nil {
+		newFonts = layout.NewFonts
+	}
+	jobs := make(chan int)
 	var mu sync.Mutex
 	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
+	for w := 0; w < s.Workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			fonts, err := layout.NewFonts()
-			for i := range idx {
+			var fonts *layout.Fonts
+			var fontErr error
+			for i := range jobs {
 				r := JobResult{Entry: p.Entries[i]}
 				switch {
-				case err != nil:
-					r.Err = err
 				case ctx.Err() != nil:
 					r.Canceled = true
 				default:
-					r = p.runOne(ctx, p.Entries[i], fonts)
+					if fonts == nil && fontErr == nil {
+						// Parsed on the worker's first job, not before: a worker
+						// that never gets one costs nothing.
+						fonts, fontErr = newFonts()
+					}
+					if fontErr != nil {
+						r.Err = fontErr
+					} else {
+						r = p.runOne(ctx, p.Entries[i], fonts)
+					}
 				}
 				mu.Lock()
 				s.Results[i] = r
@@ -260,20 +380,33 @@ func (p *Prepared) Run(ctx context.Context, opts Options) *Summary {
 		}()
 	}
 	for i := range p.Entries {
-		idx <- i
+		jobs <- i
 	}
-	close(idx)
+	close(jobs)
 	wg.Wait()
 	if opts.Progress != nil {
 		opts.Progress.Finish()
 	}
-	s.IndexErr = UpdateIndex(p.Dir, p.Entries, s.Results)
-	s.Elapsed = time.Since(start)
+	s.IndexErr = idx.update(p.Dir, p.Entries, s.Results)
 	return s
+}
+
+// makeFolder creates the output folder, refusing a path that is a file.
+func makeFolder(dir string) error {
+	if st, err := os.Stat(dir); err == nil && !st.IsDir() {
+		return fmt.Errorf("the output %s is a file, not a folder: nothing written", dir)
+	}
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return fmt.Errorf("output folder: %w", err)
+	}
+	return nil
 }
 
 func (p *Prepared) runOne(ctx context.Context, e *Entry, fonts *layout.Fonts) JobResult {
 	r := JobResult{Entry: e}
+	// Once the PDF is made the job's model is not needed: memory stays flat however
+	// many card files the batch makes (BenchmarkSeasonMemory).
+	defer e.Job.Release()
 	rd, err := e.Job.Render(fonts)
 	if err != nil {
 		r.Err = err
@@ -304,40 +437,44 @@ func (p *Prepared) runOne(ctx context.Context, e *Entry, fonts *layout.Fonts) Jo
 		}
 		return r
 	}
-	r.Pages, r.Ends, r.SHA256 = pages, sums, sha256Hex(data)
+	r.Written, r.Pages, r.Ends, r.SHA256 = true, pages, sums, sha256Hex(data)
 	return r
 }
 
-// removeLeftovers deletes temporary files a killed batch may have left (they never
-// carry a card's name: a card appears only by rename, whole).
+// removeLeftovers deletes the temporary files a killed batch may have left: only
+// regular files named as kneeprint names its temporaries (cards.IsTemp), never a
+// user's own file. It runs under the folder's lock, so no other batch is writing
+// them. A card appears only by rename, whole.
 func removeLeftovers(dir string) {
-	matches, _ := filepath.Glob(filepath.Join(dir, ".*.tmp"))
-	for _, m := range matches {
-		os.Remove(m)
+	entries, err := os.ReadDir(dir)
+	if err != nil {
+		return
+	}
+	for _, e := range entries {
+		if e.Type().IsRegular() && cards.IsTemp(e.Name()) {
+			os.Remove(filepath.Join(dir, e.Name()))
+		}
 	}
 }
 
 // WriteSummary prints what a run did: files and pages written, the runway ends with
-// no-go or beyond-limit cells, and every error.
+// no-go or beyond-limit cells, and every error. Only files in place are counted.
 func (s *Summary) WriteSummary(w io.Writer) {
-	files, pages, canceled := 0, 0, 0
-	var failed []string
-	var flagged []string
+	files, pages, canceled, notMade := 0, 0, 0, 0
+	var failed, flagged []string
 	empty := s.Empty()
 	for _, r := range s.Results {
 		switch {
+		case r.Written:
+			files++
+			pages += r.Pages
+			flagged = append(flagged, flaggedEnds(r)...)
 		case r.Canceled:
 			canceled++
 		case r.Err != nil:
 			failed = append(failed, fmt.Sprintf("%s: %v", r.Entry.Name, r.Err))
 		default:
-			files++
-			pages += r.Pages
-			for _, e := range r.Ends {
-				if e.Counts[perf.NoGo] > 0 || e.Counts[perf.BeyondLimits] > 0 {
-					flagged = append(flagged, fmt.Sprintf("%s runway %s: %d no-go, %d beyond-limits cells", r.Entry.Name, pageID(e), e.Counts[perf.NoGo], e.Counts[perf.BeyondLimits]))
-				}
-			}
+			notMade++
 		}
 	}
 	fmt.Fprintf(w, "\n%d card file(s), %d card page(s) written to %s in %.1f s\n", files, pages, s.Dir, s.Elapsed.Seconds())
@@ -357,6 +494,11 @@ func (s *Summary) WriteSummary(w io.Writer) {
 	if canceled > 0 {
 		fmt.Fprintf(w, "interrupted: %d card file(s) not made (nothing half-written is left)\n", canceled)
 	}
+	if s.RunErr != nil {
+		fmt.Fprintf(w, "not started: %v\n", s.RunErr)
+	} else if notMade > 0 {
+		fmt.Fprintf(w, "%d card file(s) not made\n", notMade)
+	}
 	if n := len(failed) + len(s.InputErrors); n > 0 {
 		fmt.Fprintf(w, "errors (%d):\n", n)
 		for _, e := range s.InputErrors {
@@ -368,6 +510,9 @@ func (s *Summary) WriteSummary(w io.Writer) {
 	}
 	if s.IndexErr != nil {
 		fmt.Fprintf(w, "index not written: %v\n", s.IndexErr)
+	}
+	for _, n := range s.Notes {
+		fmt.Fprintf(w, "note: %s\n", n)
 	}
 }
 
@@ -385,7 +530,7 @@ func pageID(e cards.EndSummary) string {
 func (s *Summary) Empty() []string {
 	var out []string
 	for _, r := range s.Results {
-		if r.Err != nil || r.Canceled || r.Entry == nil {
+		if !r.Written || r.Entry == nil {
 			continue
 		}
 		for _, e := range r.Ends {
@@ -397,3 +542,17 @@ func (s *Summary) Empty() []string {
 	sort.Strings(out)
 	return out
 }
+
+// flaggedEnds lists a written card file's pages with no-go or beyond-limit cells.
+func flaggedEnds(r JobResult) []string {
+	var out []string
+	for _, e := range r.Ends {
+		if e.Counts[perf.NoGo] > 0 || e.Counts[perf.BeyondLimits] > 0 {
+			out = append(out, fmt.Sprintf("%s runway %s: %d no-go, %d beyond-limits cells", r.Entry.Name, pageID(e), e.Counts[perf.NoGo], e.Counts[perf.BeyondLimits]))
+		}
+	}
+	return out
+}
+
+// isNotExist reports a missing file.
+func isNotExist(err error) bool { return errors.Is(err, fs.ErrNotExist) }

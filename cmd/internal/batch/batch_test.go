@@ -68,7 +68,7 @@ func TestRunPlanAndIndex(t *testing.T) {
 	}
 	// 2 aircraft x (4 + 2 ends), and the 4 unpaved ends have a dry and a wet page each.
 	assert.Equal(t, 20, ends)
-	rep, err := Stale(filepath.Join(dir, "cards"), nil, "", "test")
+	rep, err := Stale(filepath.Join(dir, "cards"), nil, "", "test", planDate)
 	require.NoError(t, err)
 	assert.Empty(t, rep.Stale)
 	assert.Equal(t, 20, rep.Checked)
@@ -113,12 +113,12 @@ func TestStaleNamesExactlyTheAffectedCards(t *testing.T) {
 	// A comment alone changes nothing.
 	unitSpelling := strings.Replace(string(data), "tora: 840 m", "tora: 2755.905511811 ft", 1)
 	require.NoError(t, os.WriteFile(path, []byte("# reviewed\n"+unitSpelling), 0o644))
-	rep, err := Stale(out, nil, "", "test")
+	rep, err := Stale(out, nil, "", "test", planDate)
 	require.NoError(t, err)
 	assert.Empty(t, rep.Stale, "formatting, comments and the unit a value is written in do not make a card stale")
 
 	require.NoError(t, os.WriteFile(path, []byte(edited), 0o644))
-	rep, err = Stale(out, nil, "", "test")
+	rep, err = Stale(out, nil, "", "test", planDate)
 	require.NoError(t, err)
 	require.Len(t, rep.Stale, 4, "2 aircraft x the dry and the wet page of grass runway 15")
 	for _, s := range rep.Stale {
@@ -142,7 +142,7 @@ func TestStaleReasons(t *testing.T) {
 	// A card file altered, another removed.
 	require.NoError(t, os.WriteFile(filepath.Join(out, "kp-spm_quillwing-qt-6-demo-tourer_a5.pdf"), []byte("%PDF-1.4 tampered"), 0o644))
 	require.NoError(t, os.Remove(filepath.Join(out, "kp-wrm_quillwing-qt-6-demo-tourer_a5.pdf")))
-	rep, err := Stale(out, nil, "", "test")
+	rep, err := Stale(out, nil, "", "test", planDate)
 	require.NoError(t, err)
 	why := map[string]string{}
 	for _, s := range rep.Stale {
@@ -153,7 +153,7 @@ func TestStaleReasons(t *testing.T) {
 	assert.Contains(t, why["kp-spm_quillwing-qt-6-demo-tourer_a5.pdf 04"], "card file changed after kneeprint wrote it")
 	assert.Contains(t, why["kp-wrm_quillwing-qt-6-demo-tourer_a5.pdf 33"], "card file missing")
 	// A new kneeprint version makes every card stale, saying so.
-	rep, err = Stale(out, nil, "", "test-2")
+	rep, err = Stale(out, nil, "", "test-2", planDate)
 	require.NoError(t, err)
 	assert.Contains(t, strings.Join(rep.Stale[0].Reasons, ";"), "made by kneeprint test, this is kneeprint test-2")
 }
@@ -167,7 +167,7 @@ func TestStaleWithPlan(t *testing.T) {
 	require.NoError(t, os.WriteFile(filepath.Join(dir, "saltpan-2027.yaml"), []byte(strings.Replace(string(data), "surface: gravel", "surface: grass", 1)), 0o644))
 	p.Airfields = []string{"wrenmoor.yaml", "saltpan-2027.yaml"}
 	p.Templates = []string{"a5", "half-letter"}
-	rep, err := Stale(filepath.Join(dir, "cards"), p, dir, "test")
+	rep, err := Stale(filepath.Join(dir, "cards"), p, dir, "test", planDate)
 	require.NoError(t, err)
 	var surface, unprinted int
 	for _, s := range rep.Stale {
@@ -229,7 +229,7 @@ func TestLeftoverTemporariesRemoved(t *testing.T) {
 	dir := demoDir(t)
 	out := filepath.Join(dir, "cards")
 	require.NoError(t, os.MkdirAll(out, 0o755))
-	leftover := filepath.Join(out, ".kp-wrm_sedgefin-sf-2-demo-trainer_a5.pdf.12345.tmp")
+	leftover := filepath.Join(out, ".kp-wrm_sedgefin-sf-2-demo-trainer_a5.pdf.kneeprint-12345.tmp")
 	require.NoError(t, os.WriteFile(leftover, []byte("%PDF-1.4 half"), 0o644))
 	run(t, dir, demoPlan(dir))
 	_, err := os.Stat(leftover)

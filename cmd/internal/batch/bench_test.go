@@ -21,7 +21,7 @@ import (
 // renamed copies of the two demo aircraft with their weights shifted, airfields renamed
 // copies of the four-runway demo field with shifted distances and elevation, so every
 // card is computed afresh. Four runway ends per airfield: 20 x 50 gives 4,000 pages.
-func seasonEntries(b *testing.B, nAircraft, nAirfields int, compress bool) []*Entry {
+func seasonEntries(b testing.TB, nAircraft, nAirfields int, compress bool) []*Entry {
 	b.Helper()
 	ac, _ := inputs.Demo()
 	var base []*perf.Aircraft
@@ -121,3 +121,34 @@ func BenchmarkSeason(b *testing.B) {
 }
 
 func airfieldsFS() fs.FS { return airfields.FS }
+
+// BenchmarkSeasonMemory renders a 3,000-file plan (60 aircraft x 50 airfields of four
+// runway ends: 12,000 pages) as the cards command does (compressed, every CPU, the
+// collector at 400 %) and reports the peak memory: the heap's peak (live and not yet
+// collected objects, sampled every 2 ms) and, on Linux, the process's peak resident
+// set. Target: under 300 MB for the 3,000 files.
+func BenchmarkSeasonMemory(b *testing.B) {
+	defer debug.SetGCPercent(debug.SetGCPercent(400))
+	b.ReportAllocs()
+	var heapPeak, rssPeak uint64
+	for i := 0; i < b.N; i++ {
+		b.StopTimer()
+		es := seasonEntries(b, 60, 50, true)
+		runtime.GC()
+		resetPeakRSS()
+		s := startPeakSampler()
+		b.StartTimer()
+		p := &Prepared{Dir: b.TempDir(), Entries: es}
+		sum := p.Run(context.Background(), Options{Workers: runtime.GOMAXPROCS(0)})
+		b.StopTimer()
+		heapPeak = max(heapPeak, s.Stop())
+		rssPeak = max(rssPeak, peakRSS())
+		if sum.Failed() || len(sum.Results) != 3000 {
+			b.Fatalf("batch failed: %d results", len(sum.Results))
+		}
+	}
+	b.ReportMetric(float64(heapPeak)/(1<<20), "peak-heap-MB")
+	if rssPeak > 0 {
+		b.ReportMetric(float64(rssPeak)/(1<<20), "peak-rss-MB")
+	}
+}

@@ -1,27 +1,47 @@
 package batch
 
 import (
+	"bufio"
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
 	"errors"
 	"fmt"
-	"io"
 	"os"
 	"path/filepath"
 	"sort"
 	"strings"
 
 	"kneeprint/cmd/internal/cards"
+	"kneeprint/cmd/internal/files"
 	"kneeprint/cmd/internal/inputs"
+	"kneeprint/cmd/internal/spec"
+	"kneeprint/layout"
 	"kneeprint/perf"
 )
 
-// IndexName is the index a batch writes next to its cards.
-const IndexName = "kneeprint-index.json"
+// IndexName is the index a batch writes next to its cards: JSON Lines, a header line
+// then one line per card file, so that it is read a line at a time however many
+// cards a folder holds.
+const IndexName = "kneeprint-index.jsonl"
+
+// oldIndexName is the single-document index of kneeprint before index format 2.
+const oldIndexName = "kneeprint-index.json"
 
 // indexFormat is the version of the index layout.
-const indexFormat = 1
+const indexFormat = 2
+
+// The index's limits, the same for the writer and the reader: a batch refuses to
+// start when its folder's index would list more card files, and the writer refuses a
+// line the reader would not read. A line (one card file) is a few kilobytes.
+const (
+	MaxIndexCards     = 50_000 // two and a half of the largest plans into one folder
+	MaxIndexLineBytes = 1 << 20
+)
+
+// errOldIndex marks a folder indexed by an earlier kneeprint.
+var errOldIndex = errors.New("index of an earlier kneeprint")
 
 // Index lists every card file of a folder and what it was made from.
 type Index struct {
@@ -29,40 +49,67 @@ type Index struct {
 	Cards  []IndexCard `json:"cards"`
 }
 
-// IndexCard is one card file.
-type IndexCard struct {
-	File       string     `json:"file"`
-	SHA256     string     `json:"sha256"`
-	Pages      int        `json:"pages"`
-	Aircraft   Component  `json:"aircraft"`
-	Airfield   Component  `json:"airfield"`
-	Template   Component  `json:"template"`
-	Policy     string     `json:"policy"`
-	Unit       string     `json:"unit"`
-	Page       string     `json:"page"`
-	Sheet      string     `json:"sheet,omitempty"`
-	Version    string     `json:"kneeprint_version"`
-	Date       string     `json:"date"`
-	ValidUntil string     `json:"valid_until"`
-	Ends       []IndexEnd `json:"runway_ends"`
+// indexHeader is the index's first line.
+type indexHeader struct {
+	Format int    `json:"format"`
+	Kind   string `json:"kind"`
 }
 
-// Component is one input of a card: where it was read and the hash of its canonical
-// form (comments and formatting do not count).
+const indexKind = "kneeprint-index"
+
+// IndexCard is one card file.
+type IndexCard struct {
+	File         string     `json:"file"`
+	SHA256       string     `json:"sha256"`
+	Pages        int        `json:"pages"`
+	Aircraft     Component  `json:"aircraft"`
+	Airfield     Component  `json:"airfield"`
+	Template     Component  `json:"template"`
+	Policy       string     `json:"policy"`
+	Unit         string     `json:"unit"`
+	Page         string     `json:"page"`
+	PageOverride string     `json:"page_override,omitempty"` // cards --page: the page over the template's
+	Sheet        string     `json:"sheet,omitempty"`
+	Version      string     `json:"kneeprint_version"`
+	Date         string     `json:"date"`
+	ValidUntil   string     `json:"valid_until"`
+	Ends         []IndexEnd `json:"runway_ends"`
+}
+
+// Component is one input of a card: where it was read and the hash of the canonical
+// form of what of it counts for the card (see aircraftKey, cards.EndHash,
+// templateKey): comments, formatting, units written and unprinted fields do not.
 type Component struct {
 	Source string `json:"source"` // relative to the index's folder, demo:NAME, or a preset name
 	Name   string `json:"name"`
 	Hash   string `json:"hash"`
 }
 
-// IndexEnd is one runway end's card.
+// IndexEnd is one page of a card file: a runway end's card. Page identifies it
+// within the file.
 type IndexEnd struct {
+	Page        string         `json:"page"` // the page's identity: "15 wet" when the end has a page per condition
 	Designator  string         `json:"designator"`
-	Page        string         `json:"page,omitempty"` // the page's identity: "15 wet" when the end has a page per condition
 	Fingerprint string         `json:"fingerprint"`
 	EndHash     string         `json:"end_hash"`
 	End         perf.RunwayEnd `json:"end"`
 	States      map[string]int `json:"states"`
+}
+
+// aircraftKey hashes what of a profile counts for its cards: all of it but its type
+// and notes, which no card prints and no figure uses.
+func aircraftKey(a *perf.Aircraft) string {
+	c := *a
+	c.Type, c.Notes = "", ""
+	return cards.AircraftHash(&c)
+}
+
+// templateKey hashes what of a card template counts for its cards: all of it but its
+// name (not printed) and valid_days (the validity printed is checked on its own: a
+// card past it is listed by stale, and with a plan so is a changed valid-until).
+func templateKey(t spec.CardTemplate, p layout.Page) string {
+	t.Name, t.ValidDays = "", 0
+	return cards.TemplateHash(t, p)
 }
 
 func sha256Hex(data []byte) string {
@@ -70,27 +117,105 @@ func sha256Hex(data []byte) string {
 	return hex.EncodeToString(sum[:])
 }
 
-// ReadIndex reads dir's index.
-func ReadIndex(dir string) (*Index, error) {
-	f, err := os.Open(filepath.Join(dir, IndexName))
+// readIndex reads dir's index a line at a time, checking the header and every line,
+// and hands each card to fn with its raw line. An index of an earlier kneeprint gives
+// errOldIndex; no index at all, an error matching fs.ErrNotExist.
+func readIndex(dir string, fn func(c *IndexCard, raw []byte)) error {
+	path := filepath.Join(dir, IndexName)
+	f, err := files.OpenRegular(path)
 	if err != nil {
-		return nil, err
+		if isNotExist(err) {
+			if _, oldErr := os.Lstat(filepath.Join(dir, oldIndexName)); oldErr == nil {
+				return fmt.Errorf("%s: %w (%s): run 'kneeprint cards' into this folder again to index its cards", dir, errOldIndex, oldIndexName)
+			}
+		}
+		return err
 	}
 	defer f.Close()
-	data, err := io.ReadAll(io.LimitReader(f, 64<<20))
+	sc := bufio.NewScanner(f)
+	sc.Buffer(make([]byte, 0, 64<<10), MaxIndexLineBytes+1)
+	line := 0
+	seen := map[string]int{}
+	for sc.Scan() {
+		line++
+		raw := sc.Bytes()
+		if line == 1 {
+			var h indexHeader
+			if err := json.Unmarshal(raw, &h); err != nil || h.Kind != indexKind {
+				return fmt.Errorf("%s:1: not a kneeprint index", path)
+			}
+			if h.Format != indexFormat {
+				return fmt.Errorf("%s:1: index format %d, this kneeprint reads format %d", path, h.Format, indexFormat)
+			}
+			continue
+		}
+		if len(bytes.TrimSpace(raw)) == 0 {
+			continue
+		}
+		if len(seen) == MaxIndexCards {
+			return fmt.Errorf("%s:%d: more than the %d card files an index lists", path, line, MaxIndexCards)
+		}
+		var c IndexCard
+		dec := json.NewDecoder(bytes.NewReader(raw))
+		dec.DisallowUnknownFields()
+		if err := dec.Decode(&c); err != nil {
+			return fmt.Errorf("%s:%d: not a kneeprint index line: %w", path, line, err)
+		}
+		if c.File == "" || c.File != filepath.Base(c.File) || strings.HasPrefix(c.File, ".") {
+			return fmt.Errorf("%s:%d: %q is not a card file name", path, line, c.File)
+		}
+		if prev, dup := seen[c.File]; dup {
+			return fmt.Errorf("%s:%d: %s is listed twice (first at line %d)", path, line, c.File, prev)
+		}
+		seen[c.File] = line
+		fn(&c, raw)
+	}
+	if err := sc.Err(); err != nil {
+		if errors.Is(err, bufio.ErrTooLong) {
+			return fmt.Errorf("%s:%d: a line longer than the %d bytes an index line may have", path, line+1, MaxIndexLineBytes)
+		}
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	if line == 0 {
+		return fmt.Errorf("%s: empty, not a kneeprint index", path)
+	}
+	return nil
+}
+
+// ReadIndex reads dir's index.
+func ReadIndex(dir string) (*Index, error) {
+	idx := &Index{Format: indexFormat}
+	err := readIndex(dir, func(c *IndexCard, _ []byte) { idx.Cards = append(idx.Cards, *c) })
 	if err != nil {
 		return nil, err
 	}
-	var idx Index
-	dec := json.NewDecoder(strings.NewReader(string(data)))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&idx); err != nil {
-		return nil, fmt.Errorf("%s: not a kneeprint index: %w", filepath.Join(dir, IndexName), err)
+	return idx, nil
+}
+
+// rawIndex is an index as read for an update: each card file's line as written.
+type rawIndex struct {
+	lines map[string][]byte
+}
+
+// readIndexForUpdate reads dir's index, keeping its lines; none gives an empty one.
+func readIndexForUpdate(dir string) (*rawIndex, error) {
+	idx := &rawIndex{lines: map[string][]byte{}}
+	err := readIndex(dir, func(c *IndexCard, raw []byte) { idx.lines[c.File] = bytes.Clone(raw) })
+	if isNotExist(err) {
+		return idx, nil
 	}
-	if idx.Format != indexFormat {
-		return nil, fmt.Errorf("%s: index format %d, this kneeprint reads format %d", filepath.Join(dir, IndexName), idx.Format, indexFormat)
+	return idx, err
+}
+
+// countWith is how many card files the index lists once entries are added.
+func (x *rawIndex) countWith(entries []*Entry) int {
+	n := len(x.lines)
+	for _, e := range entries {
+		if _, ok := x.lines[e.Name]; !ok {
+			n++
+		}
 	}
-	return &idx, nil
+	return n
 }
 
 // relSource records a source so that the index still finds it when read from dir.
@@ -124,11 +249,11 @@ func entryCard(dir string, e *Entry, r JobResult) IndexCard {
 	j := e.Job
 	c := IndexCard{
 		File: e.Name, SHA256: r.SHA256, Pages: r.Pages,
-		Aircraft: Component{relSource(dir, e.AircraftSrc), j.Aircraft.Name, cards.AircraftHash(j.Aircraft)},
+		Aircraft: Component{relSource(dir, e.AircraftSrc), j.Aircraft.Name, aircraftKey(j.Aircraft)},
 		Airfield: Component{relSource(dir, e.AirfieldSrc), j.Airfield.Ident, ""},
-		Template: Component{relSource(dir, e.TemplateSrc), j.Template.Name, cards.TemplateHash(j.Template, j.Page)},
-		Policy:   j.Template.Policy, Unit: j.Template.Unit, Page: j.Page.Name, Version: j.Version,
-		Date: j.Date.Format("2006-01-02"), ValidUntil: j.ValidUntil.Format("2006-01-02"),
+		Template: Component{relSource(dir, e.TemplateSrc), j.Template.Name, templateKey(j.Template, j.Page)},
+		Policy:   j.Template.Policy, Unit: j.Template.Unit, Page: j.Page.Name, PageOverride: e.PageOverride,
+		Version: j.Version, Date: j.Date.Format("2006-01-02"), ValidUntil: j.ValidUntil.Format("2006-01-02"),
 	}
 	if j.Sheet != nil {
 		c.Sheet = j.Sheet.Name
@@ -138,49 +263,62 @@ func entryCard(dir string, e *Entry, r JobResult) IndexCard {
 		for k, v := range s.Counts {
 			st[k.String()] = v
 		}
-		c.Ends = append(c.Ends, IndexEnd{Designator: s.Designator, Page: s.Page, Fingerprint: s.Fingerprint,
+		c.Ends = append(c.Ends, IndexEnd{Page: pageID(s), Designator: s.Designator, Fingerprint: s.Fingerprint,
 			EndHash: cards.EndHash(j.Airfield, s.End), End: s.End, States: st})
 	}
 	return c
 }
 
-// UpdateIndex merges a run's results into dir's index: cards written replace their
-// old entries, entries whose file is gone are dropped; the index is written atomically.
-func UpdateIndex(dir string, entries []*Entry, results []JobResult) error {
-	idx, err := ReadIndex(dir)
-	if err != nil {
-		if !errors.Is(err, os.ErrNotExist) {
+// update merges a run's results into the index and writes it atomically: cards
+// written replace their old lines, lines whose file is gone are dropped. A folder
+// with no index and no card written gets none.
+func (x *rawIndex) update(dir string, entries []*Entry, results []JobResult) error {
+	written := false
+	var tooLong []string
+	for i, r := range results {
+		if !r.Written {
+			continue
+		}
+		line, err := json.Marshal(entryCard(dir, entries[i], r))
+		if err != nil {
 			return err
 		}
-		idx = &Index{}
-		written := false
-		for _, r := range results {
-			written = written || (r.Err == nil && !r.Canceled && r.Entry != nil)
+		if len(line) > MaxIndexLineBytes {
+			tooLong = append(tooLong, entries[i].Name)
+			delete(x.lines, entries[i].Name)
+			continue
 		}
-		if !written {
-			return nil // nothing to index, and no index to keep
-		}
+		x.lines[entries[i].Name] = line
+		written = true
 	}
-	idx.Format = indexFormat
-	byFile := map[string]IndexCard{}
-	for _, c := range idx.Cards {
-		byFile[c.File] = c
+	old := filepath.Join(dir, oldIndexName)
+	_, oldErr := os.Lstat(old)
+	if _, err := os.Lstat(filepath.Join(dir, IndexName)); isNotExist(err) && !written && oldErr != nil {
+		return nil // nothing to index, and no index to keep
 	}
-	for i, r := range results {
-		if r.Err == nil && !r.Canceled && r.Entry != nil {
-			byFile[entries[i].Name] = entryCard(dir, entries[i], r)
-		}
-	}
-	idx.Cards = idx.Cards[:0]
-	for name, c := range byFile {
-		if _, err := os.Stat(filepath.Join(dir, name)); err == nil {
-			idx.Cards = append(idx.Cards, c)
+	names := make([]string, 0, len(x.lines))
+	for name := range x.lines {
+		if st, err := os.Lstat(filepath.Join(dir, name)); err == nil && st.Mode().IsRegular() {
+			names = append(names, name)
 		}
 	}
-	sort.Slice(idx.Cards, func(i, j int) bool { return idx.Cards[i].File < idx.Cards[j].File })
-	data, err := json.MarshalIndent(idx, "", "  ")
-	if err != nil {
+	sort.Strings(names)
+	var buf bytes.Buffer
+	head, _ := json.Marshal(indexHeader{Format: indexFormat, Kind: indexKind})
+	buf.Write(head)
+	buf.WriteByte('\n')
+	for _, name := range names {
+		buf.Write(x.lines[name])
+		buf.WriteByte('\n')
+	}
+	if err := cards.WriteAtomic(filepath.Join(dir, IndexName), buf.Bytes()); err != nil {
 		return err
 	}
-	return cards.WriteAtomic(filepath.Join(dir, IndexName), append(data, '\n'))
+	if oldErr == nil {
+		os.Remove(old) // replaced by the index just written
+	}
+	if len(tooLong) > 0 {
+		return fmt.Errorf("not indexed (a line over %d bytes): %s", MaxIndexLineBytes, strings.Join(tooLong, ", "))
+	}
+	return nil
 }

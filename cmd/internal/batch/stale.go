@@ -1,28 +1,33 @@
 package batch
 
 import (
+	"crypto/sha256"
+	"encoding/hex"
 	"errors"
 	"fmt"
 	"io"
-	"os"
 	"path/filepath"
 	"sort"
 	"strings"
+	"time"
 
 	"kneeprint/cmd/internal/cards"
 	"kneeprint/cmd/internal/changes"
+	"kneeprint/cmd/internal/files"
 	"kneeprint/cmd/internal/inputs"
 	"kneeprint/cmd/internal/spec"
 	"kneeprint/layout"
 	"kneeprint/perf"
 )
 
-// StaleCard is one printed card (one runway end of one card file) that no longer
-// matches its inputs, and why.
+// StaleCard is one printed card (one page of one card file) that no longer matches
+// its inputs, or is past its valid-until date, and why.
 type StaleCard struct {
 	File       string   `json:"file"`
+	Page       string   `json:"page"` // the card's identity within its file
 	Designator string   `json:"designator"`
-	Page       string   `json:"page,omitempty"` // "15 wet" when the runway end has a page per condition
+	ValidUntil string   `json:"valid_until,omitempty"`
+	Expired    bool     `json:"expired"`
 	Reasons    []string `json:"reasons"`
 }
 
@@ -40,6 +45,7 @@ type current struct {
 	airfield    *perf.Airfield
 	template    *spec.CardTemplate
 	page        layout.Page
+	validUntil  string // with a plan: the valid-until the plan gives now
 	aircraftSrc string
 	airfieldSrc string
 	err         error
@@ -47,28 +53,23 @@ type current struct {
 
 // Stale compares the index in dir with the current input files: those the index
 // records, or, with a plan, those the plan names now. Every card whose inputs changed
-// is listed with the reasons; so is every runway end that has no card.
-func Stale(dir string, plan *spec.Plan, planDir, version string) (*StaleReport, error) {
+// in a way that counts (see aircraftKey, templateKey, cards.EndHash) is listed with
+// the reasons; so is every card past its valid-until date on today, and every runway
+// end that has no card. A page given with cards --page is taken as chosen, not as a
+// template change.
+func Stale(dir string, plan *spec.Plan, planDir, version string, today time.Time) (*StaleReport, error) {
 	idx, err := ReadIndex(dir)
 	if err != nil {
-		if errors.Is(err, os.ErrNotExist) {
-			return nil, fmt.Errorf("%s has no %s: only a folder written by 'kneeprint cards --plan' can be checked", dir, IndexName)
+		if isNotExist(err) {
+			return nil, fmt.Errorf("%s has no %s: only a folder written by 'kneeprint cards' can be checked", dir, IndexName)
 		}
 		return nil, err
 	}
 	rep := &StaleReport{Dir: dir}
 	var planned map[string]*Entry
 	if plan != nil {
-		prep, err := Prepare(plan, planDir, dir, version, true)
-		if err != nil {
+		if planned, err = plannedEntries(plan, planDir, dir, version, idx, rep); err != nil {
 			return nil, err
-		}
-		for _, e := range prep.InputErrors {
-			rep.Errors = append(rep.Errors, e.Error())
-		}
-		planned = map[string]*Entry{}
-		for _, e := range prep.Entries {
-			planned[e.Name] = e
 		}
 	}
 	loaded := map[string]current{}
@@ -78,9 +79,10 @@ func Stale(dir string, plan *spec.Plan, planDir, version string) (*StaleReport, 
 			if !ok {
 				return current{err: errors.New("the plan no longer makes this card file (or could not read its inputs)")}
 			}
-			return current{aircraft: e.Job.Aircraft, airfield: e.Job.Airfield, template: &e.Job.Template, page: e.Job.Page, aircraftSrc: e.AircraftSrc, airfieldSrc: e.AirfieldSrc}
+			return current{aircraft: e.Job.Aircraft, airfield: e.Job.Airfield, template: &e.Job.Template, page: e.Job.Page,
+				validUntil: e.Job.ValidUntil.Format("2006-01-02"), aircraftSrc: e.AircraftSrc, airfieldSrc: e.AirfieldSrc}
 		}
-		key := c.Aircraft.Source + "\x00" + c.Airfield.Source + "\x00" + c.Template.Source
+		key := c.Aircraft.Source + "\x00" + c.Airfield.Source + "\x00" + c.Template.Source + "\x00" + c.PageOverride
 		if cur, ok := loaded[key]; ok {
 			return cur
 		}
@@ -92,37 +94,50 @@ func Stale(dir string, plan *spec.Plan, planDir, version string) (*StaleReport, 
 			cur.err = fmt.Errorf("airfield file %s cannot be read: %s", cur.airfieldSrc, firstLine(err.Error()))
 		} else if cur.template, err = inputs.Template(sourceFrom(dir, c.Template.Source)); err != nil {
 			cur.err = fmt.Errorf("card template %s cannot be read: %s", c.Template.Source, firstLine(err.Error()))
-		} else if cur.page, err = layout.PageByName(c.Page); err != nil {
-			cur.err = err
+		} else {
+			// As the card was made: a plan may have set the policy and unit for
+			// the batch, and cards --page the page.
+			cur.template.Policy, cur.template.Unit = c.Policy, c.Unit
+			if c.PageOverride != "" {
+				cur.template.Page = c.PageOverride
+			}
+			if cur.page, err = layout.PageByName(cur.template.Page); err != nil {
+				cur.err = err
+			}
 		}
 		loaded[key] = cur
 		return cur
 	}
+	day := today.Format("2006-01-02")
 	seen := map[string]bool{}
 	for _, c := range idx.Cards {
 		seen[c.File] = true
 		var fileReasons []string
-		data, err := os.ReadFile(filepath.Join(dir, c.File))
+		sum, err := fileSHA256(filepath.Join(dir, c.File))
 		switch {
-		case err != nil:
+		case isNotExist(err):
 			fileReasons = append(fileReasons, "card file missing")
-		case sha256Hex(data) != c.SHA256:
+		case err != nil:
+			fileReasons = append(fileReasons, fmt.Sprintf("card file unreadable: %v", err))
+		case sum != c.SHA256:
 			fileReasons = append(fileReasons, "card file changed after kneeprint wrote it")
+		}
+		expired := c.ValidUntil != "" && c.ValidUntil < day // both YYYY-MM-DD
+		if expired {
+			fileReasons = append(fileReasons, fmt.Sprintf("expired: valid until %s", c.ValidUntil))
 		}
 		cur := lookup(c)
 		if cur.err != nil {
 			fileReasons = append(fileReasons, cur.err.Error())
 		} else {
-			if h := cards.AircraftHash(cur.aircraft); h != c.Aircraft.Hash {
+			if h := aircraftKey(cur.aircraft); h != c.Aircraft.Hash {
 				fileReasons = append(fileReasons, fmt.Sprintf("aircraft profile %s changed", cur.aircraftSrc))
 			}
-			t := *cur.template
-			if plan == nil {
-				// A plan may set the policy and unit for the batch: compare like with like.
-				t.Policy, t.Unit = c.Policy, c.Unit
-			}
-			if h := cards.TemplateHash(t, cur.page); h != c.Template.Hash || t.Policy != c.Policy {
+			if h := templateKey(*cur.template, cur.page); h != c.Template.Hash {
 				fileReasons = append(fileReasons, fmt.Sprintf("card template %s changed", c.Template.Name))
+			}
+			if cur.validUntil != "" && cur.validUntil != c.ValidUntil {
+				fileReasons = append(fileReasons, fmt.Sprintf("the plan now gives valid until %s, the card says %s", cur.validUntil, c.ValidUntil))
 			}
 			if c.Version != version {
 				fileReasons = append(fileReasons, fmt.Sprintf("made by kneeprint %s, this is kneeprint %s", c.Version, version))
@@ -156,13 +171,18 @@ func Stale(dir string, plan *spec.Plan, planDir, version string) (*StaleReport, 
 				}
 			}
 			if len(reasons) > 0 {
-				rep.Stale = append(rep.Stale, StaleCard{File: c.File, Designator: ie.Designator, Page: ie.Page, Reasons: reasons})
+				page := ie.Page
+				if page == "" {
+					page = ie.Designator
+				}
+				rep.Stale = append(rep.Stale, StaleCard{File: c.File, Page: page, Designator: ie.Designator,
+					ValidUntil: c.ValidUntil, Expired: expired, Reasons: reasons})
 			}
 		}
 		if cur.airfield != nil {
 			for _, e := range cur.airfield.Ends() {
 				if !had[e.Designator] {
-					rep.Stale = append(rep.Stale, StaleCard{File: c.File, Designator: e.Designator,
+					rep.Stale = append(rep.Stale, StaleCard{File: c.File, Page: e.Designator, Designator: e.Designator,
 						Reasons: []string{fmt.Sprintf("runway end %s is in %s but has no card", e.Designator, cur.airfieldSrc)}})
 				}
 			}
@@ -171,7 +191,7 @@ func Stale(dir string, plan *spec.Plan, planDir, version string) (*StaleReport, 
 	for name, e := range planned {
 		if !seen[name] {
 			for _, end := range e.Job.Airfield.Ends() {
-				rep.Stale = append(rep.Stale, StaleCard{File: name, Designator: end.Designator, Reasons: []string{"in the plan but never printed"}})
+				rep.Stale = append(rep.Stale, StaleCard{File: name, Page: end.Designator, Designator: end.Designator, Reasons: []string{"in the plan but never printed"}})
 			}
 		}
 	}
@@ -179,12 +199,68 @@ func Stale(dir string, plan *spec.Plan, planDir, version string) (*StaleReport, 
 		if rep.Stale[i].File != rep.Stale[j].File {
 			return rep.Stale[i].File < rep.Stale[j].File
 		}
-		if rep.Stale[i].Designator != rep.Stale[j].Designator {
-			return rep.Stale[i].Designator < rep.Stale[j].Designator
-		}
 		return rep.Stale[i].Page < rep.Stale[j].Page
 	})
 	return rep, nil
+}
+
+// plannedEntries is what the plan makes now, by file name: printed on the page of
+// each template, and on every page the index records as given with cards --page.
+func plannedEntries(plan *spec.Plan, planDir, dir, version string, idx *Index, rep *StaleReport) (map[string]*Entry, error) {
+	prep, err := Prepare(plan, planDir, dir, version, true)
+	if err != nil {
+		return nil, err
+	}
+	for _, e := range prep.InputErrors {
+		rep.Errors = append(rep.Errors, e.Error())
+	}
+	pages := map[string]bool{}
+	for _, c := range idx.Cards {
+		pages[c.PageOverride] = true
+	}
+	if len(pages) == 0 {
+		pages[""] = true
+	}
+	planned := map[string]*Entry{}
+	for _, name := range sortedKeys(pages) {
+		es := prep.Entries
+		if name != "" {
+			page, err := layout.PageByName(name)
+			if err != nil {
+				rep.Errors = append(rep.Errors, fmt.Sprintf("%s: page %q of cards --page: %v", IndexName, name, err))
+				continue
+			}
+			es = prep.withPage(page)
+		}
+		for _, e := range es {
+			planned[e.Name] = e
+		}
+	}
+	return planned, nil
+}
+
+func sortedKeys(m map[string]bool) []string {
+	out := make([]string, 0, len(m))
+	for k := range m {
+		out = append(out, k)
+	}
+	sort.Strings(out)
+	return out
+}
+
+// fileSHA256 hashes a card file, refusing anything but a regular file (a named pipe
+// planted in its place would block the reader).
+func fileSHA256(path string) (string, error) {
+	f, err := files.OpenRegular(path)
+	if err != nil {
+		return "", err
+	}
+	defer f.Close()
+	h := sha256.New()
+	if _, err := io.Copy(h, f); err != nil {
+		return "", err
+	}
+	return hex.EncodeToString(h.Sum(nil)), nil
 }
 
 // WriteText prints the stale report.
@@ -198,11 +274,7 @@ func (r *StaleReport) WriteText(w io.Writer) error {
 	} else {
 		fmt.Fprintf(b, "%s: %d card(s) no longer match their inputs (of %d checked):\n", r.Dir, len(r.Stale), r.Checked)
 		for _, s := range r.Stale {
-			which := s.Designator
-			if s.Page != "" {
-				which = s.Page
-			}
-			fmt.Fprintf(b, "  %s  runway %s\n", s.File, which)
+			fmt.Fprintf(b, "  %s  runway %s\n", s.File, s.Page)
 			for _, why := range s.Reasons {
 				fmt.Fprintf(b, "      - %s\n", why)
 			}

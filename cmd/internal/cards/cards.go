@@ -13,6 +13,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"regexp"
 	"sort"
 	"strconv"
 	"strings"
@@ -542,6 +543,11 @@ func shortHash(s string) string {
 	return hex.EncodeToString(sum[:])[:12]
 }
 
+// Release drops what Card memoized for the job (its model and the model's reference
+// figures, tens of kilobytes): a batch calls it once the job's PDF is made, so that
+// memory does not grow with every card file. A later Card makes them again.
+func (j *Job) Release() { j.model = nil }
+
 // Rendered is a job's PDF and what went into it.
 type Rendered struct {
 	PDF   []byte
@@ -695,10 +701,21 @@ func WriteAtomic(path string, data []byte) error {
 // do not change with every release.
 const SampleVersion = "sample"
 
+// tempPattern is how kneeprint names its temporary files: ".NAME.kneeprint-DIGITS.tmp"
+// (os.CreateTemp puts the digits in place of the star). IsTemp recognises exactly
+// these, so that clearing a killed run's leftovers never touches a user's own file.
+const tempPattern = ".kneeprint-*.tmp"
+
+var tempName = regexp.MustCompile(`^\..+\.kneeprint-[0-9]+\.tmp$`)
+
+// IsTemp reports whether a file name is one of kneeprint's temporaries (see
+// WriteAtomicCtx).
+func IsTemp(name string) bool { return tempName.MatchString(name) }
+
 // WriteAtomicCtx is WriteAtomic that gives up, leaving nothing behind, when ctx is
 // cancelled before the file is renamed into place.
 func WriteAtomicCtx(ctx context.Context, path string, data []byte) (err error) {
-	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".*.tmp")
+	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+tempPattern)
 	if err != nil {
 		return err
 	}

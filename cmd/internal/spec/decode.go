@@ -8,6 +8,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"gopkg.in/yaml.v3"
 
@@ -76,6 +77,14 @@ func (d *decoder) parseRoot(data []byte) *yaml.Node {
 		d.errorf(nil, "", "file is empty: a kneeprint file starts with a kind: line")
 		return nil
 	}
+	if bytes.HasPrefix(data, []byte{0xFF, 0xFE}) || bytes.HasPrefix(data, []byte{0xFE, 0xFF}) {
+		d.errs = append(d.errs, &FieldError{File: d.file, Line: 1, Column: 1, Msg: "the file is UTF-16: save it as UTF-8"})
+		return nil
+	}
+	if line, col, ok := invalidUTF8(data); ok {
+		d.errs = append(d.errs, &FieldError{File: d.file, Line: line, Column: col, Msg: "not UTF-8 text: save the file as UTF-8 (a kneeprint file is UTF-8)"})
+		return nil
+	}
 	var doc yaml.Node
 	dec := yaml.NewDecoder(bytes.NewReader(data))
 	if err := dec.Decode(&doc); err != nil {
@@ -84,11 +93,7 @@ func (d *decoder) parseRoot(data []byte) *yaml.Node {
 	}
 	var second yaml.Node
 	if err := dec.Decode(&second); err != io.EOF {
-		line := 0
-		if err == nil {
-			line = second.Line
-		}
-		d.errs = append(d.errs, &FieldError{File: d.file, Line: line, Column: 1, Msg: "a kneeprint file holds one YAML document: remove the second (after ---)"})
+		d.errs = append(d.errs, afterDocument(d.file, data, err, &second))
 		return nil
 	}
 	if doc.Kind != yaml.DocumentNode || len(doc.Content) == 0 {
@@ -99,6 +104,72 @@ func (d *decoder) parseRoot(data []byte) *yaml.Node {
 		return nil
 	}
 	return doc.Content[0]
+}
+
+// invalidUTF8 finds the first byte of data that is not part of valid UTF-8 and
+// returns its line and column (in characters, as YAML counts them), both from 1.
+func invalidUTF8(data []byte) (line, col int, found bool) {
+	line, col = 1, 1
+	for i := 0; i < len(data); {
+		r, size := utf8.DecodeRune(data[i:])
+		if r == utf8.RuneError && size <= 1 {
+			return line, col, true
+		}
+		if r == '\n' {
+			line, col = line+1, 1
+		} else {
+			col++
+		}
+		i += size
+	}
+	return 0, 0, false
+}
+
+// afterDocument locates what follows a file's first YAML document: a second document
+// (after ---), or text after the document end marker (...), which the YAML parser
+// reports without a usable line. err and second are the parser's second answer.
+func afterDocument(file string, data []byte, err error, second *yaml.Node) *FieldError {
+	const one = "a kneeprint file holds one YAML document: remove the second"
+	lines := strings.Split(string(data), "\n")
+	started := false // the first document's content has begun
+	for i, l := range lines {
+		t := strings.TrimRight(l, " \t\r")
+		switch {
+		case !started && (t == "" || strings.HasPrefix(strings.TrimSpace(t), "#") || strings.HasPrefix(t, "%")):
+			continue
+		case !started:
+			started = true
+			continue // content, or the first document's own --- start marker
+		case t == "---" || strings.HasPrefix(t, "--- ") || strings.HasPrefix(t, "---\t"):
+			return &FieldError{File: file, Line: i + 1, Column: 1, Msg: one + " (from this --- on)"}
+		case t != "..." && !strings.HasPrefix(t, "... ") && !strings.HasPrefix(t, "...\t"):
+			continue
+		}
+		// The end marker: what follows on its line, then on the lines after it.
+		rest := t[3:]
+		if trimmed := strings.TrimLeft(rest, " \t"); trimmed != "" && !strings.HasPrefix(trimmed, "#") {
+			return &FieldError{File: file, Line: i + 1, Column: 3 + len(rest) - len(trimmed) + 1, Msg: "text after the end of the document (...): remove it"}
+		}
+		for j := i + 1; j < len(lines); j++ {
+			t := strings.TrimRight(lines[j], " \t\r")
+			trimmed := strings.TrimLeft(t, " \t")
+			switch {
+			case trimmed == "" || strings.HasPrefix(trimmed, "#"):
+				continue
+			case t == "---" || strings.HasPrefix(t, "--- ") || strings.HasPrefix(t, "---\t"):
+				return &FieldError{File: file, Line: j + 1, Column: 1, Msg: one + " (from this --- on)"}
+			}
+			return &FieldError{File: file, Line: j + 1, Column: utf8.RuneCountInString(t[:len(t)-len(trimmed)]) + 1, Msg: "text after the end of the document (...): remove it"}
+		}
+		break
+	}
+	// Not found by the scan (a marker inside something unusual): the parser's word.
+	if err == nil {
+		return &FieldError{File: file, Line: second.Line, Column: 1, Msg: one}
+	}
+	fe := yamlError(file, err)
+	fe.Msg = one + ": " + fe.Msg
+	return fe
 }
 
 // yamlError turns a YAML syntax error ("yaml: line 7: ...") into a FieldError.
@@ -291,12 +362,30 @@ func (m *mapping) str(k string, required bool) string {
 		return s[:maxText]
 	}
 	for _, r := range s {
-		if r < 0x20 && r != '\n' && r != '\t' || r == 0x7f {
+		if r < 0x20 && r != '\n' && r != '\t' || r >= 0x7f && r < 0xa0 {
 			m.d.errorf(v, m.field(k), "contains a control character")
+			return ""
+		}
+		if invisible(r) {
+			m.d.errorf(v, m.field(k), "contains an invisible formatting character (%U): retype the text without it", r)
 			return ""
 		}
 	}
 	return s
+}
+
+// invisible reports the formatting characters that change how a text is shown
+// without being seen (Unicode bidirectional controls, UAX #9 sec. 2; zero-width
+// characters and the byte-order mark): refused in every text, where they could make
+// a value read as another.
+func invisible(r rune) bool {
+	switch {
+	case r == 0x061C, r == 0x180E, r == 0xFEFF:
+		return true
+	case r >= 0x200B && r <= 0x200F, r >= 0x202A && r <= 0x202E, r >= 0x2060 && r <= 0x2069:
+		return true
+	}
+	return false
 }
 
 // oneOf reads a text value that must be one of choices.

@@ -128,7 +128,10 @@ func mustReadFile(p string) []byte {
 
 func TestHostileInputs(t *testing.T) {
 	inputs := hostileInputs()
-	require.GreaterOrEqual(t, len(inputs), 40)
+	for _, c := range lineCases() { // hardening_test.go: each also checked for its line
+		inputs[c.name] = c.data
+	}
+	require.GreaterOrEqual(t, len(inputs), 60)
 	for name, data := range inputs {
 		t.Run(name, func(t *testing.T) {
 			doc, err := Parse("hostile.yaml", []byte(data))

@@ -4,10 +4,10 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
-	"os"
 
 	"gopkg.in/yaml.v3"
 
+	"kneeprint/cmd/internal/files"
 	"kneeprint/perf"
 )
 
@@ -50,9 +50,11 @@ func Parse(name string, data []byte) (*Document, error) {
 		case kindNode.Value == string(KindAircraft):
 			doc.Kind = KindAircraft
 			doc.Aircraft = d.aircraft(m)
+			d.checkPrinted(root, KindAircraft)
 		case kindNode.Value == string(KindAirfield):
 			doc.Kind = KindAirfield
 			doc.Airfield = d.airfield(m)
+			d.checkPrinted(root, KindAirfield)
 		case kindNode.Value == string(KindPlan):
 			doc.Kind = KindPlan
 			m.get("kind", true)
@@ -87,9 +89,10 @@ func Load(fsys fs.FS, path string) (*Document, error) {
 	return Parse(path, data)
 }
 
-// LoadFile reads a file by its operating-system path.
+// LoadFile reads a file by its operating-system path. Anything but a regular file (a
+// named pipe, a device, a folder) is refused without being opened for reading.
 func LoadFile(path string) (*Document, error) {
-	f, err := os.Open(path)
+	f, err := files.OpenRegular(path)
 	if err != nil {
 		return nil, err
 	}

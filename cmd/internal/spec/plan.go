@@ -23,6 +23,26 @@ type Plan struct {
 	ValidUntil time.Time // zero: date + the template's valid_days
 	Output     string
 	Sheet      string // "" for one card per page
+
+	// Refs are the files and the folder the plan names, with where it names them, so
+	// that a check of the files can point at the plan's line.
+	Refs []PlanRef
+}
+
+// PlanRef is one file (or the output folder) a plan names, and where.
+type PlanRef struct {
+	List         string // "aircraft", "airfields", "templates" or "output"
+	Index        int    // position in the list
+	Value        string // as written
+	Line, Column int
+}
+
+// Field names the reference as messages do: aircraft[1], output.
+func (r PlanRef) Field() string {
+	if r.List == "output" {
+		return r.List
+	}
+	return fmt.Sprintf("%s[%d]", r.List, r.Index)
 }
 
 // Plan size limits: far above a club's fleet and fields, far below a runaway file.
@@ -35,10 +55,10 @@ const (
 func (d *decoder) plan(m *mapping) *Plan {
 	p := &Plan{}
 	p.Name = m.str("name", true)
-	p.Aircraft = d.strList(m, "aircraft", maxPlanAircraft)
-	p.Airfields = d.strList(m, "airfields", maxPlanAirfields)
+	p.Aircraft = d.strList(m, "aircraft", maxPlanAircraft, &p.Refs)
+	p.Airfields = d.strList(m, "airfields", maxPlanAirfields, &p.Refs)
 	if m.has("templates") {
-		p.Templates = d.strList(m, "templates", maxPlanTemplates)
+		p.Templates = d.strList(m, "templates", maxPlanTemplates, &p.Refs)
 	} else {
 		m.get("templates", false)
 		p.Templates = []string{"a5"}
@@ -52,12 +72,15 @@ func (d *decoder) plan(m *mapping) *Plan {
 		d.errorf(m.vals["valid_until"], "valid_until", "must be after the date")
 	}
 	p.Output = m.str("output", true)
+	if v := m.vals["output"]; v != nil && p.Output != "" {
+		p.Refs = append(p.Refs, PlanRef{List: "output", Value: p.Output, Line: v.Line, Column: v.Column})
+	}
 	p.Sheet = m.oneOf("sheet", false, "a4", "letter")
 	m.finish()
 	return p
 }
 
-func (d *decoder) strList(m *mapping, key string, max int) []string {
+func (d *decoder) strList(m *mapping, key string, max int, refs *[]PlanRef) []string {
 	items := m.list(key, true)
 	if len(items) > max {
 		d.errorf(m.vals[key], key, "%d entries, at most %d accepted", len(items), max)
@@ -77,6 +100,7 @@ func (d *decoder) strList(m *mapping, key string, max int) []string {
 		}
 		seen[it.Value] = i
 		out = append(out, it.Value)
+		*refs = append(*refs, PlanRef{List: key, Index: i, Value: it.Value, Line: it.Line, Column: it.Column})
 	}
 	return out
 }
