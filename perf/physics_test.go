@@ -139,13 +139,15 @@ func TestStaticThrustMomentumTheory(t *testing.T) {
 	assert.InDelta(t, 5055, got, 5, "5055 N (domain notes sec. 4 [calc])")
 }
 
+// demoPhysics is the demo tourer's description (invented demo data) with the
+// starting values of a constant-speed propeller.
 func demoPhysics() *PhysicsModel {
 	return &PhysicsModel{P: Physics{
 		WingAreaM2: 16.2, SpanM: 10.9, WingHeightM: 1.0, CD0: 0.034, Oswald: 0.75,
 		CLGround: 0.3, CLMax: 1.7, PowerW: 134e3, PropDiameterM: 1.93,
-		Propeller: ConstantSpeed, PropEfficiency: 0.72, StaticThrustFac: 0.78,
-		LiftoffFactor: 1.1, RotationS: 1,
-	}}
+		Propeller: ConstantSpeed, PropEfficiency: 0.58, StaticThrustFac: 0.66,
+		RotationS: 1,
+	}, RotateIASMS: 60 * knot, At50ftIASMS: 68 * knot}
 }
 
 func TestPhysicsLiftoffSpeed(t *testing.T) {
