@@ -158,6 +158,10 @@ func Evaluate(k Case) Cell {
 		refCond.Surface, refCond.Condition, refCond.SlopePct = Paved, Dry, 0
 		ref, err = k.Model.Takeoff(refCond)
 	}
+	if err == nil && !(usable(actual) && usable(ref)) {
+		// A model's contract is a positive, finite distance; never print another.
+		err = fmt.Errorf("%w: the model gave no usable distance (%.1f m, %.1f m)", ErrNoData, actual.GroundRollM, actual.To50ftM)
+	}
 	if err != nil {
 		switch {
 		case errors.Is(err, ErrCannotTakeOff):
@@ -183,6 +187,12 @@ func Evaluate(k Case) Cell {
 		c.worsen(Tight, reason{kind: reasonTight, s: c.Limiting, a: c.RequiredM, b: c.AvailableM, c: k.TightMargin})
 	}
 	return c
+}
+
+// usable reports whether r's distances are positive and finite, the ground roll
+// not longer than the distance to 50 ft.
+func usable(r Result) bool {
+	return r.GroundRollM > 0 && r.To50ftM >= r.GroundRollM && !math.IsInf(r.To50ftM, 0) && !math.IsNaN(r.AccelCheckM)
 }
 
 func isReference(c Conditions) bool {
