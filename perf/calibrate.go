@@ -83,6 +83,9 @@ type Calibration struct {
 // ModelLine is how a card names the model: "physics, calibrated to 4 manual points
 // (largest residual 1.2 %)".
 func (c *Calibration) ModelLine() string {
+	if c == nil {
+		return "physics, not calibrated"
+	}
 	noun := "points"
 	if len(c.Points) == 1 {
 		noun = "point"

@@ -138,7 +138,7 @@ func (j *Job) Card(e perf.RunwayEnd) (layout.CardData, *perf.Grid, error) {
 	d.AircraftName, d.Flap = a.Name, a.TakeoffFlap
 	d.ModelName = "flight-manual table"
 	if a.Model == perf.ModelPhysics {
-		d.ModelName = "physics model"
+		d.ModelName = a.Physics.Calibration.ModelLine() // ModelFor refused an uncalibrated one above
 	}
 	d.RotateKIAS = units.Knots(a.RotateIASMS)
 	d.MaxCrosswindKt, d.MaxTailwindKt = units.Knots(a.MaxCrosswindMS), units.Knots(a.MaxTailwindMS)
