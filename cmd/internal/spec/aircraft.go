@@ -536,7 +536,7 @@ func (d *decoder) fitPhysics(a *perf.Aircraft, physNode *yaml.Node, mtowNode *ya
 	if len(d.errs) > 0 {
 		return
 	}
-	if !anchored {
+	if !anchored && a.Model == perf.ModelPhysics {
 		d.warnf(mtowNode, "physics.calibration", "no point is at MTOW on a paved, dry runway: cards, check and grid refuse this profile until the manual's figure there is added")
 	}
 	cal, err := perf.Calibrate(perf.PhysicsModel{P: *p, RotateIASMS: a.RotateIASMS, At50ftIASMS: a.At50ftIASMS}, pts)
