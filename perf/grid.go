@@ -240,7 +240,9 @@ func Evaluate(k Case) Cell {
 }
 
 // takeoff asks the model for conditions cond (and, when the model covers surface or
-// slope, for the paved, dry, level reference) and applies the policy.
+// slope, for the paved, dry, level reference) and applies the policy. A model's
+// contract is a positive, finite distance: any other answer is no data, never a
+// printed figure.
 func takeoff(k Case, cond Conditions) (Result, Requirement, error) {
 	actual, err := k.Model.Takeoff(cond)
 	if err != nil {
@@ -254,7 +256,16 @@ func takeoff(k Case, cond Conditions) (Result, Requirement, error) {
 			return actual, Requirement{}, err
 		}
 	}
+	if !(usable(actual) && usable(ref)) {
+		return actual, Requirement{}, fmt.Errorf("%w: the model gave no usable distance (%.1f m, %.1f m)", ErrNoData, actual.GroundRollM, actual.To50ftM)
+	}
 	return actual, k.Policy.Require(actual, ref, k.End), nil
+}
+
+// usable reports whether r's distances are positive and finite, the ground roll
+// not longer than the distance to 50 ft.
+func usable(r Result) bool {
+	return r.GroundRollM > 0 && r.To50ftM >= r.GroundRollM && !math.IsInf(r.To50ftM, 0) && !math.IsNaN(r.AccelCheckM)
 }
 
 func isReference(c Conditions) bool {

@@ -355,3 +355,40 @@ func TestComputeGridHighestElevation(t *testing.T) {
 	// At QNH 1013.25 hPa the pressure altitude equals the elevation (ISA, ICAO Doc 7488).
 	assert.InDelta(t, 310, g.PressureAltM, 1e-6)
 }
+
+// negativeModel is a broken model: it answers a negative distance.
+type negativeModel struct{}
+
+func (negativeModel) Takeoff(Conditions) (Result, error) {
+	return Result{GroundRollM: -15, To50ftM: -15, Covers: Effects{Surface: true, Slope: true}}, nil
+}
+
+// Issue 14 item 4: with a huge credited headwind cells printed -15 m as go. The grid
+// now gives no data where the model cannot answer (a physics model past half its
+// lift-off speed), and never a distance <= 0 from any model.
+func TestGridNoNonPositiveDistance(t *testing.T) {
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	f := Airfield{ElevationM: 0}
+	end := RunwayEnd{Designator: "09", TORAM: 700, TODAM: 700, ASDAM: 700, Surface: Paved, Condition: Dry}
+	for _, m := range []Model{demoPhysics(), negativeModel{}} {
+		a := testAircraft(m)
+		spec := DefaultGridSpec(a)
+		spec.HeadwindsMS = []float64{0, 20 * knot, 60 * knot, 85 * knot, 150 * knot}
+		g, err := ComputeGrid(a, m, uk, f, end, spec)
+		require.NoError(t, err)
+		for _, blk := range g.Cells {
+			for hi, row := range blk {
+				for _, c := range row {
+					if c.HasDistance {
+						assert.Greater(t, c.To50ftM, 0.0)
+						assert.Greater(t, c.RequiredM, 0.0)
+					}
+					if spec.HeadwindsMS[hi] >= 85*knot {
+						// credited 42.5 kt or more, past half the 60 kt lift-off speed
+						assert.Equal(t, NoData, c.State, "%.0f kt: %v", spec.HeadwindsMS[hi]/knot, c.Reasons())
+					}
+				}
+			}
+		}
+	}
+}

@@ -77,7 +77,18 @@ func ModelFor(a *Aircraft) (Model, error) {
 		if a.Physics == nil {
 			return nil, fmt.Errorf("aircraft %q: physics model selected but no physics section", a.Name)
 		}
-		return &PhysicsModel{P: *a.Physics}, nil
+		if err := a.Physics.Calibration.usable(a.MTOWKg); err != nil {
+			return nil, fmt.Errorf("aircraft %q: %w. A model nobody held against the aircraft's own figures can be optimistic by as much as the whole safety factor, so it gives no card and no answer. "+
+				"Add under physics a calibration list with at least the flight manual's takeoff figures at sea level, MTOW, paved dry, e.g.\n"+
+				"  calibration:\n    - {pressure_altitude: 0 ft, temperature: 15 C, weight: %.0f kg, ground_roll: ... m, to_50ft: ... m}\n"+
+				"and check the fit with kneeprint validate", a.Name, err, a.MTOWKg)
+		}
+		m := &PhysicsModel{P: *a.Physics, RotateIASMS: a.RotateIASMS, At50ftIASMS: a.At50ftIASMS}
+		if a.Table != nil {
+			// The physics was fitted to the table too: never used beyond its range.
+			m.Envelope = TableEnvelope(a.Table)
+		}
+		return m, nil
 	}
 	return nil, fmt.Errorf("aircraft %q: unknown model %q", a.Name, a.Model)
 }

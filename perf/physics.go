@@ -15,6 +15,9 @@ const (
 )
 
 // Physics is the aerodynamic and engine description the physics model integrates.
+// StaticThrustFac and PropEfficiency are the two figures a description cannot know
+// well: once the profile is calibrated (see Calibrate) they hold the fitted values,
+// and Calibration says how they were found.
 type Physics struct {
 	WingAreaM2  float64 // reference wing area S
 	SpanM       float64 // wing span b
@@ -27,11 +30,14 @@ type Physics struct {
 	PowerW          float64       // rated sea-level power of the engine
 	PropDiameterM   float64       // propeller diameter
 	Propeller       PropellerType // fixed pitch or constant speed
-	PropEfficiency  float64       // eta at lift-off speed
+	PropEfficiency  float64       // eta at lift-off speed and in the climb-out
 	StaticThrustFac float64       // static thrust as a fraction of the momentum-theory ideal
 
-	LiftoffFactor float64 // lift-off speed as a multiple of stall speed (1.1, Raymer)
-	RotationS     float64 // rotation time at lift-off speed
+	RotationS float64 // rotation time at lift-off speed
+
+	// Calibration is the fit of StaticThrustFac and PropEfficiency to the flight
+	// manual's figures; nil when the profile has none (ModelFor then refuses it).
+	Calibration *Calibration
 }
 
 // Rolling friction coefficients mu by surface and condition. Source: Raymer, Aircraft
@@ -63,9 +69,66 @@ func rollingFriction(s Surface, c Condition) float64 {
 // PhysicsModel integrates the takeoff from a physics description.
 type PhysicsModel struct {
 	P Physics
+	// RotateIASMS and At50ftIASMS are the flight manual's rotation speed and speed
+	// at the 50 ft screen (indicated); the model flies them, converted to true
+	// airspeed for the day. Both are needed.
+	RotateIASMS, At50ftIASMS float64
+	// Envelope, when set, is the range of a flight-manual table the physics was
+	// fitted to: the model then answers nothing beyond it (see Envelope).
+	Envelope *Envelope
 	// StepMS is the ground-speed step of the ground-run quadrature; zero means
 	// DefaultStepMS.
 	StepMS float64
+}
+
+// Envelope is the range of conditions a model may answer: the axes of the
+// flight-manual table a physics description was fitted to. Above the highest
+// pressure altitude, temperature or weight the answer is no data, never the
+// physics; below the lowest the lowest is used (as the table does: distances rise
+// with each of them, so that is conservative).
+type Envelope struct {
+	MinPressureAltM, MaxPressureAltM float64
+	MinTempK, MaxTempK               float64
+	MinMassKg, MaxMassKg             float64
+}
+
+// TableEnvelope is the range of table t's axes.
+func TableEnvelope(t *Table) *Envelope {
+	if t == nil || len(t.PressureAltM) == 0 || len(t.TempK) == 0 || len(t.WeightKg) == 0 {
+		return nil
+	}
+	return &Envelope{
+		MinPressureAltM: t.PressureAltM[0], MaxPressureAltM: t.PressureAltM[len(t.PressureAltM)-1],
+		MinTempK: t.TempK[0], MaxTempK: t.TempK[len(t.TempK)-1],
+		MinMassKg: t.WeightKg[0], MaxMassKg: t.WeightKg[len(t.WeightKg)-1],
+	}
+}
+
+// clamp applies the envelope to c: ErrNoData above it, the lowest value (with a
+// note) below it.
+func (e *Envelope) clamp(c *Conditions) ([]string, error) {
+	const eps = 1e-9
+	var notes []string
+	axis := func(x *float64, lo, hi float64, name string, show func(float64) string) error {
+		if *x > hi+eps {
+			return fmt.Errorf("%w: %s %s above the table's highest, %s: the physics fitted to it is not used beyond it", ErrNoData, name, show(*x), show(hi))
+		}
+		if *x < lo-eps {
+			notes = append(notes, fmt.Sprintf("%s %s below the table: figures for %s used (conservative)", name, show(*x), show(lo)))
+			*x = lo
+		}
+		return nil
+	}
+	if err := axis(&c.MassKg, e.MinMassKg, e.MaxMassKg, "weight", func(x float64) string { return fmt.Sprintf("%.0f kg", x) }); err != nil {
+		return nil, err
+	}
+	if err := axis(&c.PressureAltM, e.MinPressureAltM, e.MaxPressureAltM, "pressure altitude", func(x float64) string { return fmt.Sprintf("%.0f ft", x/0.3048) }); err != nil {
+		return nil, err
+	}
+	if err := axis(&c.TempK, e.MinTempK, e.MaxTempK, "temperature", func(x float64) string { return fmt.Sprintf("%.0f C", x-273.15) }); err != nil {
+		return nil, err
+	}
+	return notes, nil
 }
 
 // DefaultStepMS is the largest ground-speed step of the ground-run quadrature: 3 m/s
@@ -217,35 +280,59 @@ func groundRun(f *forces, w, vEnd, vMark, step float64, trace func(RunPoint)) (d
 	return s, t, markDist, nil
 }
 
+// MaxWindFraction bounds the credited wind the physics model answers for: a
+// headwind or tailwind of at most half the lift-off true airspeed. Beyond it the
+// steady-wind assumption carries the whole answer (a headwind of the lift-off speed
+// would "lift off" at rest and fly the air segment backwards); flight-manual wind
+// corrections stop far below it (common practice). Past it: no data.
+const MaxWindFraction = 0.5
+
+// minClimbGradient is the smallest excess-thrust ratio (T - D)/W taken as a climb:
+// 0.5 %, about 17 ft/min at 60 kt, which no pilot would call one (common practice).
+const minClimbGradient = 0.005
+
 // Takeoff computes the takeoff with the physics model:
 //
 //   - Atmosphere: density from pressure altitude and temperature (ISA pressure, ideal gas).
 //   - Power lapse (Gagg-Ferrar; Gudmundsson, General Aviation Aircraft Design, sec. 7):
 //     P = P_SL (1.132 sigma - 0.132).
 //   - Static thrust by momentum theory, T_ideal = (2 rho A P^2)^(1/3), times the
-//     profile's static fraction; thrust at speed eta P / V (Gudmundsson ch. 14; Anderson
-//     sec. 3.3); blended linearly in airspeed from the static value at rest to eta P / V_LO
-//     at lift-off, and never above the static value.
-//   - Lift-off airspeed V_LO = k V_stall, V_stall = sqrt(2 W / (rho S CLmax)) in the
-//     takeoff flap (Raymer ch. 17, k = 1.1).
+//     profile's (fitted) static fraction; thrust at speed eta P / V (Gudmundsson
+//     ch. 14; Anderson sec. 3.3); blended linearly in airspeed from the static value
+//     at rest to eta P / V_LO at lift-off, and never above the static value.
+//   - Speeds from the profile: lift-off at the manual's rotation speed, the screen
+//     at its 50 ft speed, both indicated, taken as equivalent airspeed (common
+//     practice at these speeds) and converted to true airspeed for the day,
+//     V_TAS = V_IAS / sqrt(sigma). Never below the stall speed
+//     V_S = sqrt(2 W / (rho S CLmax)) in the takeoff flap: lift-off at max(V_R, V_S),
+//     the screen at max(V_50, V_LO).
 //   - Ground run: groundRun, with ground effect G = (16h/b)^2 / (1 + (16h/b)^2) on the
 //     induced drag (Anderson eq. 6.82), K = 1 / (pi e AR), and mu from rollingFriction.
 //   - Rotation: RotationS seconds at lift-off ground speed (Anderson sec. 6.7: N = 1 s
 //     for small aircraft).
-//   - Airborne to 50 ft (Raymer ch. 17): transition at V_TR = 1.15 V_stall on an arc of
-//     radius R = V_TR^2 / (0.2 g) (load factor 1.2), climb gradient
-//     sin(gamma) = (T - D)/W at V_TR, transition height h_TR = R (1 - cos gamma); if
-//     h_TR >= 50 ft the arc reaches the screen: S_T = sqrt(R^2 - (R - 50 ft)^2), else
-//     S_T = R sin(gamma) plus a straight climb S_C = (50 ft - h_TR) / tan(gamma). The
-//     air distance is scaled by ground speed over airspeed for the wind.
+//   - Airborne to 50 ft: airSegment, the energy method (energy height
+//     h_e = h + V^2/2g gained at (T - D)/W per metre flown), or the transition arc
+//     and climb where that is the longer.
 //
 // The accelerate check distance is where airspeed reaches 0.7 V_LO.
-// Outside the ISA troposphere the answer is ErrNoData; when the aircraft does not
-// accelerate to V_LO or cannot climb, ErrCannotTakeOff.
+// Outside the ISA troposphere, or with a credited wind beyond MaxWindFraction of the
+// lift-off speed, or outside the Envelope, the answer is ErrNoData; when the
+// aircraft does not accelerate to V_LO or cannot climb, ErrCannotTakeOff. Every
+// distance returned is positive and finite.
 func (m *PhysicsModel) Takeoff(c Conditions) (Result, error) {
 	p := m.P
 	var r Result
 	r.Covers = Effects{Surface: true, Slope: true}
+	if m.RotateIASMS <= 0 || m.At50ftIASMS <= 0 {
+		return r, fmt.Errorf("%w: the physics model needs the manual's rotation and 50 ft speeds", ErrNoData)
+	}
+	if m.Envelope != nil {
+		notes, err := m.Envelope.clamp(&c)
+		if err != nil {
+			return r, err
+		}
+		r.Notes = notes
+	}
 	if c.PressureAltM < isaLowestM || c.PressureAltM > TropopauseM {
 		return r, fmt.Errorf("%w: pressure altitude outside the ISA troposphere", ErrNoData)
 	}
@@ -260,7 +347,12 @@ func (m *PhysicsModel) Takeoff(c Conditions) (Result, error) {
 	}
 	w := c.MassKg * StandardGravity
 	vStall := math.Sqrt(2 * w / (rho * p.WingAreaM2 * p.CLMax))
-	vLO := p.LiftoffFactor * vStall
+	tas := 1 / math.Sqrt(sigma)
+	vLO := math.Max(m.RotateIASMS*tas, vStall)
+	v50 := math.Max(m.At50ftIASMS*tas, vLO)
+	if math.Abs(c.HeadwindMS) > MaxWindFraction*vLO {
+		return r, fmt.Errorf("%w: credited wind %.0f kt is beyond what the model answers (half the lift-off speed, %.0f kt)", ErrNoData, math.Abs(c.HeadwindMS)/knot, MaxWindFraction*vLO/knot)
+	}
 	disc := math.Pi * p.PropDiameterM * p.PropDiameterM / 4
 	tStatic := p.StaticThrustFac * math.Cbrt(2*rho*disc*power*power)
 	tLO := p.PropEfficiency * power / vLO
@@ -283,27 +375,74 @@ func (m *PhysicsModel) Takeoff(c Conditions) (Result, error) {
 	if err != nil {
 		return r, err
 	}
-	vgLO := math.Max(vLO-c.HeadwindMS, 0)
-	gr := run + p.RotationS*vgLO
+	gr := run + p.RotationS*(vLO-c.HeadwindMS)
 
-	// Airborne segment.
-	vTR := 1.15 * vStall
-	radius := vTR * vTR / (0.2 * StandardGravity)
-	qTR := 0.5 * rho * vTR * vTR
-	clTR := w / (qTR * p.WingAreaM2)
-	dTR := qTR * p.WingAreaM2 * (p.CD0 + k*clTR*clTR)
-	sinG := (prop.at(vTR) - dTR) / w
-	if sinG <= 0.005 {
-		return r, fmt.Errorf("%w: climb gradient %.1f %% at %.0f kt is too small to reach 50 ft", ErrCannotTakeOff, sinG*100, vTR/knot)
+	air, err := airSegment(climbOut{w: w, rho: rho, s: p.WingAreaM2, cd0: p.CD0, k: k, prop: &prop}, vLO, v50, c.HeadwindMS)
+	if err != nil {
+		return r, err
 	}
-	air := airborneDistance(radius, math.Asin(math.Min(sinG, 0.5)), screenHeightM)
-	air *= (vTR - c.HeadwindMS) / vTR
-
+	to := gr + air
+	// The model's contract: a distance is positive and finite, whatever the inputs.
+	if !(gr > 0) || !(air > 0) || math.IsInf(to, 0) || math.IsNaN(mark) || mark < 0 {
+		return r, fmt.Errorf("%w: the model gave no usable distance here (ground roll %.1f m, air %.1f m)", ErrNoData, gr, air)
+	}
 	r.GroundRollM = gr
-	r.To50ftM = gr + air
+	r.To50ftM = to
 	r.AccelCheckM = mark
 	r.LiftoffTASMS = vLO
 	return r, nil
+}
+
+// climbOut is what the air segment needs: weight, density, wing area, drag polar
+// (out of ground effect, the conservative side) and the propeller.
+type climbOut struct {
+	w, rho, s, cd0, k float64
+	prop              *propThrust
+}
+
+// excess is the excess-thrust ratio (T - D)/W at true airspeed v in steady flight,
+// lift equal to weight: C_L = W / (q S), D = q S (CD0 + K C_L^2).
+func (c climbOut) excess(v float64) float64 {
+	q := 0.5 * c.rho * v * v
+	cl := c.w / (q * c.s)
+	return (c.prop.at(v) - q*c.s*(c.cd0+c.k*cl*cl)) / c.w
+}
+
+// airSegment is the horizontal distance over the ground from lift-off at true
+// airspeed vLO to the 50 ft screen at v50, with headwind w. The energy method: the
+// energy height h_e = h + V^2 / 2g rises by (T - D)/W for every metre flown through
+// the air, since its rate of change, the specific excess power, is V (T - D)/W
+// (Anderson, Aircraft Performance and Design, ch. 5, energy height and specific
+// excess power; Raymer, Aircraft Design, ch. 17, energy methods; from memory of the
+// sections). Over the ground a metre flown is (V - w)/V metres. So
+//
+//	S_A = integral over h_e from 0 to dE of (V - w) / (V r(V)) dh_e,
+//	dE  = 50 ft + (V_50^2 - V_LO^2) / 2g,   r = (T - D)/W at L = W,
+//
+// with V rising linearly in h_e from V_LO to V_50, by Simpson's rule: the harmonic
+// mean of r along the segment, never shorter than dE over the arithmetic mean.
+// The transition arc and straight climb of Raymer (load factor 1.2 at
+// V_TR = (V_LO + V_50)/2, see airborneDistance) is kept where it is the longer: it
+// holds when the 50 ft speed is barely above lift-off, where the energy method
+// would leave out the arc. A ratio below minClimbGradient anywhere: ErrCannotTakeOff.
+func airSegment(c climbOut, vLO, v50, w float64) (float64, error) {
+	vMid := (vLO + v50) / 2
+	vs := [3]float64{vLO, vMid, v50}
+	var f [3]float64
+	for i, v := range vs {
+		r := c.excess(v)
+		if r < minClimbGradient {
+			return 0, fmt.Errorf("%w: climb gradient %.1f %% at %.0f kt is too small to reach 50 ft", ErrCannotTakeOff, r*100, v/knot)
+		}
+		f[i] = (v - w) / (v * r)
+	}
+	dE := screenHeightM + (v50*v50-vLO*vLO)/(2*StandardGravity)
+	energy := dE / 6 * (f[0] + 4*f[1] + f[2])
+
+	radius := vMid * vMid / (0.2 * StandardGravity)
+	gamma := math.Asin(math.Min(c.excess(vMid), 0.5))
+	arc := airborneDistance(radius, gamma, screenHeightM) * (vMid - w) / vMid
+	return math.Max(energy, arc), nil
 }
 
 // airborneDistance is the horizontal distance from lift-off to height screenM along

@@ -79,7 +79,7 @@ func TestGridOutputs(t *testing.T) {
 	var run GridJSONProbe
 	require.NoError(t, json.Unmarshal([]byte(out), &run))
 	require.Len(t, run.Ends, 2)
-	assert.Len(t, run.Ends[0].Cells, 8*7*4)
+	assert.Len(t, run.Ends[0].Cells, 8*7*4) // the demo tourer's 4 weights
 
 	code, _, _ = runCLI(t, append(base, "--runway", "09")...)
 	assert.Equal(t, exitUsage, code)

@@ -3,6 +3,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"math"
 	"strings"
 
 	"github.com/spf13/cobra"
@@ -12,6 +13,10 @@ import (
 	"kneeprint/cmd/internal/units"
 	"kneeprint/perf"
 )
+
+// maxWindKt is the largest wind component grid takes, as check's --wind takes whole
+// knots up to 99 (a routine report's two-digit speed, ICAO Annex 3).
+const maxWindKt = 99
 
 type gridOptions struct {
 	aircraft, airfield string
@@ -80,6 +85,13 @@ func gridRun(e env, opts *gridOptions) error {
 	}
 	if spec.HeadwindsMS, err = quantityList("winds", opts.winds, units.Speed); err != nil {
 		return err
+	}
+	for _, w := range spec.HeadwindsMS {
+		// The same bound as check's --wind; within it, a wind the model cannot
+		// answer (a physics model past half its lift-off speed) is a no-data cell.
+		if math.Abs(w) > maxWindKt*units.MetresPerSecPerKnot+1e-9 {
+			return fmt.Errorf("--winds: %.0f kt is beyond %d kt either way, the largest wind kneeprint takes", units.Knots(w), maxWindKt)
+		}
 	}
 	if opts.weights != "" {
 		if spec.WeightsKg, err = quantityList("weights", opts.weights, units.Mass); err != nil {

@@ -182,7 +182,7 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 	d.AircraftName, d.Flap = a.Name, a.TakeoffFlap
 	d.ModelName = "flight-manual table"
 	if a.Model == perf.ModelPhysics {
-		d.ModelName = "physics model"
+		d.ModelName = a.Physics.Calibration.ModelLine() // ModelFor refused an uncalibrated one above
 	}
 	var covers perf.Effects
 	limiting := map[string]int{}

@@ -53,7 +53,8 @@ func TestShorterRunwayChangesOnlyThatEnd(t *testing.T) {
 		assert.Equal(t, "07", c.Designator)
 		assert.Greater(t, order[c.New], order[c.Old], "a shorter runway never improves a cell: %s", c)
 	}
-	// 4 runway ends x 7 winds x 8 temperatures x (3 + 4) weights.
+	// 4 runway ends x 7 winds x 8 temperatures x (3 + 4) weights: the trainer's 3,
+	// the tourer's 4.
 	assert.Equal(t, 4*7*8*7, rep.CellsCompared)
 
 	var buf bytes.Buffer

@@ -1,6 +1,7 @@
 package spec
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"sort"
@@ -30,17 +31,20 @@ const (
 const (
 	// Most light-aircraft manuals give tailwind corrections up to 10 kt (from memory).
 	defaultMaxTailwindKt = 10
-	// Lift-off at 1.1 V_stall (Raymer, Aircraft Design, ch. 17; Anderson sec. 6.7).
-	defaultLiftoffFactor = 1.1
 	// About one second of rotation for small aircraft (from memory; domain notes).
 	defaultRotationS = 1.0
-	// Static thrust as a fraction of momentum-theory ideal: real propellers reach
-	// 0.6 to 0.85 of it (from memory).
-	defaultStaticFixed    = 0.70
-	defaultStaticConstant = 0.80
-	// Propeller efficiency near lift-off speed (from memory).
-	defaultEtaFixed    = 0.65
-	defaultEtaConstant = 0.72
+	// Starting values of the calibration fit, never used on a card by themselves.
+	// Static thrust as a fraction of the momentum-theory ideal: a fixed-pitch
+	// propeller, pitched for climb or cruise, is partly stalled at rest, 0.55 to 0.6;
+	// a constant-speed propeller in fine pitch somewhat higher (from memory).
+	defaultStaticFixed    = 0.58
+	defaultStaticConstant = 0.66
+	// Propeller efficiency near lift-off speed: 0.5 to 0.55 for a fixed pitch,
+	// somewhat higher for a constant speed (from memory).
+	defaultEtaFixed    = 0.52
+	defaultEtaConstant = 0.58
+	// maxExplicitPoints bounds the calibration points a profile lists by hand.
+	maxExplicitPoints = 50
 )
 
 func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
@@ -85,7 +89,8 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 		d.notef("weights not given: cards show the MTOW only")
 	}
 
-	sp := d.mapping(m.get("speeds", false), "speeds")
+	speedsNode := m.get("speeds", false)
+	sp := d.mapping(speedsNode, "speeds")
 	a.RotateIASMS, _ = sp.quantity("rotation", units.Speed, false, 10*units.MetresPerSecPerKnot, maxSpeedMS)
 	a.At50ftIASMS, _ = sp.quantity("at_50ft", units.Speed, false, 10*units.MetresPerSecPerKnot, maxSpeedMS)
 	sp.finish()
@@ -146,6 +151,9 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 		}
 		a.Physics.CLMax = cl
 	}
+	if a.Physics != nil {
+		d.speedsForPhysics(a, root, speedsNode, sp)
+	}
 
 	// Declared operating temperature limits. Past them a cell is beyond limits; where
 	// the data end (a table's hottest column) a cell has no data, which is no limit.
@@ -171,6 +179,9 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 		d.notef("limits: no operating temperature limits declared")
 	}
 	m.finish()
+	if a.Physics != nil && len(d.errs) == 0 {
+		d.fitPhysics(a, physNode, m.vals["mtow"])
+	}
 	return a
 }
 
@@ -280,6 +291,7 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 		}
 		if ok3 {
 			d.monotone(t, nodes)
+			d.tableNodes = nodes // for a physics fit to the table
 		}
 		if mtow > 0 && len(t.WeightKg) > 0 && t.WeightKg[len(t.WeightKg)-1] < mtow-1e-9 {
 			d.notef("table: heaviest block %.0f kg is below the MTOW %.0f kg: heavier cells have no data", t.WeightKg[len(t.WeightKg)-1], mtow)
@@ -414,30 +426,29 @@ func (d *decoder) physics(n *yaml.Node) *perf.Physics {
 	pm := d.mapping(m.get("propeller", true), "physics.propeller")
 	p.Propeller = perf.PropellerType(pm.oneOf("type", true, string(perf.FixedPitch), string(perf.ConstantSpeed)))
 	p.PropDiameterM, _ = pm.quantity("diameter", units.Length, true, 1, 3.5)
-	if v, ok := pm.number("efficiency", false, 0.3, 0.92); ok {
+	// Both figures only start the calibration fit, which keeps them within these
+	// physical bounds (perf.MinPropEfficiency...).
+	if v, ok := pm.number("efficiency", false, perf.MinPropEfficiency, perf.MaxPropEfficiency); ok {
 		p.PropEfficiency = v
 	} else if !pm.has("efficiency") {
 		p.PropEfficiency = defaultEtaFixed
 		if p.Propeller == perf.ConstantSpeed {
 			p.PropEfficiency = defaultEtaConstant
 		}
-		d.notef("physics.propeller.efficiency not given: %.2f assumed for a %s propeller (from memory)", p.PropEfficiency, p.Propeller)
+		d.notef("physics.propeller.efficiency not given: the fit starts from the default %.2f for a %s propeller (from memory)", p.PropEfficiency, p.Propeller)
 	}
-	if v, ok := pm.number("static_thrust_fraction", false, 0.4, 0.95); ok {
+	if v, ok := pm.number("static_thrust_fraction", false, perf.MinStaticThrustFrac, perf.MaxStaticThrustFrac); ok {
 		p.StaticThrustFac = v
 	} else if !pm.has("static_thrust_fraction") {
 		p.StaticThrustFac = defaultStaticFixed
 		if p.Propeller == perf.ConstantSpeed {
 			p.StaticThrustFac = defaultStaticConstant
 		}
-		d.notef("physics.propeller.static_thrust_fraction not given: %.2f of the momentum-theory ideal assumed (from memory)", p.StaticThrustFac)
+		d.notef("physics.propeller.static_thrust_fraction not given: the fit starts from the default %.2f of the momentum-theory ideal for a %s propeller (from memory)", p.StaticThrustFac, p.Propeller)
 	}
 	pm.finish()
-	if v, ok := m.number("liftoff_factor", false, 1.05, 1.3); ok {
-		p.LiftoffFactor = v
-	} else if !m.has("liftoff_factor") {
-		p.LiftoffFactor = defaultLiftoffFactor
-		d.notef("physics.liftoff_factor not given: lift-off at %.1f x stall speed (Raymer)", defaultLiftoffFactor)
+	if m.get("liftoff_factor", false) != nil {
+		d.errorf(m.vals["liftoff_factor"], "physics.liftoff_factor", "no longer used: the physics model lifts off at the manual's speeds.rotation and reaches 50 ft at speeds.at_50ft; remove this line")
 	}
 	if v, ok := m.quantity("rotation_time", units.Duration, false, 0, 5); ok {
 		p.RotationS = v
@@ -445,6 +456,7 @@ func (d *decoder) physics(n *yaml.Node) *perf.Physics {
 		p.RotationS = defaultRotationS
 		d.notef("physics.rotation_time not given: %.0f s assumed", defaultRotationS)
 	}
+	d.calibration(m)
 	m.finish()
 	return p
 }
@@ -472,5 +484,175 @@ func (d *decoder) crosswindLimits(lim *mapping, a *perf.Aircraft) {
 	}
 	if x, ok := d.quantity(v, "limits.max_crosswind", units.Speed, 1*kt, 60*kt); ok {
 		a.MaxCrosswindMS, a.HasMaxCrosswind = x, true
+	}
+}
+
+// calibPoint is a calibration point as read, with the nodes its figures came from.
+type calibPoint struct {
+	p            perf.CalibrationPoint
+	label        string     // for validate: "calibration[0]" or "table 1150 kg, 2000 ft, 20 C"
+	grAt, toAt   *yaml.Node // where the ground roll and the distance to 50 ft were read
+	grFld, toFld string     // their field paths
+}
+
+// calibration reads physics.calibration: the flight manual's figures the physics is
+// fitted to.
+func (d *decoder) calibration(m *mapping) {
+	items := m.list("calibration", false)
+	if len(items) > maxExplicitPoints {
+		d.errorf(m.vals["calibration"], "physics.calibration", "%d points, at most %d: a few well-chosen manual figures are enough (a whole table goes under table:)", len(items), maxExplicitPoints)
+		return
+	}
+	for i, it := range items {
+		path := fmt.Sprintf("physics.calibration[%d]", i)
+		pm := d.mapping(it, path)
+		var cp calibPoint
+		cp.label = fmt.Sprintf("calibration[%d]", i)
+		c := &cp.p.Conditions
+		okPA, okT, okW := false, false, false
+		c.PressureAltM, okPA = pm.quantity("pressure_altitude", units.Length, true, minTableAltM, maxTableAltM)
+		c.TempK, okT = pm.quantity("temperature", units.Temperature, true, minDataTempK, maxDataTempK)
+		c.MassKg, okW = pm.quantity("weight", units.Mass, true, minMassKg, maxMassKg)
+		c.Surface = perf.Paved
+		if pm.has("surface") {
+			c.Surface = perf.Surface(pm.oneOf("surface", false, string(perf.Paved), string(perf.Grass), string(perf.Gravel)))
+		} else {
+			pm.get("surface", false)
+		}
+		c.Condition = perf.Dry
+		if pm.has("condition") {
+			c.Condition = perf.Condition(pm.oneOf("condition", false, string(perf.Dry), string(perf.Wet)))
+		} else {
+			pm.get("condition", false)
+		}
+		c.HeadwindMS, _ = pm.quantity("headwind", units.Speed, false, -30*units.MetresPerSecPerKnot, 30*units.MetresPerSecPerKnot)
+		pm.str("source", false)
+		gr, okGR := pm.quantity("ground_roll", units.Length, false, 1, maxDistanceM)
+		to, okTo := pm.quantity("to_50ft", units.Length, false, 1, maxDistanceM)
+		if !pm.has("ground_roll") && !pm.has("to_50ft") && it.Kind == yaml.MappingNode {
+			d.errorf(it, path, "a calibration point needs the manual's ground_roll, to_50ft or both")
+		}
+		if okGR && okTo && to <= gr {
+			d.errorf(pm.vals["to_50ft"], path+".to_50ft", "distance to 50 ft is not longer than the ground roll")
+		}
+		pm.finish()
+		if !(okPA && okT && okW) || (!okGR && !okTo) {
+			continue
+		}
+		if okGR {
+			cp.p.GroundRollM, cp.grAt, cp.grFld = gr, pm.vals["ground_roll"], path+".ground_roll"
+		}
+		if okTo {
+			cp.p.To50ftM, cp.toAt, cp.toFld = to, pm.vals["to_50ft"], path+".to_50ft"
+		}
+		d.calib = append(d.calib, cp)
+	}
+}
+
+// fitPhysics fits a's physics to its calibration points and, when it has both, to
+// every cell of its table (perf.Calibrate). A refused fit is an error at each figure
+// too far off and at the physics section for a parameter on a bound; a profile with
+// nothing to fit to is only warned about here: cards, check and grid refuse it.
+func (d *decoder) fitPhysics(a *perf.Aircraft, physNode *yaml.Node, mtowNode *yaml.Node) {
+	p := a.Physics
+	if a.Table != nil && d.tableNodes[0] != nil {
+		t := a.Table
+		for wi, w := range t.WeightKg {
+			for pi, pa := range t.PressureAltM {
+				for ti, tk := range t.TempK {
+					var cp calibPoint
+					cp.p = perf.CalibrationPoint{
+						Conditions:  perf.Conditions{PressureAltM: pa, TempK: tk, MassKg: w, Surface: perf.Paved, Condition: perf.Dry},
+						GroundRollM: t.GroundRollM[wi][pi][ti], To50ftM: t.To50ftM[wi][pi][ti], FromTable: true,
+					}
+					cp.label = fmt.Sprintf("table %.0f kg, %.0f ft, %.0f C", w, units.Feet(pa), units.Celsius(tk))
+					where := fmt.Sprintf("table.weights (%.0f kg).%%s[%d][%d]", w, pi, ti)
+					cp.grAt, cp.grFld = d.tableNodes[0][wi][pi][ti], fmt.Sprintf(where, "ground_roll")
+					cp.toAt, cp.toFld = d.tableNodes[1][wi][pi][ti], fmt.Sprintf(where, "to_50ft")
+					d.calib = append(d.calib, cp)
+				}
+			}
+		}
+	}
+	if len(d.calib) == 0 {
+		d.warnf(physNode, "physics.calibration", "not calibrated: cards, check and grid refuse this profile until it lists the flight manual's figures (at least sea level, MTOW, paved dry) under physics.calibration")
+		return
+	}
+	if len(d.calib) > perf.MaxCalibrationPoints {
+		d.errorf(physNode, "physics", "%d points to fit (calibration points and table cells), at most %d", len(d.calib), perf.MaxCalibrationPoints)
+		return
+	}
+	anchored := false
+	pts := make([]perf.CalibrationPoint, len(d.calib))
+	for i, cp := range d.calib {
+		pts[i] = cp.p
+		anchored = anchored || perf.IsAnchor(cp.p, a.MTOWKg)
+		if cp.p.Conditions.MassKg > a.MTOWKg+1e-9 {
+			at, fld := cp.grAt, cp.grFld
+			if at == nil {
+				at, fld = cp.toAt, cp.toFld
+			}
+			d.errorf(at, fld, "the point's weight %.0f kg is above the MTOW %.0f kg", cp.p.Conditions.MassKg, a.MTOWKg)
+		}
+	}
+	if len(d.errs) > 0 {
+		return
+	}
+	if !anchored && a.Model == perf.ModelPhysics {
+		d.warnf(mtowNode, "physics.calibration", "no point is at MTOW on a paved, dry runway: cards, check and grid refuse this profile until the manual's figure there is added")
+	}
+	cal, err := perf.Calibrate(perf.PhysicsModel{P: *p, RotateIASMS: a.RotateIASMS, At50ftIASMS: a.At50ftIASMS}, pts)
+	var fe *perf.FitError
+	switch {
+	case errors.As(err, &fe):
+		for _, pr := range fe.Problems {
+			if pr.Point < 0 {
+				d.errorf(physNode, "physics.propeller", "%s", pr.Msg)
+				continue
+			}
+			cp := d.calib[pr.Point]
+			at, fld := cp.grAt, cp.grFld
+			if pr.Figure == "to_50ft" || at == nil {
+				at, fld = cp.toAt, cp.toFld
+			}
+			msg := pr.Msg
+			if cp.p.FromTable {
+				msg += ": a cell far off a smooth fit is often a typing slip; check it against the manual"
+			}
+			d.errorf(at, fld, "%s", msg)
+		}
+		return
+	case err != nil:
+		d.errorf(physNode, "physics", "%v", err)
+		return
+	}
+	p.StaticThrustFac, p.PropEfficiency, p.Calibration = cal.Static, cal.Eta, cal
+}
+
+// speedsForPhysics checks the speeds the physics model flies: both given, the 50 ft
+// speed not below rotation, rotation not below the stall speed the description
+// gives at MTOW at sea level (a slip in wing area, CLmax or a speed).
+func (d *decoder) speedsForPhysics(a *perf.Aircraft, root, speedsNode *yaml.Node, sp *mapping) {
+	for _, k := range []struct {
+		key string
+		v   float64
+	}{{"rotation", a.RotateIASMS}, {"at_50ft", a.At50ftIASMS}} {
+		if k.v == 0 && !sp.has(k.key) {
+			at := speedsNode
+			if at == nil {
+				at = root
+			}
+			d.errorf(at, "speeds."+k.key, "the physics model flies the manual's speeds: speeds.%s is needed (indicated airspeed, e.g. 60 kt)", k.key)
+		}
+	}
+	if a.RotateIASMS > 0 && a.At50ftIASMS > 0 && a.At50ftIASMS < a.RotateIASMS {
+		d.errorf(sp.vals["at_50ft"], "speeds.at_50ft", "the 50 ft speed is below the rotation speed")
+	}
+	p := a.Physics
+	if a.RotateIASMS > 0 && a.MTOWKg > 0 && p.WingAreaM2 > 0 && p.CLMax > 0 {
+		vs := math.Sqrt(2 * a.MTOWKg * perf.StandardGravity / (perf.DensityKgM3(0, perf.ISASeaLevelTempK) * p.WingAreaM2 * p.CLMax))
+		if a.RotateIASMS < vs {
+			d.errorf(sp.vals["rotation"], "speeds.rotation", "%.0f kt is below the stall speed %.0f kt that wing_area, the takeoff flap's clmax and the MTOW give at sea level: check them", units.Knots(a.RotateIASMS), units.Knots(vs))
+		}
 	}
 }

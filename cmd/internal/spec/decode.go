@@ -29,6 +29,10 @@ type decoder struct {
 	warns []string
 
 	suppressed int // errors past maxErrors
+
+	// An aircraft's calibration points, and the nodes of its table's cells.
+	calib      []calibPoint
+	tableNodes [2][][][]*yaml.Node
 }
 
 // result returns the errors, with a last line counting those not listed.

@@ -75,6 +75,7 @@ name: P
 type: P
 mtow: 1200 kg
 limits: {demonstrated_crosswind: 15 kt}
+speeds: {rotation: 60 kt, at_50ft: 66 kt}
 takeoff_flap: "0"
 flaps: [{name: "0", clmax: 1.5}]
 physics:
@@ -86,7 +87,6 @@ physics:
   cl_ground_run: 0.3
   power: 120 kW
   propeller: {type: fixed_pitch, diameter: 1.85 m, efficiency: 0.65, static_thrust_fraction: 0.7}
-  liftoff_factor: 1.1
   rotation_time: 1 s
 `
 

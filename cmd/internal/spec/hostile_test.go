@@ -39,6 +39,9 @@ func hostileInputs() map[string]string {
 		b.WriteString("]\n  weights: []\n")
 		return b.String()
 	}
+	physics := "kind: aircraft\nname: T\ntype: T\nmtow: 1250 kg\nspeeds: {rotation: 60 kt, at_50ft: 68 kt}\nlimits: {max_crosswind: 15 kt}\ntakeoff_flap: \"10\"\nflaps: [{name: \"10\", clmax: 1.7}]\n" +
+		"physics:\n  wing_area: 16.2 m2\n  span: 10.9 m\n  wing_height: 1 m\n  cd0: 0.034\n  oswald: 0.75\n  cl_ground_run: 0.3\n  power: 134 kW\n  propeller: {type: constant_speed, diameter: 1.93 m}\n  calibration:\n"
+	point := "    - {pressure_altitude: 0 ft, temperature: 15 C, weight: 1250 kg, ground_roll: 295 m, to_50ft: 520 m}\n"
 	manyRunways := "kind: airfield\nname: X\nident: XX\nelevation: 1 m\nrunways:\n" + strings.Repeat("  - {surface: paved, ends: [{designator: \"09\", tora: 1 m}]}\n", 5000)
 	return map[string]string{
 		"empty":               "",
@@ -89,6 +92,10 @@ func hostileInputs() map[string]string {
 		"ends is a mapping":     strings.Replace(okAirfield, "    ends:\n      - designator: \"09\"\n        tora: 800 m\n", "    ends: {designator: \"09\"}\n", 1),
 		"5000 runways":          manyRunways,
 		"table too large":       table(80),
+		"51 calibration points": physics + strings.Repeat(point, 51),
+		"calibration nan":       physics + strings.Replace(point, "520 m", ".nan m", 1),
+		"calibration 1e308":     physics + strings.Replace(point, "295 m", "1e308 m", 1),
+		"calibration is a map":  physics + "    {a: b}\n",
 		"duplicate deep key":    strings.Replace(okAirfield, "        tora: 800 m\n", "        tora: 800 m\n        tora: 900 m\n", 1),
 		"unterminated string":   "kind: airfield\nname: \"unterminated\n",
 		"unterminated flow":     "kind: airfield\nname: [a, b\n",

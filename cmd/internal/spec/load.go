@@ -31,6 +31,8 @@ type Document struct {
 	Plan     *Plan
 	Defaults []string // defaults applied, one sentence each
 	Warnings []string // things that are legal but look wrong
+
+	calib []calibPoint // an aircraft's calibration points as read, for the residual table
 }
 
 // Parse reads one kneeprint file's bytes. name is used in messages. The error, when
@@ -68,6 +70,7 @@ func Parse(name string, data []byte) (*Document, error) {
 		}
 	}
 	doc.Defaults, doc.Warnings = d.notes, d.warns
+	doc.calib = d.calib
 	if err := d.result().Err(); err != nil {
 		return doc, err
 	}

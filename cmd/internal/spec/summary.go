@@ -5,6 +5,8 @@ import (
 	"io"
 	"strings"
 
+	"gopkg.in/yaml.v3"
+
 	"kneeprint/cmd/internal/units"
 	"kneeprint/perf"
 )
@@ -28,6 +30,7 @@ func Summarize(w io.Writer, doc *Document) {
 				warnings = append(append([]string(nil), warnings...), doc.Path+": "+ref.Warning)
 			}
 		}
+		summarizeFit(w, doc)
 	case doc.Template != nil:
 		summarizeTemplate(w, doc.Template)
 	case doc.Plan != nil:
@@ -106,8 +109,54 @@ func summarizeAircraft(w io.Writer, a *perf.Aircraft) {
 		}
 	}
 	if p := a.Physics; p != nil {
-		fmt.Fprintf(w, "  physics: S %.1f m², b %.1f m, h %.1f m, CD0 %.3f, e %.2f, CL ground %.2f, CLmax %.2f, P %.0f kW, %s propeller %.2f m (eta %.2f, static %.2f of ideal)\n",
-			p.WingAreaM2, p.SpanM, p.WingHeightM, p.CD0, p.Oswald, p.CLGround, p.CLMax, p.PowerW/1000, p.Propeller, p.PropDiameterM, p.PropEfficiency, p.StaticThrustFac)
+		fmt.Fprintf(w, "  physics: S %.1f m², b %.1f m, h %.1f m, CD0 %.3f, e %.2f, CL ground %.2f, CLmax %.2f, P %.0f kW, %s propeller %.2f m, rotation %.0f s\n",
+			p.WingAreaM2, p.SpanM, p.WingHeightM, p.CD0, p.Oswald, p.CLGround, p.CLMax, p.PowerW/1000, p.Propeller, p.PropDiameterM, p.RotationS)
+	}
+}
+
+// summarizeFit prints the physics calibration: the fitted parameters, where the fit
+// started, and every figure's residual with the file:line it was read from (for a
+// table, the residual map cell by cell).
+func summarizeFit(w io.Writer, doc *Document) {
+	p := doc.Aircraft.Physics
+	if p == nil {
+		return
+	}
+	c := p.Calibration
+	if c == nil {
+		fmt.Fprintf(w, "  physics NOT CALIBRATED (static thrust fraction %.2f, propeller efficiency %.2f as written or by default): cards, check and grid refuse it\n", p.StaticThrustFac, p.PropEfficiency)
+		return
+	}
+	fmt.Fprintf(w, "  physics calibrated to %d point(s), %d figure(s) (Nelder-Mead, %d model evaluations):\n", len(c.Points), c.Figures(), c.Evaluations)
+	fmt.Fprintf(w, "    static thrust fraction %.3f (fit started from %.2f; bounds %.2f to %.2f)\n", c.Static, c.StartStatic, perf.MinStaticThrustFrac, perf.MaxStaticThrustFrac)
+	fmt.Fprintf(w, "    propeller efficiency   %.3f (fit started from %.2f; bounds %.2f to %.2f)\n", c.Eta, c.StartEta, perf.MinPropEfficiency, perf.MaxPropEfficiency)
+	fmt.Fprintf(w, "    largest residual %.1f %% (at most %.0f %% accepted); residuals, model against manual:\n", c.LargestPct, perf.CalibrationTolerancePct)
+	for i, cp := range doc.calib {
+		if i >= len(c.Fits) {
+			break
+		}
+		f := c.Fits[i]
+		cond := cp.p.Conditions
+		what := cp.label
+		if !cp.p.FromTable {
+			wind := "calm"
+			if cond.HeadwindMS != 0 {
+				wind = fmt.Sprintf("headwind %+.0f kt", units.Knots(cond.HeadwindMS))
+			}
+			what = fmt.Sprintf("%s %.0f ft, %.0f C, %.0f kg, %s %s, %s", cp.label, units.Feet(cond.PressureAltM), units.Celsius(cond.TempK), cond.MassKg, cond.Surface, cond.Condition, wind)
+		}
+		row := func(at *yaml.Node, name string, manual, model, pct float64) {
+			if at == nil {
+				return
+			}
+			if f.Err != "" {
+				fmt.Fprintf(w, "    %s:%d:%d  %s, %s %.0f m: no figure (%s)\n", doc.Path, at.Line, at.Column, what, name, manual, f.Err)
+				return
+			}
+			fmt.Fprintf(w, "    %s:%d:%d  %s, %s %.0f m, fit %.0f m, %+.1f %%\n", doc.Path, at.Line, at.Column, what, name, manual, model, pct)
+		}
+		row(cp.grAt, "ground roll", cp.p.GroundRollM, f.GroundRollM, f.GroundRollPct)
+		row(cp.toAt, "to 50 ft", cp.p.To50ftM, f.To50ftM, f.To50ftPct)
 	}
 }
 
