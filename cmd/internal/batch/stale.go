@@ -165,7 +165,7 @@ func Stale(dir string, plan *spec.Plan, planDir, version string, today time.Time
 						what = append(what, fmt.Sprintf("%s %s -> %s", fc.Field, fc.Old, fc.New))
 					}
 					if len(what) == 0 {
-						what = append(what, "airfield name, identifier or elevation")
+						what = append(what, "airfield name, identifier or elevation, or the runway's other threshold elevation")
 					}
 					reasons = append(reasons, fmt.Sprintf("runway end %s changed in %s: %s", ie.Designator, cur.airfieldSrc, strings.Join(what, ", ")))
 				}

@@ -481,13 +481,17 @@ func CombineFingerprint(aircraft, end, template, version string) string {
 func AircraftHash(a *perf.Aircraft) string { return canonicalHash(a) }
 
 // EndHash is a short hash of what a runway end's card depends on in the airfield file:
-// the airfield's name, identifier and elevation, and the end itself.
+// the airfield's name, identifier and elevation, the elevation its pressure altitude
+// is taken at, and the end itself.
 func EndHash(f *perf.Airfield, e perf.RunwayEnd) string {
 	return canonicalHash(struct {
 		Name, Ident string
 		ElevationM  float64
-		End         perf.RunwayEnd
-	}{f.Name, f.Ident, f.ElevationM, e})
+		// The elevation the end's figures use: the highest of the aerodrome and the
+		// runway's thresholds, so the other end's threshold counts too.
+		TakeoffElevationM float64
+		End               perf.RunwayEnd
+	}{f.Name, f.Ident, f.ElevationM, perf.TakeoffElevationM(*f, e), e})
 }
 
 // TemplateHash is a short hash of a card template and the page it is printed on.

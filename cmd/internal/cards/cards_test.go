@@ -189,6 +189,21 @@ func TestFingerprintFollowsInputs(t *testing.T) {
 	assert.Equal(t, fp, j2.Fingerprint(e), "the print date is not an input")
 }
 
+// A runway end's figures use the pressure altitude at the highest of the aerodrome
+// elevation and the runway's thresholds (perf.TakeoffElevationM): raising the other
+// end's threshold changes this end's card, so it must change its fingerprint too.
+func TestFingerprintFollowsTheOtherThreshold(t *testing.T) {
+	j := demoJobs(t, "a5")[0]
+	f := *j.Airfield
+	f.Runways = append([]perf.Runway(nil), f.Runways...)
+	r := f.Runways[0]
+	r.Ends = append([]perf.RunwayEnd(nil), r.Ends...)
+	f.Runways[0] = r
+	before := EndHash(&f, r.Ends[0])
+	r.Ends[1].ElevationM = f.ElevationM + 30 // 30 m above the aerodrome elevation
+	assert.NotEqual(t, before, EndHash(&f, r.Ends[0]), "the other threshold sets this end's pressure altitude")
+}
+
 func TestSlug(t *testing.T) {
 	for in, want := range map[string]string{
 		"KP-WRM": "kp-wrm", "../../etc/passwd": "etc-passwd", "Sedgefin SF-2 demo trainer": "sedgefin-sf-2-demo-trainer",
