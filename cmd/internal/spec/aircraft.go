@@ -617,7 +617,7 @@ func (d *decoder) fitPhysics(a *perf.Aircraft, physNode *yaml.Node, mtowNode *ya
 			}
 			msg := pr.Msg
 			if cp.p.FromTable {
-				msg += ": a cell far off a smooth fit is often a typing slip; check it against the manual"
+				msg += ": a cell far off a smooth fit is often a typing slip; check it against the manual (if the manual does print this figure, the physics description cannot follow the table: correct the description or remove the physics section, and the cards use the table)"
 			}
 			d.errorf(at, fld, "%s", msg)
 		}
