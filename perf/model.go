@@ -65,6 +65,16 @@ func WindFactoringIncluded(m Model) bool {
 	return ok && wf.WindFactoringIncluded()
 }
 
+// ModelLine names the model a profile's figures come from, as a card and a report
+// print it: "flight-manual table", or "physics, calibrated to 4 manual points (largest
+// residual 1.3 %)".
+func ModelLine(a *Aircraft) string {
+	if a.Model == ModelPhysics && a.Physics != nil {
+		return a.Physics.Calibration.ModelLine()
+	}
+	return "flight-manual table"
+}
+
 // ModelFor returns the takeoff model the aircraft's profile selects.
 func ModelFor(a *Aircraft) (Model, error) {
 	switch a.Model {

@@ -214,7 +214,15 @@ func PolicyIDs() []string {
 }
 
 // SurfaceFactor is the policy's factor for a surface and condition.
-func (p Policy) SurfaceFactor(s Surface, c Condition) Factor { return p.surface(s, c) }
+// An unpaved surface other than grass (gravel) takes the grass factor, named as such:
+// "unpaved, dry (grass factor)", never "dry grass".
+func (p Policy) SurfaceFactor(s Surface, c Condition) Factor {
+	f := p.surface(s, c)
+	if s != Paved && s != Grass {
+		f.Name = fmt.Sprintf("unpaved, %s (grass factor)", c)
+	}
+	return f
+}
 
 // SlopeFactor is the policy's factor for a slope in percent (uphill positive).
 func (p Policy) SlopeFactor(pct float64) Factor { return p.slope(pct) }
@@ -266,7 +274,7 @@ type Requirement struct {
 // A policy with several rules is met by any of them: the rule whose worst check has
 // the smallest required/available ratio is used (it passes whenever any rule passes).
 func (p Policy) Require(actual, ref Result, e RunwayEnd) Requirement {
-	fs, fsl := p.surface(e.Surface, e.Condition), p.slope(e.SlopePct)
+	fs, fsl := p.SurfaceFactor(e.Surface, e.Condition), p.slope(e.SlopePct)
 	uncovered := 1.0
 	if !actual.Covers.Surface {
 		uncovered *= fs.Value

@@ -162,3 +162,20 @@ func TestUnknownPolicy(t *testing.T) {
 	_, err := PolicyByID("lenient")
 	assert.ErrorContains(t, err, "known policies are eu-class-b, uk-advisory")
 }
+
+// Gravel has no published factor of its own: it takes the grass factor (AMC1
+// CAT.POL.A.305, Table 1: dry grass x1.2, wet x1.3 [pub]) and is named as unpaved with
+// the grass factor, never "dry grass" (common practice: say what was assumed).
+func TestGravelNamedAsUnpaved(t *testing.T) {
+	for _, id := range PolicyIDs() {
+		p, _ := PolicyByID(id)
+		for c, want := range map[Condition]float64{Dry: 1.2, Wet: 1.3} {
+			f := p.SurfaceFactor(Gravel, c)
+			assert.Equal(t, want, f.Value, id)
+			assert.Equal(t, "unpaved, "+string(c)+" (grass factor)", f.Label(), id)
+			req := p.Require(Result{To50ftM: 500}, Result{To50ftM: 500}, RunwayEnd{TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Gravel, Condition: c})
+			assert.Equal(t, f.Name, req.Factors[0].Name, id)
+		}
+		assert.Equal(t, "dry grass", p.SurfaceFactor(Grass, Dry).Label(), id)
+	}
+}

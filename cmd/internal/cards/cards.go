@@ -180,10 +180,7 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 	}
 	d.RunwayNotes = e.Notes
 	d.AircraftName, d.Flap = a.Name, a.TakeoffFlap
-	d.ModelName = "flight-manual table"
-	if a.Model == perf.ModelPhysics {
-		d.ModelName = a.Physics.Calibration.ModelLine() // ModelFor refused an uncalibrated one above
-	}
+	d.ModelName = perf.ModelLine(a) // ModelFor refused an uncalibrated physics model above
 	var covers perf.Effects
 	limiting := map[string]int{}
 	for _, blk := range g.Cells {

@@ -40,6 +40,7 @@ type CheckRun struct {
 	Ident              string     `json:"ident"`
 	Policy             string     `json:"policy"`
 	Model              string     `json:"model"`
+	ModelLine          string     `json:"model_line"`
 	ElevationFt        float64    `json:"elevation_ft"`
 	QNHhPa             float64    `json:"qnh_hpa"`
 	PressureAltitudeFt float64    `json:"pressure_altitude_ft"`
@@ -118,7 +119,7 @@ func distances(c perf.Cell) Distances {
 func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 	r := CheckRun{
 		Aircraft: in.Aircraft.Name, Airfield: in.Airfield.Name, Ident: in.Airfield.Ident,
-		Policy: in.Policy.ID, Model: string(in.Aircraft.Model),
+		Policy: in.Policy.ID, Model: string(in.Aircraft.Model), ModelLine: perf.ModelLine(in.Aircraft),
 		ElevationFt:        math.Round(units.Feet(ans.ElevationM)),
 		QNHhPa:             round1(units.HPa(in.Question.QNHPa)),
 		PressureAltitudeFt: math.Round(units.Feet(ans.PressureAltM)),
@@ -181,7 +182,7 @@ func WriteCheckJSON(w io.Writer, run CheckRun) error { return WriteJSON(w, run) 
 // WriteCheckText writes the check for a terminal.
 func WriteCheckText(w io.Writer, run CheckRun) error {
 	b := &strings.Builder{}
-	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s model)\n", run.Aircraft, run.Airfield, run.Ident, run.Policy, run.Model)
+	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s)\n", run.Aircraft, run.Airfield, run.Ident, run.Policy, run.ModelLine)
 	fmt.Fprintf(b, "elevation %.0f ft, QNH %.1f hPa -> pressure altitude %.0f ft; %.0f C (ISA%+.0f) -> density altitude %.0f ft; weight %.0f kg\n",
 		run.ElevationFt, run.QNHhPa, run.PressureAltitudeFt, run.TemperatureC, run.ISADeviationC, run.DensityAltitudeFt, run.WeightKg)
 	fmt.Fprintf(b, "wind %s, %s (%s)\n", run.Wind, run.WindReference, run.WindSource)

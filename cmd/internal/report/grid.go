@@ -27,6 +27,7 @@ type GridRun struct {
 	Ident              string    `json:"ident"`
 	Policy             string    `json:"policy"`
 	Model              string    `json:"model"`
+	ModelLine          string    `json:"model_line"`
 	ElevationFt        float64   `json:"elevation_ft"`
 	QNHhPa             float64   `json:"qnh_hpa"`
 	PressureAltitudeFt float64   `json:"pressure_altitude_ft"`
@@ -67,7 +68,7 @@ type GridCell struct {
 func BuildGrid(in GridInput) GridRun {
 	r := GridRun{
 		Aircraft: in.Aircraft.Name, Airfield: in.Airfield.Name, Ident: in.Airfield.Ident,
-		Policy: in.Policy.ID, Model: string(in.Aircraft.Model),
+		Policy: in.Policy.ID, Model: string(in.Aircraft.Model), ModelLine: perf.ModelLine(in.Aircraft),
 		ElevationFt: math.Round(units.Feet(in.Airfield.ElevationM)), Caution: Caution,
 	}
 	for _, g := range in.Grids {
@@ -143,7 +144,7 @@ var textMarks = map[perf.State]string{
 // up, marked by its state.
 func WriteGridText(w io.Writer, in GridInput) error {
 	b := &strings.Builder{}
-	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s model)\n", in.Aircraft.Name, in.Airfield.Name, in.Airfield.Ident, in.Policy.ID, in.Aircraft.Model)
+	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s)\n", in.Aircraft.Name, in.Airfield.Name, in.Airfield.Ident, in.Policy.ID, perf.ModelLine(in.Aircraft))
 	fmt.Fprintf(b, "required distance in m (rounded up).  ~ tight (less than the margin spare)  X no-go  ? no data  L beyond limits\n")
 	for _, g := range in.Grids {
 		e := g.End
