@@ -135,6 +135,13 @@ func (d *doc) addFonts(fonts *Fonts, cards []*Card) error {
 			}
 		}
 	}
+	for st := range more {
+		for _, r := range more[st] {
+			if fonts.faces[st].glyph(r) == 0 {
+				return fmt.Errorf("character %q cannot be printed: the embedded font has no glyph for it", r)
+			}
+		}
+	}
 	var sfs [2]*simpleFont
 	for st := range more {
 		sort.Slice(more[st], func(i, j int) bool { return more[st][i] < more[st][j] })
