@@ -7,6 +7,7 @@ import (
 	"io"
 	"sort"
 	"strconv"
+	"sync"
 	"time"
 	"unicode/utf16"
 
@@ -103,19 +104,39 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 	if !opt.Compress {
 		return pdf.Output(w)
 	}
-	var plain bytes.Buffer
-	if err := pdf.Output(&plain); err != nil {
+	plain, out := getBuffer(), getBuffer()
+	defer putBuffer(plain)
+	defer putBuffer(out)
+	if err := pdf.Output(plain); err != nil {
 		return err
 	}
-	return deflateStreams(w, plain.Bytes(), pageDeflateLevel)
+	if err := deflateStreams(out, plain.Bytes(), pageDeflateLevel); err != nil {
+		return err
+	}
+	_, err := w.Write(out.Bytes())
+	return err
+}
+
+// buffers recycles the byte buffers a document passes through, so a batch does
+// not grow (and clear) new ones for every file.
+var buffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
+
+func getBuffer() *bytes.Buffer { return buffers.Get().(*bytes.Buffer) }
+
+func putBuffer(b *bytes.Buffer) {
+	if b.Cap() <= 4<<20 {
+		b.Reset()
+		buffers.Put(b)
+	}
 }
 
 // doc is one PDF being drawn.
 type doc struct {
-	pdf  *fpdf.Fpdf
-	enc  [2]*encoding // per style; nil with CID fonts
-	cid  bool         // CID fonts (fpdf's UTF-8 fonts): text goes through fpdf.Text
-	text []byte       // text operators not yet written, see pen.show
+	pdf   *fpdf.Fpdf
+	enc   [2]*encoding // per style; nil with CID fonts
+	cid   bool         // CID fonts (fpdf's UTF-8 fonts): text goes through fpdf.Text
+	text  []byte       // text operators not yet written, see pen.show
+	texts []*Text      // a card's texts in drawing order, see drawCard
 }
 
 // addFonts adds both styles as simple fonts for the characters the cards use, or
@@ -278,6 +299,10 @@ func (p *pen) flush() {
 	}
 }
 
+// drawCard draws the shapes, in order, then the texts grouped by font, size and
+// colour (in order within a group), so the font and colour are set once per group,
+// not once per text: texts never overlap one another, only shapes, which are all
+// drawn before them.
 func (d *doc) drawCard(c *Card, dx, dy float64) {
 	p := &pen{doc: d}
 	for _, b := range c.Blocks {
@@ -285,32 +310,48 @@ func (d *doc) drawCard(c *Card, dx, dy float64) {
 			p.shape(s, dx, dy)
 		}
 	}
+	d.texts = d.texts[:0]
+	for bi := range c.Blocks {
+		for ti := range c.Blocks[bi].Texts {
+			d.texts = append(d.texts, &c.Blocks[bi].Texts[ti])
+		}
+	}
+	sort.SliceStable(d.texts, func(i, j int) bool {
+		a, b := d.texts[i], d.texts[j]
+		if a.Style != b.Style {
+			return a.Style < b.Style
+		}
+		if a.SizePt != b.SizePt {
+			return a.SizePt < b.SizePt
+		}
+		return colorKey(a.Color) < colorKey(b.Color)
+	})
 	k := d.pdf.GetConversionRatio()
 	_, pageH := d.pdf.GetPageSize()
-	for _, b := range c.Blocks {
-		for _, t := range b.Texts {
-			p.font(fpdfStyle[t.Style], t.SizePt)
-			x := t.Box.X
-			switch t.Align {
-			case Center:
-				x += (t.Box.W - t.WidthMM) / 2
-			case Right:
-				x += t.Box.W - t.WidthMM
-			}
-			// Baseline: digits and capitals (about 0.7 em tall) centred in the box.
-			base := t.Box.Y + t.Box.H/2 + 0.35*t.SizePt*ptMM
-			if d.cid {
-				p.textColor(t.Color)
-				d.pdf.Text(x+dx, base+dy, t.S)
-				continue
-			}
-			p.fillColor(t.Color)
-			// As fpdf.Text computes it, so positions are the same to the last digit.
-			p.show(t.Style, (x+dx)*k, (pageH-(base+dy))*k, t.S)
+	for _, t := range d.texts {
+		p.font(fpdfStyle[t.Style], t.SizePt)
+		x := t.Box.X
+		switch t.Align {
+		case Center:
+			x += (t.Box.W - t.WidthMM) / 2
+		case Right:
+			x += t.Box.W - t.WidthMM
 		}
+		// Baseline: digits and capitals (about 0.7 em tall) centred in the box.
+		base := t.Box.Y + t.Box.H/2 + 0.35*t.SizePt*ptMM
+		if d.cid {
+			p.textColor(t.Color)
+			d.pdf.Text(x+dx, base+dy, t.S)
+			continue
+		}
+		p.fillColor(t.Color)
+		// As fpdf.Text computes it, so positions are the same to the last digit.
+		p.show(t.Style, (x+dx)*k, (pageH-(base+dy))*k, t.S)
 	}
 	p.flush()
 }
+
+func colorKey(c Color) int { return int(c.R)<<16 | int(c.G)<<8 | int(c.B) }
 
 func (p *pen) shape(s Shape, dx, dy float64) {
 	r := s.Box

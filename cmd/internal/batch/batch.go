@@ -235,11 +235,11 @@ func (p *Prepared) Run(ctx context.Context, opts Options) *Summary {
 	idx := make(chan int)
 	var mu sync.Mutex
 	var wg sync.WaitGroup
+	fonts, err := layout.NewFonts() // shared: each character set's fonts are made once
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			fonts, err := layout.NewFonts()
 			for i := range idx {
 				r := JobResult{Entry: p.Entries[i]}
 				switch {
