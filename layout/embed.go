@@ -79,15 +79,8 @@ func (f *Fonts) makeSimpleFont(st FontStyle, more []rune) (*simpleFont, error) {
 	if err != nil {
 		return nil, fmt.Errorf("embedded font: %w", err)
 	}
-	var z bytes.Buffer
-	zw, err := zlib.NewWriterLevel(&z, fontDeflateLevel)
+	z, err := deflate(sub, fontDeflateLevel)
 	if err != nil {
-		return nil, err
-	}
-	if _, err := zw.Write(sub); err != nil {
-		return nil, err
-	}
-	if err := zw.Close(); err != nil {
 		return nil, err
 	}
 	name := subsetTag(sub) + "+" + fc.psName
@@ -102,7 +95,7 @@ func (f *Fonts) makeSimpleFont(st FontStyle, more []rune) (*simpleFont, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &simpleFont{enc: enc, def: js, file: z.Bytes()}, nil
+	return &simpleFont{enc: enc, def: js, file: z}, nil
 }
 
 // subsetTag names a subset: six capital letters from its bytes, so a different
@@ -114,4 +107,20 @@ func subsetTag(sub []byte) string {
 		tag[i] = 'A' + h[i]%26
 	}
 	return string(tag)
+}
+
+// deflate compresses b with zlib at level.
+func deflate(b []byte, level int) ([]byte, error) {
+	var z bytes.Buffer
+	zw, err := zlib.NewWriterLevel(&z, level)
+	if err != nil {
+		return nil, err
+	}
+	if _, err := zw.Write(b); err != nil {
+		return nil, err
+	}
+	if err := zw.Close(); err != nil {
+		return nil, err
+	}
+	return z.Bytes(), nil
 }

@@ -2,9 +2,11 @@ package layout
 
 import (
 	"bytes"
+	"cmp"
 	"errors"
 	"fmt"
 	"io"
+	"slices"
 	"sort"
 	"strconv"
 	"sync"
@@ -293,8 +295,8 @@ func (p *pen) show(style FontStyle, x, y float64, s string) {
 // flush writes the collected texts.
 func (p *pen) flush() {
 	if len(p.text) > 0 {
-		// RawWriteBuf ends the line itself.
-		p.pdf.RawWriteBuf(bytes.NewReader(p.text[:len(p.text)-1]))
+		// RawWriteStr ends the line itself.
+		p.pdf.RawWriteStr(string(p.text[:len(p.text)-1]))
 		p.text = p.text[:0]
 	}
 }
@@ -316,15 +318,14 @@ func (d *doc) drawCard(c *Card, dx, dy float64) {
 			d.texts = append(d.texts, &c.Blocks[bi].Texts[ti])
 		}
 	}
-	sort.SliceStable(d.texts, func(i, j int) bool {
-		a, b := d.texts[i], d.texts[j]
+	slices.SortStableFunc(d.texts, func(a, b *Text) int {
 		if a.Style != b.Style {
-			return a.Style < b.Style
+			return cmp.Compare(a.Style, b.Style)
 		}
 		if a.SizePt != b.SizePt {
-			return a.SizePt < b.SizePt
+			return cmp.Compare(a.SizePt, b.SizePt)
 		}
-		return colorKey(a.Color) < colorKey(b.Color)
+		return cmp.Compare(colorKey(a.Color), colorKey(b.Color))
 	})
 	k := d.pdf.GetConversionRatio()
 	_, pageH := d.pdf.GetPageSize()

@@ -49,7 +49,7 @@ func testCard(t testing.TB, f *Fonts, name, extra string) *Card {
 	add(50, 61, "LIMIT", 7.5, Bold, Black)
 	add(10, 80, `fraction (of TORA) \ 70 %`, 9, Regular, Black)
 	for i, l := range strings.Fields(extra) {
-		add(10, 90+float64(i)*3, l, 7, Regular, Black)
+		add(10+float64(i/30)*32, 90+float64(i%30)*3, l, 7, Regular, Black)
 	}
 	add(10, 195, testCaution, MinTextPt, Bold, Black)
 	c := &Card{Title: "KP-TST runway 07, " + name, Page: p, Blocks: []Block{blk}}
