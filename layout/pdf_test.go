@@ -13,11 +13,19 @@ import (
 
 	"codeberg.org/go-pdf/fpdf"
 	"github.com/pdfcpu/pdfcpu/pkg/api"
+	"github.com/pdfcpu/pdfcpu/pkg/pdfcpu/model"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
 
 func init() { api.DisableConfigDir() }
+
+// strict is pdfcpu's strict validation (ISO 32000-1 as pdfcpu reads it).
+func strict() *model.Configuration {
+	conf := model.NewDefaultConfiguration()
+	conf.ValidationMode = model.ValidationStrict
+	return conf
+}
 
 var testDate = time.Date(2026, 12, 1, 0, 0, 0, 0, time.UTC)
 
@@ -104,7 +112,7 @@ func TestRenderEmbedsFontsAndTextExtracts(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			cards := []*Card{testCard(t, f, "Wrenmoor Ærø (demo)", tc.extra), testCard(t, f, "Saltpan Mesa", "")}
 			pdf := render(t, cards, RenderOptions{Compress: tc.compress, Sheet: tc.sheet, Fonts: f, Title: "test"})
-			require.NoError(t, api.Validate(bytes.NewReader(pdf), nil), "pdfcpu validates")
+			require.NoError(t, api.Validate(bytes.NewReader(pdf), strict()), "pdfcpu validates strictly")
 			info, err := api.PDFInfo(bytes.NewReader(pdf), "test.pdf", nil, true, nil)
 			require.NoError(t, err)
 			require.Len(t, info.Fonts, 2, "one font per style")
@@ -261,7 +269,7 @@ func TestDeflateStreamsMatchesLibrary(t *testing.T) {
 	// Other levels give a valid file with the same page contents.
 	got.Reset()
 	require.NoError(t, deflateStreams(&got, plain, zlib.BestCompression))
-	require.NoError(t, api.Validate(bytes.NewReader(got.Bytes()), nil))
+	require.NoError(t, api.Validate(bytes.NewReader(got.Bytes()), strict()))
 	assert.Less(t, got.Len(), len(plain))
 }
 
