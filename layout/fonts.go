@@ -1,8 +1,10 @@
 package layout
 
 import (
+	"encoding/binary"
 	"fmt"
-	"sort"
+	"math"
+	"sync"
 
 	"golang.org/x/image/font"
 	"golang.org/x/image/font/gofont/gobold"
@@ -12,110 +14,170 @@ import (
 )
 
 // Fonts holds the embedded Go fonts (a sans-serif with tabular digits, so columns of
-// numbers line up) parsed once for measuring, and their bytes for embedding in PDFs.
-// A Fonts is safe for use by one goroutine at a time; make one per worker.
+// numbers line up): their glyph tables for measuring and the font programs a PDF
+// embeds, subset and deflated once per character set (see embed.go). A Fonts is safe
+// for concurrent use; one per process is enough.
 type Fonts struct {
-	faces  [2]*sfnt.Font
-	buf    sfnt.Buffer
-	base   [2][]byte         // subsets for baseRunes
-	extra  map[string][]byte // subsets for cards that use more, by style and runes
-	inBase map[rune]bool
+	faces *[2]*face
+
+	mu     sync.Mutex
+	simple map[string]*simpleFont // by style and the characters beyond ASCII
 }
 
-// baseRunes are the characters a card is expected to need: ASCII, Latin-1, Latin
-// Extended-A (European names) and the punctuation and symbols kneeprint prints.
-func baseRunes() []rune {
-	var rs []rune
-	for r := rune(0x20); r <= 0x7E; r++ {
-		rs = append(rs, r)
-	}
-	for r := rune(0xA0); r <= 0x17F; r++ {
-		rs = append(rs, r)
-	}
-	return append(rs, []rune("–—‘’‚“”„•…‰′″←↑→↓↔≈≠≤≥−÷▲►▼◄■□●◂▸")...)
-}
-
-// NewFonts parses the embedded fonts.
+// NewFonts returns the embedded fonts. Their tables are read once per process.
 func NewFonts() (*Fonts, error) {
-	f := &Fonts{extra: map[string][]byte{}, inBase: map[rune]bool{}}
-	base := baseRunes()
-	for _, r := range base {
-		f.inBase[r] = true
-	}
-	for i, ttf := range [][]byte{goregular.TTF, gobold.TTF} {
-		face, err := sfnt.Parse(ttf)
-		if err != nil {
-			return nil, fmt.Errorf("embedded font: %w", err)
-		}
-		f.faces[i] = face
-		if f.base[i], err = subsetTTF(ttf, base); err != nil {
-			return nil, fmt.Errorf("embedded font: %w", err)
-		}
-	}
-	return f, nil
-}
-
-func fontBytes(s FontStyle) []byte {
-	if s == Bold {
-		return gobold.TTF
-	}
-	return goregular.TTF
-}
-
-// pdfFont returns the font file to embed for style st in a document using runes:
-// the base subset when it covers them, else a subset made for them (and cached).
-func (f *Fonts) pdfFont(st FontStyle, used map[rune]bool) []byte {
-	var more []rune
-	for r := range used {
-		if !f.inBase[r] {
-			more = append(more, r)
-		}
-	}
-	if len(more) == 0 {
-		return f.base[st]
-	}
-	sort.Slice(more, func(i, j int) bool { return more[i] < more[j] })
-	key := fmt.Sprint(st, string(more))
-	if b, ok := f.extra[key]; ok {
-		return b
-	}
-	b, err := subsetTTF(fontBytes(st), append(baseRunes(), more...))
+	faces, err := loadFaces()
 	if err != nil {
-		b = fontBytes(st) // the whole font always works, only slower
+		return nil, err
 	}
-	f.extra[key] = b
-	return b
+	return &Fonts{faces: faces, simple: map[string]*simpleFont{}}, nil
 }
 
-// Missing lists the characters of s that the embedded font cannot print.
+// Missing lists the characters of s that the embedded font cannot print: those it has
+// no glyph for. Every character it has a glyph for can be printed (see encoding.go).
 func (f *Fonts) Missing(s string, st FontStyle) []rune {
 	var out []rune
+	fc := f.faces[st]
 	for _, r := range s {
-		if f.inBase[r] {
-			continue
-		}
-		if idx, err := f.faces[st].GlyphIndex(&f.buf, r); err != nil || idx == 0 {
+		if fc.glyph(r) == 0 {
 			out = append(out, r)
 		}
 	}
 	return out
 }
 
-// WidthMM measures s at size pt in style st, from the font's advance widths.
+// WidthMM measures s at size pt in style st, from the font's advance widths. A
+// character the font has no glyph for counts with the advance of its .notdef glyph.
 func (f *Fonts) WidthMM(s string, pt float64, st FontStyle) float64 {
-	face := f.faces[st]
-	const unitsPerEm = 1000
+	fc := f.faces[st]
 	total := 0
 	for _, r := range s {
-		idx, err := face.GlyphIndex(&f.buf, r)
-		if err != nil {
-			continue
-		}
-		adv, err := face.GlyphAdvance(&f.buf, idx, fixed.I(unitsPerEm), font.HintingNone)
-		if err != nil {
-			continue
-		}
-		total += int(adv)
+		total += int(fc.adv[fc.glyph(r)])
 	}
-	return float64(total) / 64 / unitsPerEm * pt * ptMM
+	return float64(total) / 64 / advPPEM * pt * ptMM
+}
+
+// advPPEM is the size at which advances are read: 1000 pixels per em, in 26.6 fixed
+// point, so a width in em is the sum / 64 / 1000.
+const advPPEM = 1000
+
+// face is one style of the embedded fonts, with what measuring and embedding need,
+// read from the font program once.
+type face struct {
+	ttf    []byte
+	sf     *sfnt.Font
+	psName string          // PostScript name (name ID 6)
+	gids   []uint16        // glyph by rune, for the Basic Multilingual Plane; 0 = none
+	adv    []fixed.Int26_6 // advance by glyph at advPPEM, unhinted
+	width  []int           // advance by glyph in 1/1000 em, rounded: the PDF glyph width
+	desc   fontDesc
+	up, ut int // underline position and thickness, 1/1000 em
+}
+
+func (fc *face) glyph(r rune) uint16 {
+	if r < 0 || int(r) >= len(fc.gids) {
+		return 0
+	}
+	return fc.gids[r]
+}
+
+// fontDesc is a PDF font descriptor's metrics in 1/1000 em (ISO 32000-1, 9.8.1,
+// table 122), in the field names fpdf's font definitions use.
+type fontDesc struct {
+	Ascent, Descent, CapHeight, Flags int
+	FontBBox                          struct{ Xmin, Ymin, Xmax, Ymax int }
+	ItalicAngle, StemV, MissingWidth  int
+}
+
+// loadFaces parses both embedded fonts once per process. The result is never
+// modified, so goroutines share it.
+var loadFaces = sync.OnceValues(func() (*[2]*face, error) {
+	var out [2]*face
+	for st, ttf := range [][]byte{goregular.TTF, gobold.TTF} {
+		fc, err := newFace(ttf)
+		if err != nil {
+			return nil, fmt.Errorf("embedded font: %w", err)
+		}
+		out[st] = fc
+	}
+	return &out, nil
+})
+
+func newFace(ttf []byte) (*face, error) {
+	sf, err := sfnt.Parse(ttf)
+	if err != nil {
+		return nil, err
+	}
+	var buf sfnt.Buffer
+	fc := &face{ttf: ttf, sf: sf, gids: make([]uint16, 0x10000)}
+	if fc.psName, err = sf.Name(&buf, sfnt.NameIDPostScript); err != nil {
+		return nil, err
+	}
+	for r := range fc.gids {
+		g, err := sf.GlyphIndex(&buf, rune(r))
+		if err == nil {
+			fc.gids[r] = uint16(g)
+		}
+	}
+	n := sf.NumGlyphs()
+	upem := float64(sf.UnitsPerEm())
+	fc.adv = make([]fixed.Int26_6, n)
+	fc.width = make([]int, n)
+	for g := 0; g < n; g++ {
+		a, err := sf.GlyphAdvance(&buf, sfnt.GlyphIndex(g), fixed.I(advPPEM), font.HintingNone)
+		if err != nil {
+			return nil, err
+		}
+		fc.adv[g] = a
+		units, err := sf.GlyphAdvance(&buf, sfnt.GlyphIndex(g), fixed.Int26_6(upem), font.HintingNone)
+		if err != nil {
+			return nil, err
+		}
+		// At ppem = unitsPerEm / 64 the 26.6 advance is the advance in font units.
+		fc.width[g] = int(math.Round(float64(units) * 1000 / upem))
+	}
+	if fc.desc, fc.up, fc.ut, err = descriptor(ttf, fc.width[0]); err != nil {
+		return nil, err
+	}
+	return fc, nil
+}
+
+// descriptor reads a font descriptor's metrics from the head, hhea, OS/2 and post
+// tables (OpenType specification), scaled to 1/1000 em as fpdf's TrueType reader does.
+func descriptor(ttf []byte, missingWidth int) (d fontDesc, up, ut int, err error) {
+	t, err := ttfTables(ttf)
+	if err != nil {
+		return d, 0, 0, err
+	}
+	head, hhea, os2, post := t["head"], t["hhea"], t["OS/2"], t["post"]
+	if len(head) < 54 || len(hhea) < 36 || len(os2) < 90 || len(post) < 16 {
+		return d, 0, 0, fmt.Errorf("font metrics tables missing or truncated")
+	}
+	be := binary.BigEndian
+	i16 := func(b []byte, off int) int { return int(int16(be.Uint16(b[off:]))) }
+	scale := 1000 / float64(be.Uint16(head[18:]))
+	sc := func(v int) int { return int(float64(v) * scale) }
+	d.FontBBox.Xmin, d.FontBBox.Ymin = sc(i16(head, 36)), sc(i16(head, 38))
+	d.FontBBox.Xmax, d.FontBBox.Ymax = sc(i16(head, 40)), sc(i16(head, 42))
+	d.Ascent, d.Descent = sc(i16(hhea, 4)), sc(i16(hhea, 6))
+	d.CapHeight = d.Ascent
+	if be.Uint16(os2) > 1 {
+		d.CapHeight = sc(i16(os2, 88))
+	}
+	weight := float64(be.Uint16(os2[4:]))
+	d.StemV = 50 + int(math.Pow(weight/65, 2))
+	d.ItalicAngle = i16(post, 4)
+	// Nonsymbolic: the glyphs are found through the encoding's standard names and
+	// the font's Unicode cmap (ISO 32000-1, 9.6.6.4 and 9.8.2).
+	d.Flags = 32
+	if d.ItalicAngle != 0 {
+		d.Flags |= 64 // Italic
+	}
+	if weight >= 600 {
+		d.Flags |= 1 << 18 // ForceBold
+	}
+	d.MissingWidth = missingWidth
+	up = int(math.Round(float64(i16(post, 8)) * scale))
+	ut = int(math.Round(float64(i16(post, 10)) * scale))
+	return d, up, ut, nil
 }

@@ -1,10 +1,17 @@
 package layout
 
 import (
+	"bytes"
+	"cmp"
 	"errors"
 	"fmt"
 	"io"
+	"slices"
+	"sort"
+	"strconv"
+	"sync"
 	"time"
+	"unicode/utf16"
 
 	"codeberg.org/go-pdf/fpdf"
 )
@@ -21,14 +28,21 @@ type RenderOptions struct {
 	Date   time.Time
 	Title  string
 	Author string
-	// Fonts supplies the embedded fonts, subset to what cards use; nil makes one.
+	// Fonts supplies the embedded fonts; nil makes one.
 	Fonts *Fonts
 }
 
 const fontFamily = "go"
 
+var fpdfStyle = [2]string{Regular: "", Bold: "B"}
+
 // RenderPDF writes cards to w as one PDF. fpdf keeps a sticky error: it is checked
 // once, at Output.
+//
+// The fonts are simple TrueType fonts subset to the document's characters (see
+// encoding.go and embed.go); a document using more characters in one style than a
+// single-byte encoding holds gets CID fonts instead (fpdf's UTF-8 fonts). Page
+// streams are deflated after fpdf is done (see deflateStreams).
 func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 	if len(cards) == 0 {
 		return errors.New("no cards to render")
@@ -48,8 +62,15 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 		// fpdf swaps width and height for "L": give the portrait size.
 		size, orient = fpdf.SizeType{Wd: opt.Sheet.HeightMM, Ht: opt.Sheet.WidthMM}, "L"
 	}
+	fonts := opt.Fonts
+	if fonts == nil {
+		var err error
+		if fonts, err = NewFonts(); err != nil {
+			return err
+		}
+	}
 	pdf := fpdf.NewCustom(&fpdf.InitType{OrientationStr: orient, UnitStr: "mm", Size: size})
-	pdf.SetCompression(opt.Compress)
+	pdf.SetCompression(false) // deflateStreams compresses, with pooled writers
 	pdf.SetCatalogSort(true)
 	pdf.SetCreationDate(opt.Date)
 	pdf.SetModificationDate(opt.Date)
@@ -59,31 +80,16 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 	pdf.SetAuthor(opt.Author, true)
 	pdf.SetAutoPageBreak(false, 0)
 	pdf.SetMargins(0, 0, 0)
-	fonts := opt.Fonts
-	if fonts == nil {
-		var err error
-		if fonts, err = NewFonts(); err != nil {
-			return err
-		}
-	}
-	used := [2]map[rune]bool{{}, {}}
-	for _, c := range cards {
-		for _, b := range c.Blocks {
-			for _, t := range b.Texts {
-				for _, r := range t.S {
-					used[t.Style][r] = true
-				}
-			}
-		}
-	}
-	pdf.AddUTF8FontFromBytes(fontFamily, "", fonts.pdfFont(Regular, used[Regular]))
-	pdf.AddUTF8FontFromBytes(fontFamily, "B", fonts.pdfFont(Bold, used[Bold]))
 
+	d := &doc{pdf: pdf}
+	if err := d.addFonts(fonts, cards); err != nil {
+		return err
+	}
 	if opt.Sheet == nil {
 		for _, c := range cards {
 			pdf.AddPageFormat("P", size)
-			pdf.Bookmark(c.Title, 0, 0)
-			drawCard(pdf, c, 0, 0)
+			d.bookmark(c.Title)
+			d.drawCard(c, 0, 0)
 		}
 	} else {
 		s := *opt.Sheet
@@ -91,20 +97,138 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 		for i := 0; i < len(cards); i += 2 {
 			pdf.AddPageFormat("L", size)
 			for j := 0; j < 2 && i+j < len(cards); j++ {
-				pdf.Bookmark(cards[i+j].Title, 0, 0)
-				drawCard(pdf, cards[i+j], offX+float64(j)*p.WidthMM, offY)
+				d.bookmark(cards[i+j].Title)
+				d.drawCard(cards[i+j], offX+float64(j)*p.WidthMM, offY)
 			}
 			cutMarks(pdf, s, p, offX, offY)
 		}
 	}
-	return pdf.Output(w)
+	if !opt.Compress {
+		return pdf.Output(w)
+	}
+	plain, out := getBuffer(), getBuffer()
+	defer putBuffer(plain)
+	defer putBuffer(out)
+	if err := pdf.Output(plain); err != nil {
+		return err
+	}
+	if err := deflateStreams(out, plain.Bytes(), pageDeflateLevel); err != nil {
+		return err
+	}
+	_, err := w.Write(out.Bytes())
+	return err
+}
+
+// buffers recycles the byte buffers a document passes through, so a batch does
+// not grow (and clear) new ones for every file.
+var buffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
+
+func getBuffer() *bytes.Buffer { return buffers.Get().(*bytes.Buffer) }
+
+func putBuffer(b *bytes.Buffer) {
+	if b.Cap() <= 4<<20 {
+		b.Reset()
+		buffers.Put(b)
+	}
+}
+
+// doc is one PDF being drawn.
+type doc struct {
+	pdf   *fpdf.Fpdf
+	enc   [2]*encoding // per style; nil with CID fonts
+	cid   bool         // CID fonts (fpdf's UTF-8 fonts): text goes through fpdf.Text
+	text  []byte       // text operators not yet written, see pen.show
+	texts []*Text      // a card's texts in drawing order, see drawCard
+}
+
+// addFonts adds both styles as simple fonts for the characters the cards use, or
+// as CID fonts when they do not fit one byte.
+func (d *doc) addFonts(fonts *Fonts, cards []*Card) error {
+	var more [2][]rune
+	seen := [2]map[rune]bool{{}, {}}
+	for _, c := range cards {
+		for _, b := range c.Blocks {
+			for _, t := range b.Texts {
+				for _, r := range t.S {
+					if (r < 0x20 || r > 0x7E) && !seen[t.Style][r] {
+						seen[t.Style][r] = true
+						more[t.Style] = append(more[t.Style], r)
+					}
+				}
+			}
+		}
+	}
+	for st := range more {
+		for _, r := range more[st] {
+			if fonts.faces[st].glyph(r) == 0 {
+				return fmt.Errorf("character %q cannot be printed: the embedded font has no glyph for it", r)
+			}
+		}
+	}
+	var sfs [2]*simpleFont
+	for st := range more {
+		sort.Slice(more[st], func(i, j int) bool { return more[st][i] < more[st][j] })
+		sf, ok, err := fonts.simpleFont(FontStyle(st), more[st])
+		if err != nil {
+			return err
+		}
+		if !ok {
+			d.cid = true
+		}
+		sfs[st] = sf
+	}
+	if !d.cid {
+		for st, sf := range sfs {
+			d.pdf.AddFontFromBytes(fontFamily, fpdfStyle[st], sf.def, sf.file)
+			d.enc[st] = sf.enc
+		}
+		return nil
+	}
+	for st := range more {
+		runes := append([]rune(nil), more[st]...)
+		for r := rune(0x20); r <= 0x7E; r++ {
+			runes = append(runes, r)
+		}
+		sub, err := subsetTTF(fonts.faces[st].ttf, runes)
+		if err != nil {
+			return fmt.Errorf("embedded font: %w", err)
+		}
+		d.pdf.AddUTF8FontFromBytes(fontFamily, fpdfStyle[st], sub)
+	}
+	// With a UTF-8 font current, fpdf writes bookmarks as UTF-16 itself.
+	d.pdf.SetFont(fontFamily, "", 10)
+	return nil
+}
+
+// bookmark adds an outline entry for the current page. Titles are text strings:
+// PDFDocEncoding for ASCII, else UTF-16BE with a byte order mark (ISO 32000-1,
+// 7.9.2.2).
+func (d *doc) bookmark(title string) {
+	if !d.cid {
+		title = textString(title)
+	}
+	d.pdf.Bookmark(title, 0, 0)
+}
+
+func textString(s string) string {
+	for _, r := range s {
+		if r > 0x7E || r < 0x20 {
+			b := []byte{0xFE, 0xFF}
+			for _, u := range utf16.Encode([]rune(s)) {
+				b = append(b, byte(u>>8), byte(u))
+			}
+			return string(b)
+		}
+	}
+	return s
 }
 
 // pen draws on one fpdf document and sets font, colours and line width only when they
 // change: a card has hundreds of texts and shapes in a handful of styles. known says
-// which of them the PDF's graphics state holds for certain.
+// which of them the PDF's graphics state holds for certain. Text is filled with the
+// fill colour, so texts need no saved and restored graphics state of their own.
 type pen struct {
-	pdf            *fpdf.Fpdf
+	*doc
 	style          string
 	size           float64
 	fill, draw, tx Color
@@ -116,6 +240,7 @@ func (p *pen) forget() { p.known = struct{ font, fill, draw, tx, line bool }{} }
 
 func (p *pen) font(style string, size float64) {
 	if !p.known.font || style != p.style || size != p.size {
+		p.flush()
 		p.pdf.SetFont(fontFamily, style, size)
 		p.style, p.size, p.known.font = style, size, true
 	}
@@ -123,6 +248,7 @@ func (p *pen) font(style string, size float64) {
 
 func (p *pen) fillColor(c Color) {
 	if !p.known.fill || c != p.fill {
+		p.flush()
 		p.pdf.SetFillColor(int(c.R), int(c.G), int(c.B))
 		p.fill, p.known.fill = c, true
 	}
@@ -149,34 +275,84 @@ func (p *pen) lineWidth(w float64) {
 	}
 }
 
-func drawCard(pdf *fpdf.Fpdf, c *Card, dx, dy float64) {
-	p := &pen{pdf: pdf}
+// show adds a text object showing s at (x, y) points from the bottom left, written
+// as fpdf.Text would but without its graphics-state save and restore (the text is
+// filled with the fill colour) and without re-encoding s for every call. Texts are
+// collected and written to fpdf together, until the font or a colour changes.
+func (p *pen) show(style FontStyle, x, y float64, s string) {
+	p.text = append(p.text, "BT "...)
+	p.text = strconv.AppendFloat(p.text, x, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, y, 'f', 2, 64)
+	p.text = append(p.text, " Td ("...)
+	var err error
+	if p.text, err = p.enc[style].appendText(p.text, s); err != nil {
+		p.pdf.SetError(err)
+	}
+	p.text = append(p.text, ") Tj ET\n"...)
+}
+
+// flush writes the collected texts.
+func (p *pen) flush() {
+	if len(p.text) > 0 {
+		// RawWriteStr ends the line itself.
+		p.pdf.RawWriteStr(string(p.text[:len(p.text)-1]))
+		p.text = p.text[:0]
+	}
+}
+
+// drawCard draws the shapes, in order, then the texts grouped by font, size and
+// colour (in order within a group), so the font and colour are set once per group,
+// not once per text: texts never overlap one another, only shapes, which are all
+// drawn before them.
+func (d *doc) drawCard(c *Card, dx, dy float64) {
+	p := &pen{doc: d}
 	for _, b := range c.Blocks {
 		for _, s := range b.Shapes {
 			p.shape(s, dx, dy)
 		}
 	}
-	for _, b := range c.Blocks {
-		for _, t := range b.Texts {
-			style := ""
-			if t.Style == Bold {
-				style = "B"
-			}
-			p.font(style, t.SizePt)
-			p.textColor(t.Color)
-			x := t.Box.X
-			switch t.Align {
-			case Center:
-				x += (t.Box.W - t.WidthMM) / 2
-			case Right:
-				x += t.Box.W - t.WidthMM
-			}
-			// Baseline: digits and capitals (about 0.7 em tall) centred in the box.
-			base := t.Box.Y + t.Box.H/2 + 0.35*t.SizePt*ptMM
-			pdf.Text(x+dx, base+dy, t.S)
+	d.texts = d.texts[:0]
+	for bi := range c.Blocks {
+		for ti := range c.Blocks[bi].Texts {
+			d.texts = append(d.texts, &c.Blocks[bi].Texts[ti])
 		}
 	}
+	slices.SortStableFunc(d.texts, func(a, b *Text) int {
+		if a.Style != b.Style {
+			return cmp.Compare(a.Style, b.Style)
+		}
+		if a.SizePt != b.SizePt {
+			return cmp.Compare(a.SizePt, b.SizePt)
+		}
+		return cmp.Compare(colorKey(a.Color), colorKey(b.Color))
+	})
+	k := d.pdf.GetConversionRatio()
+	_, pageH := d.pdf.GetPageSize()
+	for _, t := range d.texts {
+		p.font(fpdfStyle[t.Style], t.SizePt)
+		x := t.Box.X
+		switch t.Align {
+		case Center:
+			x += (t.Box.W - t.WidthMM) / 2
+		case Right:
+			x += t.Box.W - t.WidthMM
+		}
+		// Baseline: digits and capitals (about 0.7 em tall) centred in the box.
+		base := t.Box.Y + t.Box.H/2 + 0.35*t.SizePt*ptMM
+		if d.cid {
+			p.textColor(t.Color)
+			d.pdf.Text(x+dx, base+dy, t.S)
+			continue
+		}
+		p.fillColor(t.Color)
+		// As fpdf.Text computes it, so positions are the same to the last digit.
+		p.show(t.Style, (x+dx)*k, (pageH-(base+dy))*k, t.S)
+	}
+	p.flush()
 }
+
+func colorKey(c Color) int { return int(c.R)<<16 | int(c.G)<<8 | int(c.B) }
 
 func (p *pen) shape(s Shape, dx, dy float64) {
 	r := s.Box

@@ -60,7 +60,7 @@ type Prepared struct {
 	Entries     []*Entry
 	InputErrors []error // files that could not be read: their jobs are not in Entries
 
-	// newFonts makes a worker's fonts (layout.NewFonts when nil); tests count calls.
+	// newFonts makes the batch's fonts (layout.NewFonts when nil); tests count calls.
 	newFonts func() (*layout.Fonts, error)
 }
 
@@ -347,23 +347,23 @@ func (p *Prepared) Run(ctx context.Context, opts Options) *Summary {
 	jobs := make(chan int)
 	var mu sync.Mutex
 	var wg sync.WaitGroup
+	// One Fonts for every worker (it is safe for concurrent use and caches each
+	// character set's subset once), made on the first job, not before: a batch whose
+	// jobs never start parses nothing.
+	var fontsOnce sync.Once
+	var fonts *layout.Fonts
+	var fontErr error
 	for w := 0; w < s.Workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			var fonts *layout.Fonts
-			var fontErr error
 			for i := range jobs {
 				r := JobResult{Entry: p.Entries[i]}
 				switch {
 				case ctx.Err() != nil:
 					r.Canceled = true
 				default:
-					if fonts == nil && fontErr == nil {
-						// Parsed on the worker's first job, not before: a worker
-						// that never gets one costs nothing.
-						fonts, fontErr = newFonts()
-					}
+					fontsOnce.Do(func() { fonts, fontErr = newFonts() })
 					if fontErr != nil {
 						r.Err = fontErr
 					} else {

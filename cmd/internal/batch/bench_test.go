@@ -1,11 +1,15 @@
 package batch
 
 import (
+	"bytes"
 	"context"
 	"fmt"
 	"io/fs"
+	"os"
+	"path/filepath"
 	"runtime"
 	"runtime/debug"
+	"runtime/metrics"
 	"testing"
 	"time"
 
@@ -84,9 +88,11 @@ func seasonEntries(b testing.TB, nAircraft, nAirfields int, compress bool) []*En
 }
 
 // BenchmarkSeason renders the demo plan scaled to 20 aircraft x 50 airfields (4,000
-// card pages) with every CPU, and reports card pages per second and the share of CPU
-// time spent computing (perf and card data) rather than laying out and writing PDFs.
-// Target on the 2-core CI machine: 4,000 pages in under 10 s, computation under 10 %.
+// card pages in 1,000 files) with every CPU, as the cards command does, and reports
+// card pages per second, compressed bytes per page, the peak memory the Go runtime
+// held (sampled every 5 ms), and the shares of time spent computing (perf), laying
+// out (card data and card models) and writing PDFs. Target on the 2-core CI machine:
+// 4,000 pages in under 10 s, computation under 10 %.
 func BenchmarkSeason(b *testing.B) {
 	// As the cards command does for a batch (see cardsRun).
 	defer debug.SetGCPercent(debug.SetGCPercent(400))
@@ -94,8 +100,11 @@ func BenchmarkSeason(b *testing.B) {
 		b.Run(fmt.Sprintf("compress=%v", compress), func(b *testing.B) {
 			es := seasonEntries(b, 20, 50, compress)
 			b.ReportAllocs()
+			runtime.GC()
+			peak := watchPeakMemory()
 			b.ResetTimer()
 			var pages int
+			var size int64
 			var compute, lay, pdf time.Duration
 			for i := 0; i < b.N; i++ {
 				p := &Prepared{Dir: b.TempDir(), Entries: es}
@@ -109,15 +118,144 @@ func BenchmarkSeason(b *testing.B) {
 					lay += r.Layout
 					pdf += r.PDFTime
 				}
+				b.StopTimer()
+				size += folderPDFBytes(b, p.Dir)
+				b.StartTimer()
 			}
+			b.StopTimer()
 			b.ReportMetric(float64(pages)/b.Elapsed().Seconds(), "pages/s")
 			b.ReportMetric(float64(pages)/float64(b.N), "pages/op")
+			b.ReportMetric(float64(size)/float64(pages), "bytes/page")
+			b.ReportMetric(float64(peak())/(1<<20), "peak-MiB")
 			total := compute + lay + pdf
 			b.ReportMetric(100*float64(compute)/float64(total), "compute-%")
 			b.ReportMetric(100*float64(lay)/float64(total), "layout-%")
 			b.ReportMetric(100*float64(pdf)/float64(total), "pdf-%")
 		})
 	}
+}
+
+// BenchmarkPDF measures what a PDF costs per document and per page: each iteration
+// writes one document of 1 card page and one of 16 (real demo card models, made
+// beforehand), and the two times give the fixed cost of a document (doc-us) and the
+// cost of each further page (page-us) by a straight line through both. The
+// sub-benchmarks time documents of 1, 4 and 16 pages alone.
+func BenchmarkPDF(b *testing.B) {
+	fonts, err := layout.NewFonts()
+	if err != nil {
+		b.Fatal(err)
+	}
+	cs := seasonCards(b, fonts, 16)
+	opt := layout.RenderOptions{Compress: true, Date: time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC), Fonts: fonts, Title: "bench"}
+	render := func(b *testing.B, n int) int {
+		var buf bytes.Buffer
+		if err := layout.RenderPDF(&buf, cs[:n], opt); err != nil {
+			b.Fatal(err)
+		}
+		return buf.Len()
+	}
+	b.Run("fit", func(b *testing.B) {
+		b.ReportAllocs()
+		var one, sixteen time.Duration
+		for i := 0; i < b.N; i++ {
+			t0 := time.Now()
+			render(b, 1)
+			t1 := time.Now()
+			render(b, 16)
+			one, sixteen = one+t1.Sub(t0), sixteen+time.Since(t1)
+		}
+		page := (sixteen - one) / 15 / time.Duration(b.N)
+		b.ReportMetric(float64(one/time.Duration(b.N)-page)/1e3, "doc-us")
+		b.ReportMetric(float64(page)/1e3, "page-us")
+	})
+	for _, n := range []int{1, 4, 16} {
+		b.Run(fmt.Sprintf("pages=%d", n), func(b *testing.B) {
+			b.ReportAllocs()
+			size := 0
+			for i := 0; i < b.N; i++ {
+				size = render(b, n)
+			}
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*n), "ns/page")
+			b.ReportMetric(float64(size)/float64(n), "bytes/page")
+		})
+	}
+}
+
+// seasonCards lays out n card models of the scaled demo (every page of each airfield
+// in turn: a runway end, dry and wet on grass and gravel).
+func seasonCards(b *testing.B, fonts *layout.Fonts, n int) []*layout.Card {
+	b.Helper()
+	var cs []*layout.Card
+	for _, e := range seasonEntries(b, 1, (n+3)/4, true) {
+		for _, end := range e.Job.Airfield.Ends() {
+			for _, cond := range cards.Conditions(end) {
+				d, _, err := e.Job.Card(end, cond)
+				if err != nil {
+					b.Fatal(err)
+				}
+				c, err := layout.Build(d, e.Job.Page, fonts)
+				if err != nil {
+					b.Fatal(err)
+				}
+				cs = append(cs, c)
+			}
+		}
+	}
+	return cs[:n]
+}
+
+// watchPeakMemory samples the memory the Go runtime holds from the operating system
+// (all mapped memory less what it has returned) every 5 ms until the returned
+// function is called, which gives the highest value seen.
+func watchPeakMemory() func() uint64 {
+	samples := []metrics.Sample{{Name: "/memory/classes/total:bytes"}, {Name: "/memory/classes/heap/released:bytes"}}
+	var peak uint64
+	read := func() {
+		metrics.Read(samples)
+		if v := samples[0].Value.Uint64() - samples[1].Value.Uint64(); v > peak {
+			peak = v
+		}
+	}
+	done, stopped := make(chan struct{}), make(chan struct{})
+	go func() {
+		defer close(stopped)
+		t := time.NewTicker(5 * time.Millisecond)
+		defer t.Stop()
+		for {
+			read()
+			select {
+			case <-done:
+				return
+			case <-t.C:
+			}
+		}
+	}()
+	return func() uint64 {
+		close(done)
+		<-stopped
+		return peak
+	}
+}
+
+// folderPDFBytes is the size of the PDFs in dir.
+func folderPDFBytes(b *testing.B, dir string) int64 {
+	b.Helper()
+	es, err := os.ReadDir(dir)
+	if err != nil {
+		b.Fatal(err)
+	}
+	var n int64
+	for _, e := range es {
+		if filepath.Ext(e.Name()) != ".pdf" {
+			continue
+		}
+		info, err := e.Info()
+		if err != nil {
+			b.Fatal(err)
+		}
+		n += info.Size()
+	}
+	return n
 }
 
 func airfieldsFS() fs.FS { return airfields.FS }
