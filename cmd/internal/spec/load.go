@@ -8,6 +8,7 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"kneeprint/cmd/internal/files"
+	"kneeprint/cmd/internal/typedtable"
 	"kneeprint/perf"
 )
 
@@ -32,6 +33,11 @@ type Document struct {
 	Defaults []string // defaults applied, one sentence each
 	Warnings []string // things that are legal but look wrong
 
+	// Tables are an aircraft's tables as typed, one per quantity (ground roll,
+	// distance to 50 ft), blocks in file order, each cell with its line: for the
+	// proof sheet and the outlier check. Set when the table's shape could be read.
+	Tables []*typedtable.Table
+
 	calib []calibPoint // an aircraft's calibration points as read, for the residual table
 }
 
@@ -53,6 +59,7 @@ func Parse(name string, data []byte) (*Document, error) {
 			doc.Kind = KindAircraft
 			doc.Aircraft = d.aircraft(m)
 			d.checkPrinted(root, KindAircraft)
+			d.outlierWarnings()
 		case kindNode.Value == string(KindAirfield):
 			doc.Kind = KindAirfield
 			doc.Airfield = d.airfield(m)
@@ -71,6 +78,7 @@ func Parse(name string, data []byte) (*Document, error) {
 	}
 	doc.Defaults, doc.Warnings = d.notes, d.warns
 	doc.calib = d.calib
+	doc.Tables = d.typed
 	if err := d.result().Err(); err != nil {
 		return doc, err
 	}

@@ -12,8 +12,9 @@ import (
 )
 
 // Summarize writes a plain-text account of what a document holds, the defaults that
-// were applied and the warnings raised, for validate.
-func Summarize(w io.Writer, doc *Document) {
+// were applied and the warnings raised, for validate. It returns the number of
+// warnings written.
+func Summarize(w io.Writer, doc *Document) int {
 	warnings := doc.Warnings
 	switch {
 	case doc.Airfield != nil:
@@ -48,6 +49,7 @@ func Summarize(w io.Writer, doc *Document) {
 			fmt.Fprintf(w, "    ! %s\n", s)
 		}
 	}
+	return len(warnings)
 }
 
 func summarizeAirfield(w io.Writer, a *perf.Airfield) {
