@@ -250,7 +250,6 @@ func TestTooSmallToJudge(t *testing.T) {
 	assert.Empty(t, typedtable.Outliers(tab))
 }
 
-
 // Step reads the rounding step from the figures as typed.
 func TestStep(t *testing.T) {
 	mk := func(texts ...string) *typedtable.Table {
