@@ -282,13 +282,13 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 		// The table as typed, blocks in file order, for the proof sheet and the
 		// outlier check.
 		for _, q := range []struct {
-			quantity, key string
-			nodes         func(block) [][]*yaml.Node
+			quantity, short, key string
+			nodes                func(block) [][]*yaml.Node
 		}{
-			{"ground roll", "ground_roll", func(b block) [][]*yaml.Node { return b.grNode }},
-			{"distance to 50 ft", "to_50ft", func(b block) [][]*yaml.Node { return b.toNode }},
+			{"ground roll", "roll", "ground_roll", func(b block) [][]*yaml.Node { return b.grNode }},
+			{"distance to 50 ft", "50 ft", "to_50ft", func(b block) [][]*yaml.Node { return b.toNode }},
 		} {
-			tt := &typedtable.Table{File: d.file, Quantity: q.quantity, Section: "table", Key: q.key, Unit: unit,
+			tt := &typedtable.Table{File: d.file, Quantity: q.quantity, Short: q.short, Section: "table", Key: q.key, Unit: unit,
 				PressureAltitudes: typedLabels(m.vals["pressure_altitudes"], t.PressureAltM),
 				Temperatures:      typedLabels(m.vals["temperatures"], t.TempK)}
 			for _, b := range bs {

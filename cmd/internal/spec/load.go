@@ -37,6 +37,9 @@ type Document struct {
 	// distance to 50 ft), blocks in file order, each cell with its line: for the
 	// proof sheet and the outlier check. Set when the table's shape could be read.
 	Tables []*typedtable.Table
+	// Scalars are the file's values as typed, by field path (runways[0].ends[1].tora),
+	// for the proof sheet's "as typed" columns.
+	Scalars map[string]Scalar
 
 	calib []calibPoint // an aircraft's calibration points as read, for the residual table
 }
@@ -48,6 +51,8 @@ func Parse(name string, data []byte) (*Document, error) {
 	doc := &Document{Path: name}
 	root := d.parseRoot(data)
 	if root != nil {
+		doc.Scalars = map[string]Scalar{}
+		scalars(root, "", doc.Scalars)
 		m := d.mapping(root, "")
 		kindNode := m.get("kind", false)
 		switch {

@@ -51,3 +51,73 @@ func (d *decoder) outlierWarnings() {
 		}
 	}
 }
+
+// Scalar is one value of a file as typed, with its place.
+type Scalar struct {
+	Text         string
+	Line, Column int
+}
+
+// scalars records every scalar value of the tree under its field path, named as the
+// loader's messages name fields: runways[0].ends[1].tora.
+func scalars(n *yaml.Node, path string, out map[string]Scalar) {
+	switch n.Kind {
+	case yaml.ScalarNode:
+		if n.Tag != "!!null" {
+			out[path] = Scalar{Text: n.Value, Line: n.Line, Column: n.Column}
+		}
+	case yaml.MappingNode:
+		for i := 0; i+1 < len(n.Content); i += 2 {
+			k := n.Content[i].Value
+			if path != "" {
+				k = path + "." + k
+			}
+			scalars(n.Content[i+1], k, out)
+		}
+	case yaml.SequenceNode:
+		for i, c := range n.Content {
+			scalars(c, path+"["+strconv.Itoa(i)+"]", out)
+		}
+	}
+}
+
+// Residual is one manual figure of a physics calibration against the fitted model.
+type Residual struct {
+	Line, Column int
+	Field        string  // where the figure was read: physics.calibration[0].ground_roll
+	Point        string  // the point's conditions in words
+	Figure       string  // "ground roll" or "to 50 ft"
+	ManualM      float64 // the manual's figure
+	ModelM       float64 // the fitted model's (0 when it gives none)
+	Pct          float64 // (model - manual) / manual x 100
+	Err          string  // why the model gave no figure, if it did not
+}
+
+// Residuals lists every figure the physics was fitted to, with the fitted model's
+// answer, as validate prints them; nil when the profile has no calibration.
+func (doc *Document) Residuals() []Residual {
+	if doc.Aircraft == nil || doc.Aircraft.Physics == nil || doc.Aircraft.Physics.Calibration == nil {
+		return nil
+	}
+	c := doc.Aircraft.Physics.Calibration
+	var out []Residual
+	for i, cp := range doc.calib {
+		if i >= len(c.Fits) {
+			break
+		}
+		f := c.Fits[i]
+		what := cp.label
+		if !cp.p.FromTable {
+			what = pointWords(cp)
+		}
+		add := func(at *yaml.Node, fld, name string, manual, model, pct float64) {
+			if at == nil {
+				return
+			}
+			out = append(out, Residual{Line: at.Line, Column: at.Column, Field: fld, Point: what, Figure: name, ManualM: manual, ModelM: model, Pct: pct, Err: f.Err})
+		}
+		add(cp.grAt, cp.grFld, "ground roll", cp.p.GroundRollM, f.GroundRollM, f.GroundRollPct)
+		add(cp.toAt, cp.toFld, "to 50 ft", cp.p.To50ftM, f.To50ftM, f.To50ftPct)
+	}
+	return out
+}

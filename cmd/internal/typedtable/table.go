@@ -12,6 +12,7 @@ import "fmt"
 type Table struct {
 	File     string // the file it was read from, as messages name it
 	Quantity string // what the figures are, in words: "ground roll", "distance to 50 ft"
+	Short    string // a column heading for them: "roll", "50 ft"
 	Section  string // the file's section holding the blocks, e.g. "table"
 	Key      string // the key of each block's rows, e.g. "ground_roll"
 	Unit     string // the unit the figures are typed in: "ft", "m"
