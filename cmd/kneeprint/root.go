@@ -77,6 +77,7 @@ applies the published corrections and safety factors, and prints kneeboard cards
 		newCardsCmd(e),
 		newStaleCmd(e),
 		newDiffCmd(e),
+		newProofCmd(e),
 		newVersionCmd(e),
 	)
 	return root

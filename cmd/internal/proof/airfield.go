@@ -114,7 +114,7 @@ func writeAirfield(w io.Writer, src Source, doc *spec.Document, opt Options) err
 		if err != nil {
 			return err
 		}
-		h := 22 + 9*float64(lanes(pick(views, 0))+lanes(pick(views, 1))-1)
+		h := 22 + 9*float64(lanes(pick(views, 0), length)+lanes(pick(views, 1), length)-1)
 		s.ensure(h)
 		y := s.pdf.GetY()
 		p.Draw(draw.New(newCanvas(s.pdf, s.margin, y, s.width(), h)))
@@ -158,21 +158,34 @@ func runwayHeading(doc *spec.Document, i int, r perf.Runway, length float64) str
 	return fmt.Sprintf("Runway %s (runways[%d]%s): %s, %s, %.0f m long, %s", strings.Join(ds, "/"), i, line, r.Surface, r.Condition, length, slope)
 }
 
-// bar is one declared distance of one end: from, to in metres along the drawing.
+// bar is one declared distance of one end, as drawn: from the start to the end of
+// the distance, in metres along the drawing.
 type bar struct {
 	name     string
-	from, to float64
 	metres   float64
+	from, to float64
 }
 
-// declared lists an end's declared distances as bars, for the end's direction: the
-// first end takes off to the right (x grows), the second to the left.
-func declared(v endView) []bar {
+// declared lists an end's declared distances as bars. The first end (first true)
+// takes off to the right, its departure end at x = length; the second to the left,
+// its departure end at x = 0. Each distance ends where it ends: TORA and LDA at the
+// departure end, TODA and ASDA beyond it by the clearway and the stopway; TODA and
+// ASDA start where the run starts.
+func declared(v endView, length float64, first bool) []bar {
+	dir, far := 1.0, length
+	if !first {
+		dir, far = -1, 0
+	}
 	var out []bar
 	add := func(name string, m float64) {
-		if m > 0 {
-			out = append(out, bar{name: name, metres: m})
+		if m <= 0 {
+			return
 		}
+		b := bar{name: name, metres: m, from: far - dir*m, to: far}
+		if name == "TODA" || name == "ASDA" {
+			b.from, b.to = far-dir*v.TORAM, far+dir*(m-v.TORAM)
+		}
+		out = append(out, b)
 	}
 	add("TORA", v.TORAM)
 	add("TODA", v.TODAM)
@@ -235,16 +248,9 @@ func (s *sheet) schematic(views []endView, length float64) (*plot.Plot, error) {
 		// The designator where the takeoff run starts.
 		labels = append(labels, labelAt{far - dir*math.Min(v.TORAM, length) + dir*inset, 0, head, align, true, color.White})
 		lane := 1.0
-		for _, b := range declared(v) {
+		for _, b := range declared(v, length, i == 0) {
 			y := lane * sign
-			x0 := far - dir*math.Min(b.metres, v.TORAM) // TODA and ASDA start with the run
-			if b.name == "TORA" || b.name == "LDA" {
-				x0 = far - dir*b.metres
-			}
-			x1 := far
-			if b.name == "TODA" || b.name == "ASDA" {
-				x1 = far + dir*(b.metres-v.TORAM)
-			}
+			x0, x1 := b.from, b.to
 			lo, hi = math.Min(lo, math.Min(x0, x1)), math.Max(hi, math.Max(x0, x1))
 			fill := color.Gray{Y: 215}
 			if b.name == "TORA" {
@@ -308,13 +314,13 @@ func (s *sheet) schematic(views []endView, length float64) (*plot.Plot, error) {
 	p.Y.Tick.Marker = plot.ConstantTicks(ticks)
 	pad := (hi - lo) * 0.05
 	p.X.Min, p.X.Max = lo-pad, hi+pad
-	p.Y.Min, p.Y.Max = -float64(lanes(pick(views, 1))-1)-0.7, float64(lanes(pick(views, 0))-1)+0.7
+	p.Y.Min, p.Y.Max = -float64(lanes(pick(views, 1), length)-1)-0.7, float64(lanes(pick(views, 0), length)-1)+0.7
 	return p, nil
 }
 
 // lanes is the number of lanes an end's bars and obstacles take, plus one.
-func lanes(v endView) int {
-	n := len(declared(v)) + 1
+func lanes(v endView, length float64) int {
+	n := len(declared(v, length, true)) + 1
 	if len(v.Obstacles) > 0 {
 		n++
 	}

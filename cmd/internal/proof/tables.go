@@ -50,11 +50,12 @@ func groupByAxes(tables []*typedtable.Table) [][]*typedtable.Table {
 
 // Geometry of the manual-like table, mm.
 const (
-	altColMM    = 22.0 // the pressure-altitude column
-	linesColMM  = 20.0 // the file lines of each printed row
-	minCellMM   = 11.0 // narrower cells split the table
+	altColMM    = 18.0 // the pressure-altitude column
+	linesColMM  = 16.0 // the file lines of each printed row
+	figurePt    = 8.5  // the figures: at least the sheet's 8 pt floor
+	minCellMM   = 10.0 // narrower cells split the table
 	rowMM       = 5.5
-	tickBoxMM   = 2.4
+	tickBoxMM   = 2.2
 	flagFrameMM = 0.7
 )
 
@@ -68,13 +69,25 @@ func (s *sheet) manualTables(group []*typedtable.Table, flagged map[cellKey]type
 	t0 := group[0]
 	avail := s.width() - altColMM - linesColMM
 	nq, nt := len(group), len(t0.Temperatures)
-	if nq > 1 && avail/float64(nq*nt) < minCellMM {
+	// A cell holds its tick box and the widest figure, in bold with its mark.
+	s.font(figurePt, true)
+	need := minCellMM
+	for _, t := range group {
+		for _, bl := range t.Blocks {
+			for _, row := range bl.Rows {
+				for _, c := range row {
+					need = max(need, 0.6+tickBoxMM+0.8+s.pdf.GetStringWidth(c.Text+"!")+0.8)
+				}
+			}
+		}
+	}
+	if nq > 1 && avail/float64(nq*nt) < need {
 		for _, t := range group { // too wide side by side: one quantity at a time
 			s.manualTables([]*typedtable.Table{t}, flagged)
 		}
 		return
 	}
-	perChunk := max(1, int(avail/(minCellMM*float64(nq))))
+	perChunk := max(1, int(avail/(need*float64(nq))))
 	var names []string
 	for _, t := range group {
 		names = append(names, t.Quantity)
@@ -135,18 +148,18 @@ func (s *sheet) manualTables(group []*typedtable.Table, flagged map[cellKey]type
 						s.pdf.SetLineWidth(0.2)
 						s.pdf.Rect(cx, y, cellW, rowMM, "D")
 						// The box to tick.
-						s.pdf.Rect(cx+0.8, y+(rowMM-tickBoxMM)/2, tickBoxMM, tickBoxMM, "D")
+						s.pdf.Rect(cx+0.6, y+(rowMM-tickBoxMM)/2, tickBoxMM, tickBoxMM, "D")
 						text := cell.Text
 						_, isFlagged := flagged[cellKey{t, b, p, k}]
-						s.font(bodyPt, isFlagged)
+						s.font(figurePt, isFlagged)
 						if isFlagged {
 							text += "!"
 							s.pdf.SetLineWidth(flagFrameMM)
 							s.pdf.Rect(cx+flagFrameMM/2, y+flagFrameMM/2, cellW-flagFrameMM, rowMM-flagFrameMM, "D")
 							s.pdf.SetLineWidth(0.2)
 						}
-						s.pdf.SetXY(cx, y)
-						s.pdf.CellFormat(cellW-0.8, rowMM, text, "", 0, "R", false, 0, "")
+						// Right-aligned, 0.8 mm from the cell's edge, on the row's baseline.
+						s.pdf.Text(cx+cellW-0.8-s.pdf.GetStringWidth(text), y+rowMM/2+figurePt*0.35/2.5, text)
 					}
 					x += cellW * float64(nq)
 				}
