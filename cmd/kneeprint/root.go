@@ -78,6 +78,7 @@ applies the published corrections and safety factors, and prints kneeboard cards
 		newStaleCmd(e),
 		newDiffCmd(e),
 		newProofCmd(e),
+		newSchemaCmd(e),
 		newVersionCmd(e),
 	)
 	return root
