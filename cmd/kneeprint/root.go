@@ -79,6 +79,7 @@ applies the published corrections and safety factors, and prints kneeboard cards
 		newDiffCmd(e),
 		newProofCmd(e),
 		newSchemaCmd(e),
+		newImportCmd(e),
 		newVersionCmd(e),
 	)
 	return root

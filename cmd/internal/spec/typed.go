@@ -121,3 +121,14 @@ func (doc *Document) Residuals() []Residual {
 	}
 	return out
 }
+
+// CheckTable reads a profile's table section given as a YAML mapping node (built by
+// a reader of another format, with that format's lines and columns) with exactly
+// the loader's checks. It returns the table as typed and the outlier warnings; the
+// error, when not nil, is an ErrorList naming file, line, column and field.
+func CheckTable(file string, n *yaml.Node) ([]*typedtable.Table, []string, error) {
+	d := &decoder{file: file}
+	d.table(n, 0)
+	d.outlierWarnings()
+	return d.typed, d.warns, d.result().Err()
+}
