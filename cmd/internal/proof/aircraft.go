@@ -108,7 +108,7 @@ func profileItems(doc *spec.Document) [][2]string {
 		{"name", a.Name},
 		{"type", a.Type},
 		{"MTOW", typed("mtow")},
-		{"lowest flyable mass", joinNonEmpty(" ", typed("min_mass"), fmt.Sprintf("(%.0f kg used)", a.MinMassKg))},
+		{"lowest flyable mass", lowest(typed("min_mass"), a.MinMassKg)},
 		{"card weights", strings.Join(ws, ", ")},
 		{"takeoff flap", a.TakeoffFlap},
 		{"speeds (IAS)", joinNonEmpty(", ", prefixed("rotation ", typed("speeds.rotation")), prefixed("at 50 ft ", typed("speeds.at_50ft")))},
@@ -131,6 +131,13 @@ func profileItems(doc *spec.Document) [][2]string {
 		out = append(out, r)
 	}
 	return out
+}
+
+func lowest(typed string, kg float64) string {
+	if typed != "" {
+		return typed
+	}
+	return fmt.Sprintf("not given: %.0f kg, the table's lightest block", kg)
 }
 
 func prefixed(p, s string) string {

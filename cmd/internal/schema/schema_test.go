@@ -301,11 +301,15 @@ func TestSchemaAndLoaderAgree(t *testing.T) {
 		}
 		check(filepath.Base(f.name), f.data)
 	}
+	n := 0
 	for _, f := range goodFiles(t) {
 		for _, m := range mutations(t, f) {
 			check(m.name, m.data)
+			n++
 		}
 	}
+	assert.Greater(t, n, 1000, "mutations checked")
+	t.Logf("%d bad files and %d mutations checked", len(bad), n)
 	sort.Strings(disagreements)
 	seen := map[string]bool{}
 	for _, d := range disagreements {
