@@ -45,7 +45,7 @@ func TestInitStartersValidate(t *testing.T) {
 		if kind == "plan" {
 			// The starter plan names files still to be written: validate says so.
 			assert.Equal(t, exitFailure, code, out)
-			assert.Contains(t, out, "plan.yaml:6:5: aircraft[0]: ")
+			assert.Contains(t, out, "plan.yaml:7:5: aircraft[0]: ")
 			assert.Contains(t, out, "my-trainer.yaml: no such file")
 		} else {
 			assert.Equal(t, exitFailure, code, out)
@@ -60,7 +60,7 @@ func TestInitStartersValidate(t *testing.T) {
 	ac := filepath.Join(dir, "aircraft.yaml")
 	code, out, _ := runCLI(t, "validate", ac)
 	require.Equal(t, exitFailure, code)
-	assert.Contains(t, out, ac+":10:7: mtow: \"EXAMPLE 1000 kg\" is a starter placeholder")
+	assert.Contains(t, out, ac+":11:7: mtow: \"EXAMPLE 1000 kg\" is a starter placeholder")
 	assert.Contains(t, out, "table.wind_factoring_included: required, no default")
 
 	// cards refuses it too, and writes nothing.

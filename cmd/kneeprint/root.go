@@ -77,6 +77,9 @@ applies the published corrections and safety factors, and prints kneeboard cards
 		newCardsCmd(e),
 		newStaleCmd(e),
 		newDiffCmd(e),
+		newProofCmd(e),
+		newSchemaCmd(e),
+		newImportCmd(e),
 		newVersionCmd(e),
 	)
 	return root

@@ -12,8 +12,9 @@ import (
 )
 
 type validateOptions struct {
-	demo  bool
-	files []string
+	demo   bool
+	strict bool
+	files  []string
 }
 
 func newValidateCmd(e env) *cobra.Command {
@@ -26,7 +27,9 @@ is with its kind: line), prints a summary of what was read and the defaults appl
 and every error with file:line:column and field. A plan is checked with every file it
 names: each must exist and be of the kind its list needs. Text a card prints (names,
 flap, runway notes) must be characters the card's font can print. It exits 1 if any
-file has an error.
+file has an error. Warnings (legal but suspicious data, such as a table cell that breaks
+the smooth pattern of its neighbours) are listed with their file:line; with --strict
+they count as errors (exit 1).
 
 ` + caution,
 		Example: `  kneeprint validate --demo
@@ -41,6 +44,7 @@ file has an error.
 		},
 	}
 	cmd.Flags().BoolVar(&opts.demo, "demo", false, "validate the embedded demo files (invented aircraft and airfields)")
+	cmd.Flags().BoolVar(&opts.strict, "strict", false, "exit 1 when any file has a warning, as for an error")
 	return cmd
 }
 
@@ -57,7 +61,7 @@ func validateRun(e env, opts *validateOptions) error {
 		}
 		srcs = append(srcs, src)
 	}
-	failed := 0
+	failed, warned := 0, 0
 	for _, s := range srcs {
 		doc, err := s.Load()
 		if err != nil {
@@ -85,11 +89,16 @@ func validateRun(e env, opts *validateOptions) error {
 			}
 		}
 		fmt.Fprintf(e.stdout, "%s: ok, %s\n", s.Name, doc.Kind)
-		spec.Summarize(e.stdout, doc)
+		if spec.Summarize(e.stdout, doc) > 0 {
+			warned++
+		}
 	}
-	fmt.Fprintf(e.stdout, "\n%d file(s) read, %d with errors\n", len(srcs), failed)
-	if failed > 0 {
+	fmt.Fprintf(e.stdout, "\n%d file(s) read, %d with errors, %d with warnings\n", len(srcs), failed, warned)
+	switch {
+	case failed > 0:
 		return dataError{fmt.Errorf("%d of %d file(s) have errors", failed, len(srcs))}
+	case opts.strict && warned > 0:
+		return dataError{fmt.Errorf("--strict: %d of %d file(s) have warnings", warned, len(srcs))}
 	}
 	return nil
 }

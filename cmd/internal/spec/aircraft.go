@@ -8,6 +8,7 @@ import (
 
 	"gopkg.in/yaml.v3"
 
+	"kneeprint/cmd/internal/typedtable"
 	"kneeprint/cmd/internal/units"
 	"kneeprint/perf"
 )
@@ -251,6 +252,8 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 		gr, to         [][]float64
 		grNode, toNode [][]*yaml.Node
 		node           *yaml.Node
+		index          int        // position in the file's list
+		wNode          *yaml.Node // the weight as typed
 	}
 	var bs []block
 	ok3 = true
@@ -273,7 +276,26 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 			ok3 = false
 			continue
 		}
-		bs = append(bs, block{w, gr, to, grN, toN, bn})
+		bs = append(bs, block{w, gr, to, grN, toN, bn, i, bm.vals["weight"]})
+	}
+	if ok3 && len(bs) > 0 && len(bs) == len(blocks) {
+		// The table as typed, blocks in file order, for the proof sheet and the
+		// outlier check.
+		for _, q := range []struct {
+			quantity, short, key string
+			nodes                func(block) [][]*yaml.Node
+		}{
+			{"ground roll", "roll", "ground_roll", func(b block) [][]*yaml.Node { return b.grNode }},
+			{"distance to 50 ft", "50 ft", "to_50ft", func(b block) [][]*yaml.Node { return b.toNode }},
+		} {
+			tt := &typedtable.Table{File: d.file, Quantity: q.quantity, Short: q.short, Section: "table", Key: q.key, Unit: unit,
+				PressureAltitudes: typedLabels(m.vals["pressure_altitudes"], t.PressureAltM),
+				Temperatures:      typedLabels(m.vals["temperatures"], t.TempK)}
+			for _, b := range bs {
+				tt.Blocks = append(tt.Blocks, typedtable.Block{Index: b.index, Weight: typedLabel(b.wNode, b.w), Rows: typedCells(q.nodes(b))})
+			}
+			d.typed = append(d.typed, tt)
+		}
 	}
 	if ok3 && len(bs) > 0 {
 		sort.SliceStable(bs, func(i, j int) bool { return bs[i].w < bs[j].w })

@@ -12,6 +12,7 @@ import (
 
 	"gopkg.in/yaml.v3"
 
+	"kneeprint/cmd/internal/typedtable"
 	"kneeprint/cmd/internal/units"
 )
 
@@ -33,6 +34,10 @@ type decoder struct {
 	// An aircraft's calibration points, and the nodes of its table's cells.
 	calib      []calibPoint
 	tableNodes [2][][][]*yaml.Node
+
+	// typed holds an aircraft's tables as typed (typedtable), for the proof sheet
+	// and the outlier check.
+	typed []*typedtable.Table
 }
 
 // result returns the errors, with a last line counting those not listed.

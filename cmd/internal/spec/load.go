@@ -8,6 +8,7 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"kneeprint/cmd/internal/files"
+	"kneeprint/cmd/internal/typedtable"
 	"kneeprint/perf"
 )
 
@@ -32,6 +33,14 @@ type Document struct {
 	Defaults []string // defaults applied, one sentence each
 	Warnings []string // things that are legal but look wrong
 
+	// Tables are an aircraft's tables as typed, one per quantity (ground roll,
+	// distance to 50 ft), blocks in file order, each cell with its line: for the
+	// proof sheet and the outlier check. Set when the table's shape could be read.
+	Tables []*typedtable.Table
+	// Scalars are the file's values as typed, by field path (runways[0].ends[1].tora),
+	// for the proof sheet's "as typed" columns.
+	Scalars map[string]Scalar
+
 	calib []calibPoint // an aircraft's calibration points as read, for the residual table
 }
 
@@ -42,6 +51,8 @@ func Parse(name string, data []byte) (*Document, error) {
 	doc := &Document{Path: name}
 	root := d.parseRoot(data)
 	if root != nil {
+		doc.Scalars = map[string]Scalar{}
+		scalars(root, "", doc.Scalars)
 		m := d.mapping(root, "")
 		kindNode := m.get("kind", false)
 		switch {
@@ -53,6 +64,7 @@ func Parse(name string, data []byte) (*Document, error) {
 			doc.Kind = KindAircraft
 			doc.Aircraft = d.aircraft(m)
 			d.checkPrinted(root, KindAircraft)
+			d.outlierWarnings()
 		case kindNode.Value == string(KindAirfield):
 			doc.Kind = KindAirfield
 			doc.Airfield = d.airfield(m)
@@ -71,6 +83,7 @@ func Parse(name string, data []byte) (*Document, error) {
 	}
 	doc.Defaults, doc.Warnings = d.notes, d.warns
 	doc.calib = d.calib
+	doc.Tables = d.typed
 	if err := d.result().Err(); err != nil {
 		return doc, err
 	}

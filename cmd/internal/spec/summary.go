@@ -12,8 +12,9 @@ import (
 )
 
 // Summarize writes a plain-text account of what a document holds, the defaults that
-// were applied and the warnings raised, for validate.
-func Summarize(w io.Writer, doc *Document) {
+// were applied and the warnings raised, for validate. It returns the number of
+// warnings written.
+func Summarize(w io.Writer, doc *Document) int {
 	warnings := doc.Warnings
 	switch {
 	case doc.Airfield != nil:
@@ -48,6 +49,7 @@ func Summarize(w io.Writer, doc *Document) {
 			fmt.Fprintf(w, "    ! %s\n", s)
 		}
 	}
+	return len(warnings)
 }
 
 func summarizeAirfield(w io.Writer, a *perf.Airfield) {
@@ -136,14 +138,9 @@ func summarizeFit(w io.Writer, doc *Document) {
 			break
 		}
 		f := c.Fits[i]
-		cond := cp.p.Conditions
 		what := cp.label
 		if !cp.p.FromTable {
-			wind := "calm"
-			if cond.HeadwindMS != 0 {
-				wind = fmt.Sprintf("headwind %+.0f kt", units.Knots(cond.HeadwindMS))
-			}
-			what = fmt.Sprintf("%s %.0f ft, %.0f C, %.0f kg, %s %s, %s", cp.label, units.Feet(cond.PressureAltM), units.Celsius(cond.TempK), cond.MassKg, cond.Surface, cond.Condition, wind)
+			what = pointWords(cp)
 		}
 		row := func(at *yaml.Node, name string, manual, model, pct float64) {
 			if at == nil {
@@ -158,6 +155,17 @@ func summarizeFit(w io.Writer, doc *Document) {
 		row(cp.grAt, "ground roll", cp.p.GroundRollM, f.GroundRollM, f.GroundRollPct)
 		row(cp.toAt, "to 50 ft", cp.p.To50ftM, f.To50ftM, f.To50ftPct)
 	}
+}
+
+// pointWords names a calibration point's conditions: "calibration[0] 0 ft, 15 C,
+// 1250 kg, paved dry, calm".
+func pointWords(cp calibPoint) string {
+	cond := cp.p.Conditions
+	wind := "calm"
+	if cond.HeadwindMS != 0 {
+		wind = fmt.Sprintf("headwind %+.0f kt", units.Knots(cond.HeadwindMS))
+	}
+	return fmt.Sprintf("%s %.0f ft, %.0f C, %.0f kg, %s %s, %s", cp.label, units.Feet(cond.PressureAltM), units.Celsius(cond.TempK), cond.MassKg, cond.Surface, cond.Condition, wind)
 }
 
 func first(xs []float64) float64 {

@@ -228,3 +228,13 @@ func HPa(pa float64) float64 { return pa / PascalsPerHPa }
 
 // InHg converts pascals to inches of mercury.
 func InHg(pa float64) float64 { return pa / PascalsPerInHg }
+
+// Spellings lists every spelling of a unit that Parse accepts for d (Accepted lists
+// only the canonical ones), for the files' JSON Schema.
+func Spellings(d Dimension) []string {
+	var out []string
+	for _, u := range table[d] {
+		out = append(out, u.spellings...)
+	}
+	return out
+}
