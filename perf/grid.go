@@ -153,11 +153,11 @@ func (r reason) String() string {
 		return fmt.Sprintf("%s: %.0f %s required, %.0f %s available, less than %.0f %% spare", r.s, r.a, r.unit, r.b, r.unit, r.c*100)
 	case reasonObstacle:
 		if r.a < 0 {
-			return fmt.Sprintf("%s at %.0f %s past the runway end: %.0f ft below its top, %.0f ft clearance required", obstacleName(r.c, r.s), r.d, r.unit, -r.a, r.b)
+			return fmt.Sprintf("%s %s: %.0f ft below its top, %.0f ft clearance required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), -r.a, r.b)
 		}
-		return fmt.Sprintf("%s at %.0f %s past the runway end: %.0f ft clearance, %.0f ft required", obstacleName(r.c, r.s), r.d, r.unit, r.a, r.b)
+		return fmt.Sprintf("%s %s: %.0f ft clearance, %.0f ft required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), r.a, r.b)
 	case reasonObstacleBefore:
-		return fmt.Sprintf("%s at %.0f %s past the runway end stands before the 50 ft point (takeoff distance %.0f %s from the start of the run): %.0f ft clearance required", obstacleName(r.c, r.s), r.d, r.unit, r.a, r.unit, r.b)
+		return fmt.Sprintf("%s %s stands before the 50 ft point (takeoff distance %.0f %s from the start of the run): %.0f ft clearance required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), r.a, r.unit, r.b)
 	}
 	return r.s
 }

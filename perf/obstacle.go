@@ -152,3 +152,11 @@ func obstacleName(heightM float64, note string) string {
 	}
 	return fmt.Sprintf("%.0f ft %s", math.Ceil(heightM/footM-1e-9), note)
 }
+
+// obstacleWhere says where an obstacle stands, d past the runway end in unit.
+func obstacleWhere(d float64, unit string) string {
+	if d == 0 {
+		return "at the runway end"
+	}
+	return fmt.Sprintf("at %.0f %s past the runway end", d, unit)
+}

@@ -151,7 +151,7 @@ func Diff(aircraft []*perf.Aircraft, old, new *perf.Airfield, t spec.CardTemplat
 		}
 		weights := append([]float64(nil), a.WeightsKg...)
 		sort.Sort(sort.Reverse(sort.Float64Slice(weights)))
-		gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin, Rounding: t.Rounding()}
+		gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin, Rounding: t.Rounding(), ObstacleMarginM: t.ObstacleMarginM}
 		for _, e := range old.Ends() {
 			ne, ok := newEnds[e.Designator]
 			if !ok {
