@@ -129,7 +129,7 @@ func TestPhysicsClimbByHand(t *testing.T) {
 	v := 76 * knot
 	etaP := p.PropEfficiency * p.PowerW
 	co := climbOut{w: 1250 * StandardGravity, rho: ISASeaLevelDensity, s: p.WingAreaM2, cd0: p.CD0,
-		k: 1 / (math.Pi * p.Oswald * p.SpanM * p.SpanM / p.WingAreaM2),
+		k:    1 / (math.Pi * p.Oswald * p.SpanM * p.SpanM / p.WingAreaM2),
 		prop: &propThrust{static: 1e9, atLO: etaP / v, vLO: v, etaP: etaP}}
 	assert.InDelta(t, v*co.excess(v), r.RateMS, 1e-3)
 }

@@ -85,7 +85,11 @@ func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool) *perf.ClimbT
 	ok1 = ok1 && d.increasing("climb.pressure_altitudes", t.PressureAltM, nodes)
 	t.TempK, nodes, ok2 = m.quantities("temperatures", units.Temperature, true, minDataTempK, maxDataTempK)
 	ok2 = ok2 && d.increasing("climb.temperatures", t.TempK, nodes)
-	axesOK := ok1 && ok2 && factor > 0
+	axesOK := ok1 && ok2
+	unitOK := factor > 0
+	if !unitOK {
+		factor = rateUnits["ft/min"] // to read the rows' shape; the table is refused anyway
+	}
 	type block struct {
 		w     float64
 		rates [][]float64
@@ -139,7 +143,7 @@ func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool) *perf.ClimbT
 		d.notef("climb: one rate-of-climb table, taken as the MTOW's (%.0f kg) and used at every lighter weight (conservative)", mtow)
 		bs = append(bs, block{mtow, rates, rn, m.vals["rate_of_climb"]})
 	}
-	if !ok || !axesOK || len(bs) == 0 {
+	if !ok || !axesOK || !unitOK || len(bs) == 0 {
 		return nil
 	}
 	sort.SliceStable(bs, func(i, j int) bool { return bs[i].w < bs[j].w })

@@ -77,9 +77,13 @@ func (d *decoder) obstacles(m *mapping) []rawObstacle {
 			r.elevNode = om.vals["elevation"]
 			r.ok = r.ok && r.byElev
 		default:
-			h, ok := om.quantity("height", units.Length, true, 0, perf.MaxObstacleHeightM)
-			if ok && h <= 0 {
+			h, ok := om.quantity("height", units.Length, true, -maxElevationM, maxElevationM)
+			switch {
+			case ok && h <= 0:
 				d.errorf(om.vals["height"], om.field("height"), "an obstacle has a height above the ground: leave out what does not stand above the end of the TORA")
+				ok = false
+			case ok && h > perf.MaxObstacleHeightM+1e-9:
+				d.errorf(om.vals["height"], om.field("height"), "%s is more than 1500 ft above the end of the TORA, where the take-off flight path ends (CAT.POL.A.310(a)(1)): a matter of route planning", om.vals["height"].Value)
 				ok = false
 			}
 			r.o.HeightM, r.ok = h, r.ok && ok

@@ -31,12 +31,12 @@ type CardTemplate struct {
 	ObstacleMarginM float64
 }
 
-// Obstacle margins a template accepts: below 10 ft a margin is smaller than the
+// Obstacle margins a template (and check's --obstacle-margin) accepts: below 10 ft a margin is smaller than the
 // precision of a surveyed obstacle height, above 500 ft it is no longer a margin
 // (common practice).
 const (
-	minObstacleMarginM = 10 * units.MetresPerFoot
-	maxObstacleMarginM = 500 * units.MetresPerFoot
+	MinObstacleMarginM = 10 * units.MetresPerFoot
+	MaxObstacleMarginM = 500 * units.MetresPerFoot
 )
 
 // Grid-size limits: a card cannot hold more, and larger requests are mistakes.
@@ -97,7 +97,7 @@ func (d *decoder) cardTemplate(m *mapping) *CardTemplate {
 	if len(t.CrosswindSpeedsMS) > 6 || len(t.CrosswindAnglesDeg) > 7 {
 		d.errorf(m.n, "crosswind_speeds", "at most 6 speeds and 7 angles fit the crosswind helper")
 	}
-	if v, ok := m.quantity("obstacle_margin", units.Length, false, minObstacleMarginM, maxObstacleMarginM); ok {
+	if v, ok := m.quantity("obstacle_margin", units.Length, false, MinObstacleMarginM, MaxObstacleMarginM); ok {
 		t.ObstacleMarginM = v
 	} else if !m.has("obstacle_margin") {
 		t.ObstacleMarginM = perf.DefaultObstacleMarginM
