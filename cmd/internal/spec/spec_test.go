@@ -112,6 +112,7 @@ func TestBadFiles(t *testing.T) {
 			"af-obstacle-place.yaml:14:48: runways[0].ends[0].obstacles[3].past_end: -50 m is outside the accepted range 0 to 10000 m",
 			`af-obstacle-place.yaml:15:20: runways[0].ends[0].obstacles[4].note: "a very long description of a row of poplar trees" is longer than 40 characters`,
 		}},
+		{"af-obstacle-many.yaml", []string{"af-obstacle-many.yaml:11:11: runways[0].ends[0].obstacles: 7 obstacles, at most 6"}},
 		{"af-obstacle-unprintable.yaml", []string{`af-obstacle-unprintable.yaml:11:20: runways[0].ends[0].obstacles[0].note: a card cannot print "⚡" (U+26A1)`}},
 		{"ac-climb-rising.yaml", []string{"ac-climb-rising.yaml:27:13: climb (1000 kg).rate_of_climb[0][1]: rate of climb rises as temperature rises: check the typing"}},
 		{"ac-climb-no-table.yaml", []string{"ac-climb-no-table.yaml:22:3: climb: a climb needs the manual's rate-of-climb table"}},
