@@ -426,6 +426,10 @@ func obstacleText(d CardData) string {
 		}
 		obs = append(obs, s)
 	}
+	if d.ClimbKIAS <= 0 {
+		return fmt.Sprintf("OBSTACLES past the end: %s. To be cleared by %s, but the profile gives no climb: no figure where the distance fits.",
+			strings.Join(obs, ", "), Keep(fmt.Sprintf("%.0f ft", d.ObstacleMarginFt)))
+	}
 	return fmt.Sprintf("OBSTACLES past the end: %s. Clear by %s at %s, from 50 ft at the takeoff distance before the safety factor; climb %%: still air, %s.",
 		strings.Join(obs, ", "), Keep(fmt.Sprintf("%.0f ft", d.ObstacleMarginFt)), Keep(trimNum(d.ClimbKIAS, 0)+" KIAS"), Keep(fmt.Sprintf("%.0f %s", d.ClimbWeight, d.MassUnit)))
 }

@@ -229,7 +229,7 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 			var cells []layout.CellData
 			for _, c := range row {
 				cd := layout.CellData{State: c.State, CannotTakeOff: c.CannotTakeOff, Obstacle: c.ObstacleNoGo}
-				if c.HasDistance && c.State != perf.BeyondLimits {
+				if c.HasDistance && c.State != perf.BeyondLimits && c.State != perf.NoData { // no data with a distance: an end with obstacles and no climb (issue 12)
 					cd.Distance, cd.HasDistance = c.ShownRequired, true
 					figures++
 				}

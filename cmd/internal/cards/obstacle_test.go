@@ -125,3 +125,36 @@ func TestCardDataObstacles(t *testing.T) {
 	assert.Nil(t, q.ObstacleMarginFt)
 	assert.True(t, strings.Contains(string(rd.Data), `"obstacles": []`), "an end without obstacles has an empty list, not null")
 }
+
+// A profile without climb data at a runway end with obstacles: no figure where the
+// distance alone would fit (n/d, and null in the card data, as printed), no-go where
+// it does not; the card says why when it has no figure at all.
+func TestCardObstaclesWithoutClimb(t *testing.T) {
+	j := demoJob(t, "a5", "Sedgefin", "KP-SPM")
+	a := *j.Aircraft
+	a.Climb = nil
+	j.Aircraft = &a
+	d, card := build(t, j, endOf(t, j, "04"), perf.Dry)
+	assert.Contains(t, flatText(card), "To be cleared by 50 ft, but the profile gives no climb: no figure where the distance fits.")
+	nodata, nogo := 0, 0
+	for _, b := range d.Blocks {
+		for _, row := range b.Cells {
+			for _, c := range row {
+				switch c.State {
+				case perf.NoData:
+					nodata++
+					assert.False(t, c.HasDistance, "no figure on a no-data cell")
+				case perf.NoGo:
+					nogo++
+				}
+				assert.NotEqual(t, perf.Go, c.State)
+				assert.NotEqual(t, perf.Tight, c.State)
+			}
+		}
+	}
+	assert.Positive(t, nodata)
+	assert.Positive(t, nogo)
+	for _, ok := range d.HasClimbPct {
+		assert.False(t, ok, "no climb row figure")
+	}
+}

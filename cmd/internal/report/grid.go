@@ -188,7 +188,7 @@ func WriteGridText(w io.Writer, in GridInput) error {
 					if c.ObstacleNoGo {
 						mark = "^"
 					}
-					if c.HasDistance && c.State != perf.BeyondLimits {
+					if c.HasDistance && c.State != perf.BeyondLimits && c.State != perf.NoData { // no data with a distance: an end with obstacles and no climb (issue 12)
 						fmt.Fprintf(b, "%6.0f%s", ceilM(c.RequiredM), mark)
 					} else {
 						fmt.Fprintf(b, "%6s%s", "--", textMarks[c.State])
