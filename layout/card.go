@@ -54,6 +54,18 @@ type CardData struct {
 	Accel     AccelCheck
 	Crosswind CrosswindHelper
 
+	// Obstacles past the end of the TORA (none: no obstacle line, no climb row, no
+	// obstacle mark in the legend), the clearance they must be passed by, and the
+	// climb: its speed, and per temperature column the still-air gradient over the
+	// ground at ClimbWeight (the heaviest block), rounded down to 0.1 %
+	// (HasClimbPct false: no figure).
+	Obstacles        []ObstacleData
+	ObstacleMarginFt float64
+	ClimbKIAS        float64
+	ClimbWeight      float64
+	ClimbPct         []float64
+	HasClimbPct      []bool
+
 	Generated   string // YYYY-MM-DD
 	ValidUntil  string
 	Fingerprint string
@@ -81,6 +93,17 @@ type CellData struct {
 	Distance      float64
 	HasDistance   bool
 	CannotTakeOff bool // a no-go without a figure: the model finds no takeoff
+	// Obstacle marks a no-go that fits the declared distances but whose climb does
+	// not clear an obstacle past the runway end by the margin.
+	Obstacle bool
+}
+
+// ObstacleData is one obstacle past the end of the TORA, as printed.
+type ObstacleData struct {
+	Note     string
+	HeightFt float64 // top above the end of the TORA, in feet (the trade's unit for obstacle heights), rounded up
+	PastEnd  float64 // from the end of the TORA, in the card's unit, rounded down
+	Lateral  float64 // offset from the extended centre line in the card's unit, right positive; 0 on it
 }
 
 // AccelCheck is the accelerate check as pilots are taught it (FAA AIM 7-6-8): reach
@@ -378,9 +401,41 @@ func (b *builder) header(d CardData, x, y, w float64) Block {
 	if d.RunwayNotes != "" {
 		y += b.paragraph(&blk, x, y, w, "Note: "+d.RunwayNotes, bodyPt, Regular)
 	}
+	if len(d.Obstacles) > 0 {
+		y += b.paragraph(&blk, x, y, w, obstacleText(d), bodyPt, Regular)
+	}
 	blk.Box = Rect{x - 0.9, top - 0.4, w + 1.8, y - top + 0.6}
 	return blk
 }
+
+// obstacleText is the card's obstacle line: each obstacle past the end of the TORA
+// (heights in feet, the trade's unit for obstacle heights; distances in the card's
+// unit), the margin, and what the clearance assumes.
+func obstacleText(d CardData) string {
+	var obs []string
+	for _, o := range d.Obstacles {
+		s := Keep(fmt.Sprintf("%s %.0f ft", o.Note, o.HeightFt)) + " at " + Keep(fmt.Sprintf("%.0f %s", o.PastEnd, d.Unit))
+		if o.PastEnd == 0 {
+			s = Keep(fmt.Sprintf("%s %.0f ft", o.Note, o.HeightFt)) + " at the end"
+		}
+		switch {
+		case o.Lateral < 0:
+			s += " (" + Keep(fmt.Sprintf("%.0f %s left", -o.Lateral, d.Unit)) + ")"
+		case o.Lateral > 0:
+			s += " (" + Keep(fmt.Sprintf("%.0f %s right", o.Lateral, d.Unit)) + ")"
+		}
+		obs = append(obs, s)
+	}
+	if d.ClimbKIAS <= 0 {
+		return fmt.Sprintf("OBSTACLES past the end: %s. To be cleared by %s, but the profile gives no climb: no figure where the distance fits.",
+			strings.Join(obs, ", "), Keep(fmt.Sprintf("%.0f ft", d.ObstacleMarginFt)))
+	}
+	return fmt.Sprintf("OBSTACLES past the end: %s. Clear by %s at %s, from 50 ft at the takeoff distance before the safety factor; climb %%: still air, %s.",
+		strings.Join(obs, ", "), Keep(fmt.Sprintf("%.0f ft", d.ObstacleMarginFt)), Keep(trimNum(d.ClimbKIAS, 0)+" KIAS"), Keep(fmt.Sprintf("%.0f %s", d.ClimbWeight, d.MassUnit)))
+}
+
+// climbLabel is the label of the grid's climb row.
+const climbLabel = "climb %"
 
 func windLabel(kt float64) string {
 	switch {
@@ -393,6 +448,14 @@ func windLabel(kt float64) string {
 }
 
 func figureText(c CellData) string { return fmt.Sprintf("%.0f", c.Distance) }
+
+// climbText is column ti's climb gradient as printed, or n/d.
+func climbText(d CardData, ti int) string {
+	if ti >= len(d.HasClimbPct) || !d.HasClimbPct[ti] {
+		return "n/d"
+	}
+	return fmt.Sprintf("%.1f", d.ClimbPct[ti])
+}
 
 // widestFigure is the widest figure the grid prints (at least four digits, so that
 // cards of one template keep one size), bold, at MinNumberPt.
@@ -423,6 +486,9 @@ func (b *builder) columns(d CardData, w float64) (gridCols, error) {
 	n := float64(len(d.Temps))
 	minCol := b.widestFigure(d) + 2*cellPadMM
 	need := b.f.WidthMM("DA ft", MinTextPt, Regular)
+	if len(d.ClimbPct) > 0 {
+		need = math.Max(need, b.f.WidthMM(climbLabel, MinTextPt, Regular))
+	}
 	for _, kt := range d.WindsKt {
 		need = math.Max(need, b.f.WidthMM(windLabel(kt), MinTextPt, Regular))
 	}
@@ -485,8 +551,13 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	}
 	nB, nW := float64(len(d.Blocks)), float64(len(d.WindsKt))
 	gaps := (nB - 1) * gapMM
-	// Rows: the density-altitude row, then per block a title row and the wind rows.
-	rowH := (h - gaps) / (1 + nB*(1+nW))
+	// Rows: the density-altitude row (and the climb row on a card with obstacles),
+	// then per block a title row and the wind rows.
+	top1 := 1.0
+	if len(d.ClimbPct) > 0 {
+		top1 = 2
+	}
+	rowH := (h - gaps) / (top1 + nB*(1+nW))
 	titleH := func(rowH float64) float64 {
 		if !g.twoLine {
 			return rowH
@@ -494,9 +565,9 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 		return math.Max(1.75*rowH, (MinNumberPt+MinTextPt)*ptMM+0.9)
 	}
 	if g.twoLine {
-		rowH = (h - gaps - nB*titleH(rowH)) / (1 + nB*nW)
+		rowH = (h - gaps - nB*titleH(rowH)) / (top1 + nB*nW)
 		if th := titleH(rowH); th > 1.75*rowH+1e-9 {
-			rowH = (h - gaps - nB*th) / (1 + nB*nW)
+			rowH = (h - gaps - nB*th) / (top1 + nB*nW)
 		}
 	}
 	rowH = math.Min(rowH, maxRowMM)
@@ -506,7 +577,7 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	numPt = math.Min(numPt, 13)
 	if numPt < MinNumberPt-1e-9 || rowH < MinNumberPt*ptMM {
 		minRow := (inkAboveEm+inkBelowEm)*MinNumberPt*ptMM + 2*cellPadMM
-		need := gaps + minRow*(1+nB*nW) + nB*titleH(minRow)
+		need := gaps + minRow*(top1+nB*nW) + nB*titleH(minRow)
 		return blk, 0, fmt.Errorf("card %s %s: %d weight blocks of %d rows do not fit on a %s card with figures of at least %.0f pt (%.0f mm left for the grid, %.0f mm needed): use fewer weights (max_blocks) or wind rows, or a larger page",
 			d.Ident, d.Designator, len(d.Blocks), len(d.WindsKt), b.card.Page.Name, MinNumberPt, h, need)
 	}
@@ -530,6 +601,19 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	}
 	blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, rowH}, Color: Grey, LineMM: 0.15})
 	y += rowH
+	if len(d.ClimbPct) > 0 {
+		// The still-air climb gradient per column at the heaviest block's weight.
+		cpt := daPt
+		for ti := range d.ClimbPct {
+			cpt = b.fitPt(climbText(d, ti), g.colW-2*cellPadMM, cpt, MinTextPt, Regular)
+		}
+		b.text(&blk, Rect{x + 0.7, y + (rowH-MinTextPt*ptMM)/2, g.labelW - 1.2, MinTextPt * ptMM}, climbLabel, MinTextPt, Regular, Left, Black, Label)
+		for ti := range d.ClimbPct {
+			b.text(&blk, Rect{colX(ti), y + (rowH-cpt*ptMM)/2, g.colW, cpt * ptMM}, climbText(d, ti), cpt, Regular, Center, Black, Label)
+		}
+		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, rowH}, Color: Grey, LineMM: 0.15})
+		y += rowH
+	}
 
 	for bi, wb := range d.Blocks {
 		if bi > 0 {
@@ -598,7 +682,7 @@ func (b *builder) cell(blk *Block, r Rect, c CellData, numPt float64) {
 	}
 	if st.Frame > 0 {
 		in := tightInsetMM + st.Frame/2
-		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{r.X + in, r.Y + in, r.W - 2*in, r.H - 2*in}, Color: Black, LineMM: st.Frame})
+		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{r.X + in, r.Y + in, r.W - 2*in, r.H - 2*in}, Color: st.FrameColor, LineMM: st.Frame})
 	}
 	font := Regular
 	if st.Bold {
@@ -740,7 +824,7 @@ func (b *builder) crosswind(blk *Block, d CardData, x, y, w float64) float64 {
 // top of the page (Build moves it).
 func (b *builder) legend(d CardData, x, w float64) Block {
 	blk := Block{Name: "legend"}
-	ls := looks()
+	ls := looksFor(d)
 	margin := trimNum(d.TightMarginPct, 1) + " %"
 	const swH = 6.4
 	// The swatch holds a sample of each mark at its full length ("LIMIT").
@@ -755,12 +839,29 @@ func (b *builder) legend(d CardData, x, w float64) Block {
 		}
 		entryW = math.Max(entryW, swW+1.2+math.Max(b.f.WidthMM(st.Word, MinTextPt, Bold), b.f.WidthMM(meanings[i], MinTextPt, Regular))+0.8)
 	}
-	cols := int(math.Max(1, math.Min(float64(len(ls)), math.Floor(w/entryW))))
-	for cols > 1 && (len(ls)+cols-1)/cols == (len(ls)+cols-2)/(cols-1) {
+	// The frame on a declared distance is explained in the slot after the marks when
+	// that costs no row of its own; otherwise on a line below them.
+	name := d.Limiting
+	if name == "" {
+		name = "TORA"
+	}
+	const frameWord, frameMeaning = "FRAMED", "limiting distance"
+	entryW = math.Max(entryW, swW+1.2+math.Max(b.f.WidthMM(frameWord, MinTextPt, Bold), b.f.WidthMM(frameMeaning, MinTextPt, Regular))+0.8)
+	rows := func(n, cols int) int { return (n + cols - 1) / cols }
+	cols := int(math.Max(1, math.Min(float64(len(ls)+1), math.Floor(w/entryW))))
+	for cols > 1 && rows(len(ls)+1, cols) == rows(len(ls)+1, cols-1) {
 		cols-- // as few columns as give the same number of rows: wider entries
+	}
+	frameInSlot := rows(len(ls)+1, cols) == rows(len(ls), cols)
+	if !frameInSlot {
+		cols = int(math.Max(1, math.Min(float64(len(ls)), math.Floor(w/entryW))))
+		for cols > 1 && rows(len(ls), cols) == rows(len(ls), cols-1) {
+			cols--
+		}
 	}
 	ew := w / float64(cols)
 	lh := MinTextPt * ptMM * 1.15
+	th := MinTextPt*ptMM + 0.05
 	y := 0.0
 	for i, l := range ls {
 		st := styleOf(l)
@@ -779,6 +880,8 @@ func (b *builder) legend(d CardData, x, w float64) Block {
 			sample = CellData{State: perf.BeyondLimits}
 		case lookNoData:
 			sample = CellData{State: perf.NoData}
+		case lookObstacle:
+			sample.State, sample.Obstacle = perf.NoGo, true
 		}
 		b.cell(&blk, sw, sample, MinNumberPt)
 		if st.Fill == nil || *st.Fill == White {
@@ -787,22 +890,32 @@ func (b *builder) legend(d CardData, x, w float64) Block {
 		tx := sw.X + sw.W + 1.2
 		tw := ex + ew - tx - 0.5
 		mid := ey + swH/2
-		th := MinTextPt*ptMM + 0.05
 		b.text(&blk, Rect{tx, mid - th - 0.15, tw, th}, st.Word, MinTextPt, Bold, Left, Black, Label)
 		b.text(&blk, Rect{tx, mid + 0.15, tw, th}, meanings[i], MinTextPt, Regular, Left, Black, Label)
 	}
-	y += float64((len(ls)+cols-1)/cols)*(swH+0.6) + 0.2
-	// The frame on a declared distance.
-	name := d.Limiting
-	if name == "" {
-		name = "TORA"
-	}
 	fw := b.f.WidthMM(name, MinTextPt, Bold)
-	b.text(&blk, Rect{x + 1.2, y + 0.5, fw + 0.01, lh}, name, MinTextPt, Bold, Left, Black, Label)
-	blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x + 0.4, y + 0.1, fw + 1.6, lh + 0.8}, Color: Black, LineMM: 0.35})
-	rest := "framed: the declared distance the figures are held against"
-	rx := x + fw + 3.4
-	y += 0.5 + b.paragraph(&blk, rx, y+0.5, w-(rx-x), rest, MinTextPt, Regular)
+	if frameInSlot {
+		i := len(ls)
+		ex := x + float64(i%cols)*ew
+		ey := y + float64(i/cols)*(swH+0.6)
+		// The declared distance framed as the header frames it, centred in a swatch.
+		fx, fy := ex+0.3+(swW-fw-1.6)/2, ey+(swH-lh-0.8)/2
+		b.text(&blk, Rect{fx + 0.8, fy + 0.4, fw + 0.01, lh}, name, MinTextPt, Bold, Left, Black, Label)
+		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{fx, fy, fw + 1.6, lh + 0.8}, Color: Black, LineMM: 0.35})
+		tx := ex + 0.3 + swW + 1.2
+		tw := ex + ew - tx - 0.5
+		mid := ey + swH/2
+		b.text(&blk, Rect{tx, mid - th - 0.15, tw, th}, frameWord, MinTextPt, Bold, Left, Black, Label)
+		b.text(&blk, Rect{tx, mid + 0.15, tw, th}, frameMeaning, MinTextPt, Regular, Left, Black, Label)
+		y += float64(rows(len(ls)+1, cols)) * (swH + 0.6)
+	} else {
+		y += float64(rows(len(ls), cols))*(swH+0.6) + 0.2
+		b.text(&blk, Rect{x + 1.2, y + 0.5, fw + 0.01, lh}, name, MinTextPt, Bold, Left, Black, Label)
+		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x + 0.4, y + 0.1, fw + 1.6, lh + 0.8}, Color: Black, LineMM: 0.35})
+		rest := "framed: the limiting distance, the declared distance the figures are held against"
+		rx := x + fw + 3.4
+		y += 0.5 + b.paragraph(&blk, rx, y+0.5, w-(rx-x), rest, MinTextPt, Regular)
+	}
 	blk.Box = Rect{x, 0, w, y + 0.4}
 	return blk
 }

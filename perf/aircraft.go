@@ -35,6 +35,10 @@ type Aircraft struct {
 	Model   ModelKind // which model the cards use
 	Table   *Table    // may be nil
 	Physics *Physics  // may be nil
+
+	// Climb is the all-engines climb after takeoff, for obstacle clearance; nil
+	// when the profile gives none (left out of the canonical form then).
+	Climb *Climb `json:",omitempty"`
 }
 
 // ModelKind selects a takeoff model.

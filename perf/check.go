@@ -14,6 +14,9 @@ type Question struct {
 	Wind        Wind      // a variable wind (Wind.Variable) is a full tailwind and crosswind on every end
 	Condition   Condition // "" keeps each runway's declared condition
 	TightMargin float64
+	// ObstacleMarginM is the clearance obstacles must be passed by; zero means
+	// DefaultObstacleMarginM.
+	ObstacleMarginM float64
 }
 
 // EndAnswer is the answer for one runway end.
@@ -28,6 +31,11 @@ type EndAnswer struct {
 	PressureAltM float64
 	DensityAltM  float64
 	ISADevK      float64
+	// Clearances is how each of the end's obstacles is passed (in file order), when
+	// the end lists obstacles and the cell has a climb (Cell.HasClimb); ClimbAltM is
+	// the pressure altitude the climb was worked out at (ObstacleClimbAltM).
+	Clearances []Clearance
+	ClimbAltM  float64
 }
 
 // Answer is the answer for the whole airfield, runway ends ranked best first.
@@ -127,7 +135,13 @@ func Ask(a *Aircraft, m Model, p Policy, f Airfield, q Question) (Answer, error)
 	ans.PressureAltM = PressureAltitudeFromQNH(q.QNHPa, f.ElevationM)
 	ans.DensityAltM = DensityAltitudeM(ans.PressureAltM, q.TempK)
 	ans.ISADevK = q.TempK - ISATempK(ans.PressureAltM)
+	var climb ClimbModel
+	climbDone := false
 	for _, e := range f.Ends() {
+		if len(e.Obstacles) > 0 && !climbDone {
+			climb, _ = ClimbFor(a) // nil: the cell says why
+			climbDone = true
+		}
 		ea := EndAnswer{ElevationM: TakeoffElevationM(f, e)}
 		if q.Condition != "" {
 			e.Condition = q.Condition
@@ -141,7 +155,12 @@ func Ask(a *Aircraft, m Model, p Policy, f Airfield, q Question) (Answer, error)
 			Aircraft: a, Model: m, Policy: p, End: e,
 			PressureAltM: ea.PressureAltM, TempK: q.TempK, MassKg: q.MassKg,
 			Wind: ea.Wind, TightMargin: q.TightMargin,
+			ObstacleMarginM: q.ObstacleMarginM, Climb: climb,
 		})
+		if ea.Cell.HasClimb {
+			ea.Clearances = ObstacleClearances(e, ea.Cell.Requirement.FactoredTODM, ea.Cell.ClimbGradient)
+			ea.ClimbAltM = ObstacleClimbAltM(e, ea.PressureAltM, ObstacleMargin(q.ObstacleMarginM))
+		}
 		ans.Ends = append(ans.Ends, ea)
 	}
 	sort.SliceStable(ans.Ends, func(i, j int) bool {

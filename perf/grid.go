@@ -49,7 +49,16 @@ type Case struct {
 	// Rounding is how the figures are printed; the state is decided from the printed
 	// figures (the zero value: whole metres).
 	Rounding Rounding
+	// ObstacleMarginM is the clearance the end's obstacles must be passed by; zero
+	// or less means DefaultObstacleMarginM (a margin of nothing is never meant).
+	ObstacleMarginM float64
+	// Climb is the profile's climb model for the obstacle check; nil means
+	// ClimbFor(Aircraft), asked only when the end lists obstacles.
+	Climb ClimbModel
 }
+
+// obstacleMargin is the margin the case asks for (ObstacleMargin).
+func (k Case) obstacleMargin() float64 { return ObstacleMargin(k.ObstacleMarginM) }
 
 // Cell is the answer to a Case.
 type Cell struct {
@@ -82,16 +91,27 @@ type Cell struct {
 	// CannotTakeOff is set when the model finds no takeoff at all (no acceleration to
 	// lift-off speed, or no climb): a no-go without a figure.
 	CannotTakeOff bool
-	reasons       []reason
+
+	// The obstacle check, when the runway end lists obstacles and the takeoff has a
+	// figure (HasClimb): the climb used (ObstacleClimb), and the obstacle passed with
+	// the least clearance. ObstacleNoGo is set when the cell fits the declared
+	// distances but does not clear an obstacle by the margin.
+	HasClimb      bool
+	ClimbRateMS   float64
+	ClimbGradient float64 // over the ground, with the credited wind (a fraction)
+	Clearance     Clearance
+	ObstacleNoGo  bool
+
+	reasons []reason
 }
 
 // reason is why a cell has its state, kept as numbers and formatted only when asked:
 // a season's cards hold millions of cells and print none of these sentences.
 type reason struct {
-	kind    reasonKind
-	a, b, c float64
-	s       string
-	unit    string
+	kind       reasonKind
+	a, b, c, d float64
+	s          string
+	unit       string
 }
 
 type reasonKind int
@@ -105,6 +125,8 @@ const (
 	reasonTemperature
 	reasonNoGo
 	reasonTight
+	reasonObstacle       // a: clearance ft, b: margin ft, c: height m, d: distance past the end, s: note
+	reasonObstacleBefore // a: TOD, b: margin ft, c: height m, d: distance past the end, s: note
 )
 
 func (r reason) String() string {
@@ -129,6 +151,13 @@ func (r reason) String() string {
 		return fmt.Sprintf("%s: %.0f %s required, %.0f %s available", r.s, r.a, r.unit, r.b, r.unit)
 	case reasonTight:
 		return fmt.Sprintf("%s: %.0f %s required, %.0f %s available, less than %.0f %% spare", r.s, r.a, r.unit, r.b, r.unit, r.c*100)
+	case reasonObstacle:
+		if r.a < 0 {
+			return fmt.Sprintf("%s %s: %.0f ft below its top, %.0f ft clearance required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), -r.a, r.b)
+		}
+		return fmt.Sprintf("%s %s: %.0f ft clearance, %.0f ft required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), r.a, r.b)
+	case reasonObstacleBefore:
+		return fmt.Sprintf("%s %s stands before the 50 ft point (takeoff distance %.0f %s from the start of the run): %.0f ft clearance required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), r.a, r.unit, r.b)
 	}
 	return r.s
 }
@@ -236,7 +265,74 @@ func Evaluate(k Case) Cell {
 		r.kind = reasonTight
 		c.worsen(Tight, r)
 	}
+	if len(k.End.Obstacles) > 0 {
+		c.obstacles(k, req.FactoredTODM, along)
+	}
 	return c
+}
+
+// obstacles is the obstacle check of a cell with a takeoff figure (issue 12): the
+// climb from the 50 ft point at the takeoff distance todM, with the wind along (the
+// reported component, credited as for the takeoff), past every obstacle of the end.
+//
+// The takeoff distance is the model's distance to 50 ft with the surface and slope
+// effects (the policy's factors for what the model does not include, as in
+// Requirement.FactoredTODM) but without the overall safety factor: where the
+// aircraft really is at 50 ft. The required margin stands in for the safety factor.
+//
+// A cell that does not clear an obstacle by the margin (decided from the printed
+// feet: clearance rounded down, margin rounded up) is no-go, with one reason per
+// obstacle. Without climb data the cell has no data, unless it is already no-go by
+// its distance (a runway too short needs no climb to be refused).
+func (c *Cell) obstacles(k Case, todM, along float64) {
+	fits := c.State <= Tight
+	cm := k.Climb
+	var err error
+	if cm == nil {
+		cm, err = ClimbFor(k.Aircraft)
+	}
+	var cr ClimbResult
+	var g float64
+	margin := k.obstacleMargin()
+	if err == nil {
+		cr, g, err = ObstacleClimb(cm, k.End, k.PressureAltM, k.TempK, k.MassKg, along, margin)
+	}
+	if err != nil {
+		r := reason{s: "obstacle clearance: " + err.Error()}
+		switch {
+		case errors.Is(err, ErrCannotTakeOff):
+			c.worsen(NoGo, r)
+			c.ObstacleNoGo = fits
+		case fits:
+			c.worsen(NoData, r)
+		default:
+			c.reasons = append(c.reasons, r)
+		}
+		return
+	}
+	for _, n := range cr.Notes {
+		c.reasons = append(c.reasons, reason{s: "climb: " + n})
+	}
+	c.HasClimb, c.ClimbRateMS, c.ClimbGradient = true, cr.RateMS, g
+	marginFt := shownMarginFt(margin)
+	for i, o := range k.End.Obstacles {
+		cl := ObstacleClearance(k.End, o, todM, g)
+		cl.Obstacle = i
+		if i == 0 || cl.ClearanceM < c.Clearance.ClearanceM {
+			c.Clearance = cl
+		}
+		r := reason{b: marginFt, c: o.HeightM, d: k.Rounding.Down(o.PastEndM), s: o.Note, unit: k.Rounding.UnitName()}
+		switch {
+		case cl.BeforeScreen:
+			r.kind, r.a = reasonObstacleBefore, k.Rounding.Up(todM)
+		case shownClearanceFt(cl.ClearanceM) < marginFt:
+			r.kind, r.a = reasonObstacle, shownClearanceFt(cl.ClearanceM)
+		default:
+			continue
+		}
+		c.worsen(NoGo, r)
+		c.ObstacleNoGo = fits
+	}
 }
 
 // takeoff asks the model for conditions cond (and, when the model covers surface or
@@ -280,6 +376,9 @@ type GridSpec struct {
 	QNHPa       float64   // the QNH assumed (a conservative low value)
 	TightMargin float64
 	Rounding    Rounding // how figures are printed; states follow the printed figures
+	// ObstacleMarginM is the clearance obstacles must be passed by; zero means
+	// DefaultObstacleMarginM.
+	ObstacleMarginM float64
 }
 
 // Limits on a grid's size: a card holds far fewer cells; larger requests are mistakes.
@@ -309,7 +408,7 @@ func DefaultGridSpec(a *Aircraft) GridSpec {
 	for kt := -10.0; kt <= 20; kt += 5 {
 		winds = append(winds, kt*knot)
 	}
-	return GridSpec{TempsK: temps, HeadwindsMS: winds, WeightsKg: a.WeightsKg, QNHPa: 100000, TightMargin: DefaultTightMargin}
+	return GridSpec{TempsK: temps, HeadwindsMS: winds, WeightsKg: a.WeightsKg, QNHPa: 100000, TightMargin: DefaultTightMargin, ObstacleMarginM: DefaultObstacleMarginM}
 }
 
 // ComputeGrid evaluates every cell of spec for runway end e of airfield f. The
@@ -339,6 +438,10 @@ func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec G
 		}
 	}
 	g := &Grid{Spec: spec, End: e, ElevationM: TakeoffElevationM(f, e), Policy: p}
+	var climb ClimbModel
+	if len(e.Obstacles) > 0 {
+		climb, _ = ClimbFor(a) // nil: each cell says why (Cell.obstacles)
+	}
 	g.PressureAltM = PressureAltitudeFromQNH(spec.QNHPa, g.ElevationM)
 	g.Cells = make([][][]Cell, len(spec.WeightsKg))
 	for wi, w := range spec.WeightsKg {
@@ -349,9 +452,11 @@ func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec G
 				row[ti] = Evaluate(Case{
 					Aircraft: a, Model: m, Policy: p, End: e,
 					PressureAltM: g.PressureAltM, TempK: t, MassKg: w,
-					Wind:        Components{HeadwindMS: h},
-					TightMargin: spec.TightMargin,
-					Rounding:    spec.Rounding,
+					Wind:            Components{HeadwindMS: h},
+					TightMargin:     spec.TightMargin,
+					Rounding:        spec.Rounding,
+					ObstacleMarginM: spec.ObstacleMarginM,
+					Climb:           climb,
 				})
 			}
 			g.Cells[wi][hi] = row

@@ -50,6 +50,10 @@ type RunwayEnd struct {
 	Surface    Surface
 	Condition  Condition
 	Notes      string
+	// Obstacles on the departure path past the end of the TORA (see Obstacle). Left
+	// out of the canonical form when there are none, so that an end without
+	// obstacles keeps the fingerprint it had before obstacles existed.
+	Obstacles []Obstacle `json:",omitempty"`
 }
 
 // HasStopwayOrClearway reports whether TODA or ASDA exceed TORA.

@@ -59,7 +59,11 @@ the command exit 1, unless --allow-empty is given: such a card is never printed
 quietly. --data writes, beside each PDF, the card's content as JSON (NAME.json: the
 figures as printed, the state of every cell; fields in the README).
 
-Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-letter,
+A runway end that lists obstacles past its end gets an obstacle line and a climb %
+row; a cell whose figure fits but whose climb does not clear an obstacle by the
+template's obstacle_margin (default 50 ft) is no-go, with its own mark.
+
+Card presets (page, unit, axes, margins, policy) are YAML: a5 (default), half-letter,
 5x8, or your own file (copy one from templates/cards/).
 
 ` + caution,

@@ -21,6 +21,7 @@ type checkOptions struct {
 	surface            string
 	policy             string
 	margin             string
+	obstacleMargin     string
 	json               bool
 }
 
@@ -46,7 +47,13 @@ The output says which reference was used. A tailwind counts at its gust, a headw
 at its steady speed; a variable wind is a full tailwind and crosswind on every end.
 The headwind printed is the reported component; the credited wind (50 % of a
 headwind, 150 % of a tailwind, unless the profile's data already include that) is
-what the model used. Exit 0 when computed, whatever the verdict.
+what the model used.
+
+Obstacles: for a runway end that lists obstacles past its end, the climb at the
+profile's climb speed from 50 ft at the takeoff distance (before the safety factor)
+must pass each by --obstacle-margin (default 50 ft), or the end is no-go; the output
+gives the climb gradient and every obstacle's clearance. Exit 0 when computed,
+whatever the verdict.
 
 ` + caution,
 		Example: `  kneeprint check --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --temp 30C --qnh 1003hPa --wind 240/15G25
@@ -67,6 +74,7 @@ what the model used. Exit 0 when computed, whatever the verdict.
 	f.StringVar(&opts.surface, "surface", "", "runway condition dry|wet (default: as the airfield file declares)")
 	f.StringVar(&opts.policy, "policy", defaultPolicy, "safety policy: "+policyList())
 	f.StringVar(&opts.margin, "margin", "10%", "spare margin below which a fitting runway is marked tight")
+	f.StringVar(&opts.obstacleMargin, "obstacle-margin", defaultObstacleMargin, "clearance an obstacle past a runway end must be passed by, e.g. 50ft or 15m")
 	f.BoolVar(&opts.json, "json", false, "write JSON (fields documented in the README)")
 	return cmd
 }
@@ -185,6 +193,9 @@ func checkRun(e env, opts *checkOptions) error {
 		return err
 	}
 	if q.TightMargin, err = marginFlag(opts.margin); err != nil {
+		return err
+	}
+	if q.ObstacleMarginM, err = obstacleMarginFlag(opts.obstacleMargin); err != nil {
 		return err
 	}
 	ans, err := perf.Ask(j.aircraft, j.model, j.policy, *j.airfield, q)

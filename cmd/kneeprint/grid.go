@@ -27,6 +27,7 @@ type gridOptions struct {
 	surface            string
 	policy             string
 	margin             string
+	obstacleMargin     string
 	csv, json          bool
 }
 
@@ -39,7 +40,9 @@ func newGridCmd(e env) *cobra.Command {
 distance over temperature x wind component x weight at an assumed QNH (default a
 conservative 1000 hPa), marks each cell go, tight, no-go, no data or beyond limits,
 and prints it as a terminal table, --csv or --json. Winds are reported along-runway
-components in knots, negative for a tailwind.
+components in knots, negative for a tailwind. On a runway end that lists obstacles, a
+cell whose climb does not pass each by --obstacle-margin (default 50 ft) is no-go
+(marked ^ in the table when it fits the declared distances).
 
 ` + caution,
 		Example: `  kneeprint grid --aircraft demo:quillwing-qt6 --airfield demo:saltpan
@@ -58,6 +61,7 @@ components in knots, negative for a tailwind.
 	f.StringVar(&opts.surface, "surface", "", "runway condition dry|wet (default: as the airfield file declares)")
 	f.StringVar(&opts.policy, "policy", defaultPolicy, "safety policy: "+policyList())
 	f.StringVar(&opts.margin, "margin", "10%", "spare margin below which a fitting cell is marked tight")
+	f.StringVar(&opts.obstacleMargin, "obstacle-margin", defaultObstacleMargin, "clearance an obstacle past a runway end must be passed by, e.g. 50ft or 15m")
 	f.BoolVar(&opts.csv, "csv", false, "write CSV, one row per cell")
 	f.BoolVar(&opts.json, "json", false, "write JSON (fields documented in the README)")
 	return cmd
@@ -111,6 +115,9 @@ func gridRun(e env, opts *gridOptions) error {
 		}
 	}
 	if spec.TightMargin, err = marginFlag(opts.margin); err != nil {
+		return err
+	}
+	if spec.ObstacleMarginM, err = obstacleMarginFlag(opts.obstacleMargin); err != nil {
 		return err
 	}
 	cond, err := conditionFlag(opts.surface)

@@ -78,7 +78,10 @@ func TestPageOverrideKeepsNamesUnique(t *testing.T) {
 	require.NoError(t, os.WriteFile(filepath.Join(dir, "sedgefin-copy.yaml"), data, 0o644))
 	plan := writePlan(t, dir, "p.yaml", []string{"sedgefin-sf2.yaml", "sedgefin-copy.yaml"}, []string{"wrenmoor.yaml", "saltpan.yaml"},
 		[]string{"a5", "half-letter"}, "out")
-	code, out, errOut := runCLI(t, "cards", "--plan", plan, "--page", "5x8")
+	// half-letter: a 5 x 8 in page no longer holds the demo's two weight blocks of
+	// seven rows once a runway end lists obstacles (issue 12: the obstacle line and
+	// the climb row), and says so; the names are what this test is about.
+	code, out, errOut := runCLI(t, "cards", "--plan", plan, "--page", "half-letter")
 	require.Equal(t, exitOK, code, out+errOut)
 	pdfs := pdfsIn(t, filepath.Join(dir, "out"))
 	assert.Len(t, pdfs, 8, "2 profiles x 2 airfields x 2 templates, each its own file: %v", pdfs)

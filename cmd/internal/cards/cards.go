@@ -160,7 +160,7 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 	end := e
 	end.Condition = cond
 	rnd := t.Rounding()
-	gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin, Rounding: rnd}
+	gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin, Rounding: rnd, ObstacleMarginM: t.ObstacleMarginM}
 	t0 := time.Now()
 	g, err := perf.ComputeGrid(a, model, pol, *f, end, gs)
 	j.computeTime += time.Since(t0)
@@ -225,8 +225,8 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 		for _, row := range blk {
 			var cells []layout.CellData
 			for _, c := range row {
-				cd := layout.CellData{State: c.State, CannotTakeOff: c.CannotTakeOff}
-				if c.HasDistance && c.State != perf.BeyondLimits {
+				cd := layout.CellData{State: c.State, CannotTakeOff: c.CannotTakeOff, Obstacle: c.ObstacleNoGo}
+				if c.HasDistance && c.State != perf.BeyondLimits && c.State != perf.NoData { // no data with a distance: an end with obstacles and no climb (issue 12)
 					cd.Distance, cd.HasDistance = c.ShownRequired, true
 					figures++
 				}
@@ -243,6 +243,9 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 	d.Accel = j.accelCheck(model, pol, end, g, weights, u)
 	j.computeTime += time.Since(t0)
 	d.Crosswind = crosswindHelper(a, t)
+	t0 = time.Now()
+	obstacleData(&d, a, end, g, weights[0], u) // obstacle.go
+	j.computeTime += time.Since(t0)
 	d.Generated = j.Date.Format("2006-01-02")
 	d.ValidUntil = j.ValidUntil.Format("2006-01-02")
 	d.Fingerprint = j.Fingerprint(e)
@@ -355,7 +358,7 @@ func (j *Job) accelCheck(m perf.Model, p perf.Policy, e perf.RunwayEnd, g *perf.
 				c = g.Cells[bi][calm][ti]
 			} else {
 				c = perf.Evaluate(perf.Case{Aircraft: a, Model: m, Policy: p, End: e, PressureAltM: g.PressureAltM,
-					TempK: t.TempsK[ti], MassKg: kg, TightMargin: t.TightMargin, Rounding: rnd})
+					TempK: t.TempsK[ti], MassKg: kg, TightMargin: t.TightMargin, Rounding: rnd, ObstacleMarginM: t.ObstacleMarginM})
 			}
 			if (c.State != perf.Go && c.State != perf.Tight) || c.AccelCheckM <= 0 {
 				continue

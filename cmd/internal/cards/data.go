@@ -56,6 +56,28 @@ type DataPage struct {
 	AccelerateCheck DataAccel   `json:"accelerate_check"`
 	Crosswind       DataXwind   `json:"crosswind"`
 	Blocks          []DataBlock `json:"blocks"`
+	// Obstacles past the end of the TORA as printed (empty when none), the margin
+	// they must be cleared by (null without obstacles) and the climb row (null
+	// without obstacles).
+	Obstacles        []DataObstacle `json:"obstacles"`
+	ObstacleMarginFt *float64       `json:"obstacle_margin_ft"`
+	Climb            *DataClimb     `json:"climb"`
+}
+
+// DataObstacle is one obstacle as printed: height in feet, distances in the card's unit.
+type DataObstacle struct {
+	Note     string  `json:"note"`
+	HeightFt float64 `json:"height_ft"`
+	PastEnd  float64 `json:"past_end"`
+	Lateral  float64 `json:"lateral"` // right positive, 0 on the extended centre line
+}
+
+// DataClimb is the climb row: the climb speed, the weight (the heaviest block) and
+// per temperature column the still-air gradient in percent (null: no figure).
+type DataClimb struct {
+	SpeedKIAS    float64    `json:"speed_kias"`
+	Weight       float64    `json:"weight"`
+	GradientsPct []*float64 `json:"gradients_pct"`
 }
 
 // Declared are the declared distances as printed (null when not declared).
@@ -102,6 +124,7 @@ type DataCell struct {
 	Figure        *float64 `json:"figure"`
 	State         string   `json:"state"`
 	CannotTakeOff bool     `json:"cannot_take_off"`
+	Obstacle      bool     `json:"obstacle"` // a no-go that fits the declared distance but does not clear an obstacle
 }
 
 func num(x float64) *float64 { return &x }
@@ -140,6 +163,21 @@ func CardFileJSON(j *Job, pages []layout.CardData) ([]byte, error) {
 		if d.Empty != "" {
 			p.Empty = &d.Empty
 		}
+		p.Obstacles = []DataObstacle{}
+		for _, o := range d.Obstacles {
+			p.Obstacles = append(p.Obstacles, DataObstacle{Note: o.Note, HeightFt: o.HeightFt, PastEnd: o.PastEnd, Lateral: o.Lateral})
+		}
+		if len(d.Obstacles) > 0 {
+			p.ObstacleMarginFt = num(d.ObstacleMarginFt)
+			p.Climb = &DataClimb{SpeedKIAS: d.ClimbKIAS, Weight: d.ClimbWeight, GradientsPct: []*float64{}}
+			for i, g := range d.ClimbPct {
+				var v *float64
+				if d.HasClimbPct[i] {
+					v = num(g)
+				}
+				p.Climb.GradientsPct = append(p.Climb.GradientsPct, v)
+			}
+		}
 		if d.Crosswind.HasLimit {
 			p.Crosswind.LimitKt = num(d.Crosswind.LimitKt)
 		}
@@ -159,7 +197,7 @@ func CardFileJSON(j *Job, pages []layout.CardData) ([]byte, error) {
 			db := DataBlock{Weight: b.Weight, MTOW: b.MTOW, Cells: []DataCell{}}
 			for wi, row := range b.Cells {
 				for ti, c := range row {
-					dc := DataCell{WindKt: d.WindsKt[wi], Temperature: d.Temps[ti], State: c.State.String(), CannotTakeOff: c.CannotTakeOff}
+					dc := DataCell{WindKt: d.WindsKt[wi], Temperature: d.Temps[ti], State: c.State.String(), CannotTakeOff: c.CannotTakeOff, Obstacle: c.Obstacle}
 					if c.HasDistance {
 						dc.Figure = num(c.Distance)
 					}

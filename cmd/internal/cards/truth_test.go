@@ -147,7 +147,8 @@ func TestItem1LimitingFramedWhereItStands(t *testing.T) {
 			text := allText(card)
 			assert.NotContains(t, text, "limits")
 			assert.NotContains(t, text, "←")
-			assert.Contains(t, text, "framed: the declared distance the figures are held against")
+			// The legend's frame entry (issue 12 made it a slot beside the marks).
+			assert.Contains(t, text, "FRAMED\nlimiting distance")
 		}
 	}
 }
@@ -212,6 +213,11 @@ func TestItem3PrintedFigureAndStateAgree(t *testing.T) {
 							checked++
 							want := perf.Go
 							switch {
+							case cell.Obstacle:
+								// Issue 12: fits the declared distance as printed, but the climb
+								// does not clear an obstacle: no-go with its own mark.
+								assert.LessOrEqual(t, cell.Distance, avail, "the obstacle mark is for a figure that fits")
+								want = perf.NoGo
 							case cell.Distance > avail:
 								want = perf.NoGo
 							case cell.Distance*(1+d.TightMarginPct/100) > avail+1e-9:

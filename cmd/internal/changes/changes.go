@@ -34,7 +34,8 @@ func (c FieldChange) String() string {
 func metres(m float64) string { return fmt.Sprintf("%.0f m", m) }
 
 // EndFields lists what differs between two versions of a runway end: declared
-// distances, heading, slope, surface, condition, threshold elevation, notes.
+// distances, heading, slope, surface, condition, threshold elevation, notes,
+// obstacles.
 func EndFields(old, new perf.RunwayEnd) []FieldChange {
 	var out []FieldChange
 	add := func(field, o, n string) {
@@ -58,6 +59,7 @@ func EndFields(old, new perf.RunwayEnd) []FieldChange {
 	add("condition", string(old.Condition), string(new.Condition))
 	add("threshold elevation", fmt.Sprintf("%.0f ft", units.Feet(old.ElevationM)), fmt.Sprintf("%.0f ft", units.Feet(new.ElevationM)))
 	add("notes", quote(old.Notes), quote(new.Notes))
+	obstacleFields(old, new, add) // obstacle.go
 	return out
 }
 
@@ -151,7 +153,7 @@ func Diff(aircraft []*perf.Aircraft, old, new *perf.Airfield, t spec.CardTemplat
 		}
 		weights := append([]float64(nil), a.WeightsKg...)
 		sort.Sort(sort.Reverse(sort.Float64Slice(weights)))
-		gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin, Rounding: t.Rounding()}
+		gs := perf.GridSpec{TempsK: t.TempsK, HeadwindsMS: t.WindsMS, WeightsKg: weights, QNHPa: t.QNHPa, TightMargin: t.TightMargin, Rounding: t.Rounding(), ObstacleMarginM: t.ObstacleMarginM}
 		for _, e := range old.Ends() {
 			ne, ok := newEnds[e.Designator]
 			if !ok {

@@ -89,6 +89,7 @@ type CheckEnd struct {
 	PolicyCaution    string   `json:"policy_caution"`
 	Status           string   `json:"status"`
 	Reasons          []string `json:"reasons"`
+	CheckObstacles
 }
 
 func round1(x float64) float64 { return math.Round(x*10) / 10 }
@@ -152,6 +153,7 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 			e.Reasons = []string{}
 		}
 		e.Distances = distances(c)
+		e.CheckObstacles = buildObstacles(in, ea) // obstacle.go
 		if c.HasDistance {
 			e.AccelerateCheckM = ptr(ceilM(c.AccelCheckM))
 			e.Rule = c.Requirement.Rule
@@ -225,6 +227,7 @@ func WriteCheckText(w io.Writer, run CheckRun) error {
 		for _, r := range e.Reasons {
 			fmt.Fprintf(b, "         - %s\n", r)
 		}
+		writeObstacles(b, e) // obstacle.go
 	}
 	fmt.Fprintf(b, "\nhead, cross: the reported steady components, gust: the same from the gust (negative head: tailwind);\n")
 	fmt.Fprintf(b, "a tailwind counts at its gust, a headwind at its steady speed; distances rounded up.\n%s\n", Caution)

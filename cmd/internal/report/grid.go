@@ -48,9 +48,11 @@ type GridEnd struct {
 	ASDAM      float64 `json:"asda_m"`
 	// The elevation this end's pressure altitude is taken at (the highest of the
 	// aerodrome elevation and the runway's thresholds) and that pressure altitude.
-	ElevationUsedFt    float64    `json:"elevation_used_ft"`
-	PressureAltitudeFt float64    `json:"pressure_altitude_ft"`
-	Cells              []GridCell `json:"cells"`
+	ElevationUsedFt    float64        `json:"elevation_used_ft"`
+	PressureAltitudeFt float64        `json:"pressure_altitude_ft"`
+	Obstacles          []GridObstacle `json:"obstacles"`          // past the end of the TORA (obstacle.go)
+	ObstacleMarginFt   float64        `json:"obstacle_margin_ft"` // the clearance each must be passed by
+	Cells              []GridCell     `json:"cells"`
 }
 
 // GridCell is one cell.
@@ -62,6 +64,13 @@ type GridCell struct {
 	Distances
 	Status  string   `json:"status"`
 	Reasons []string `json:"reasons"`
+	// On a runway end with obstacles: the climb gradient over the ground (percent,
+	// credited wind), the least clearance (ft) and whether the cell is a no-go that
+	// fits the declared distances but does not clear an obstacle; null, null, false
+	// otherwise.
+	ClimbGradientPct *float64 `json:"climb_gradient_pct"`
+	LeastClearanceFt *float64 `json:"least_clearance_ft"`
+	Obstacle         bool     `json:"obstacle"`
 }
 
 // BuildGrid turns grids into their JSON form.
@@ -82,6 +91,8 @@ func BuildGrid(in GridInput) GridRun {
 			TORAM: g.End.TORAM, TODAM: g.End.TODAM, ASDAM: g.End.ASDAM,
 			ElevationUsedFt:    math.Round(units.Feet(g.ElevationM)),
 			PressureAltitudeFt: math.Round(units.Feet(g.PressureAltM)),
+			Obstacles:          gridObstacles(g.End),
+			ObstacleMarginFt:   ceilFt(perf.ObstacleMargin(g.Spec.ObstacleMarginM)),
 		}
 		for _, blk := range g.Cells {
 			for _, row := range blk {
@@ -95,6 +106,8 @@ func BuildGrid(in GridInput) GridRun {
 						gc.Reasons = []string{}
 					}
 					gc.Distances = distances(c)
+					gc.ClimbGradientPct, gc.LeastClearanceFt = cellClimb(c)
+					gc.Obstacle = c.ObstacleNoGo
 					ge.Cells = append(ge.Cells, gc)
 				}
 			}
@@ -111,7 +124,8 @@ func WriteGridJSON(w io.Writer, run GridRun) error { return WriteJSON(w, run) }
 func WriteGridCSV(w io.Writer, run GridRun) error {
 	cw := csv.NewWriter(w)
 	_ = cw.Write([]string{"ident", "designator", "weight_kg", "headwind_kt", "temperature_c", "credited_headwind_kt",
-		"ground_roll_m", "distance_50ft_m", "required_m", "available_m", "limiting", "status", "reasons"})
+		"ground_roll_m", "distance_50ft_m", "required_m", "available_m", "limiting", "status", "reasons",
+		"climb_gradient_pct", "least_clearance_ft", "obstacle"})
 	num := func(p *float64) string {
 		if p == nil {
 			return ""
@@ -123,7 +137,8 @@ func WriteGridCSV(w io.Writer, run GridRun) error {
 			_ = cw.Write([]string{run.Ident, e.Designator, strconv.FormatFloat(c.WeightKg, 'f', -1, 64),
 				strconv.FormatFloat(c.HeadwindKt, 'f', -1, 64), strconv.FormatFloat(c.TemperatureC, 'f', -1, 64),
 				strconv.FormatFloat(c.CreditedWindKt, 'f', -1, 64), num(c.GroundRollM), num(c.Distance50ftM),
-				num(c.RequiredM), num(c.AvailableM), c.Limiting, c.Status, strings.Join(c.Reasons, "; ")})
+				num(c.RequiredM), num(c.AvailableM), c.Limiting, c.Status, strings.Join(c.Reasons, "; "),
+				num(c.ClimbGradientPct), num(c.LeastClearanceFt), strconv.FormatBool(c.Obstacle)})
 		}
 	}
 	cw.Flush()
@@ -145,13 +160,16 @@ var textMarks = map[perf.State]string{
 func WriteGridText(w io.Writer, in GridInput) error {
 	b := &strings.Builder{}
 	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s)\n", in.Aircraft.Name, in.Airfield.Name, in.Airfield.Ident, in.Policy.ID, perf.ModelLine(in.Aircraft))
-	fmt.Fprintf(b, "required distance in m (rounded up).  ~ tight (less than the margin spare)  X no-go  ? no data  L beyond limits\n")
+	fmt.Fprintf(b, "required distance in m (rounded up).  ~ tight (less than the margin spare)  X no-go  ^ no-go: fits, an obstacle not cleared  ? no data  L beyond limits\n")
 	for _, g := range in.Grids {
 		e := g.End
 		fmt.Fprintf(b, "\nrunway %s, %03.0f° M, %s %s, slope %+.1f %%; TORA %.0f TODA %.0f ASDA %.0f m; QNH %.0f hPa assumed at %.0f ft -> PA %.0f ft\n",
 			e.Designator, e.HeadingDeg, e.Surface, e.Condition, e.SlopePct, e.TORAM, e.TODAM, e.ASDAM, units.HPa(g.Spec.QNHPa), units.Feet(g.ElevationM), units.Feet(g.PressureAltM))
 		if c := g.Policy.SlopeCaution(e.SlopePct); c != "" {
 			fmt.Fprintf(b, "  %s\n", c)
+		}
+		for _, o := range e.Obstacles {
+			fmt.Fprintf(b, "  obstacle: %s %.0f ft, %.0f m past the end: to be cleared by %.0f ft\n", o.Note, ceilFt(o.HeightM), math.Floor(o.PastEndM+1e-9), ceilFt(perf.ObstacleMargin(g.Spec.ObstacleMarginM)))
 		}
 		for wi, blk := range g.Cells {
 			fmt.Fprintf(b, "  %.0f kg      ", g.Spec.WeightsKg[wi])
@@ -167,8 +185,12 @@ func WriteGridText(w io.Writer, in GridInput) error {
 				}
 				fmt.Fprintf(b, "  %-12s", label)
 				for _, c := range row {
-					if c.HasDistance && c.State != perf.BeyondLimits {
-						fmt.Fprintf(b, "%6.0f%s", ceilM(c.RequiredM), textMarks[c.State])
+					mark := textMarks[c.State]
+					if c.ObstacleNoGo {
+						mark = "^"
+					}
+					if c.HasDistance && c.State != perf.BeyondLimits && c.State != perf.NoData { // no data with a distance: an end with obstacles and no climb (issue 12)
+						fmt.Fprintf(b, "%6.0f%s", ceilM(c.RequiredM), mark)
 					} else {
 						fmt.Fprintf(b, "%6s%s", "--", textMarks[c.State])
 					}

@@ -27,6 +27,7 @@ func aircraftSections() []section {
 		{"flaps", false, flapsSchema},
 		{"table", false, tableSchema},
 		{"physics", false, physicsSchema},
+		{"climb", false, climbSchema},
 	}
 }
 
@@ -43,6 +44,10 @@ func aircraftRules(root obj) {
 		}},
 		obj{"if": obj{"required": []string{"model"}, "properties": obj{"model": obj{"const": "physics"}}}, "then": obj{"required": []string{"physics"}}},
 		obj{"if": obj{"required": []string{"model"}, "properties": obj{"model": obj{"const": "table"}}}, "then": obj{"required": []string{"table"}}},
+		// Only a physics profile may give the climb speed alone.
+		obj{"if": obj{"not": obj{"required": []string{"physics"}}, "required": []string{"climb"}}, "then": obj{"properties": obj{"climb": obj{
+			"anyOf": []any{obj{"required": []string{"rate_of_climb"}}, obj{"required": []string{"weights"}}},
+		}}}},
 	}
 }
 
@@ -109,6 +114,35 @@ func correctionsSchema() obj {
 		"grass":     groundRoll("On dry grass: add a percentage of the ground roll."),
 		"wet_grass": groundRoll("On wet grass: add a percentage of the ground roll."),
 	})
+}
+
+// climbSchema is the all-engines climb: the manual's climb speed and its rate-of-climb
+// table (one table for the MTOW, or one block per weight), or in a physics profile the
+// speed alone.
+func climbSchema() obj {
+	rows := list(list(obj{"type": "number", "minimum": -2000, "maximum": 5000, "description": "A rate of climb in rate_unit, as the manual prints it."},
+		"One row: one rate per temperature, in the order of temperatures.", 1, 0),
+		"Rates of climb: one row per pressure altitude, one rate per temperature, plain numbers in rate_unit.", 1, 0)
+	block := object("One weight's rates.", obj{
+		"weight":        quantity(units.Mass, "The weight of this block"),
+		"rate_of_climb": rows,
+	}, "weight", "rate_of_climb")
+	c := object("The all-engines climb after takeoff, for obstacles past the runway end: the manual's climb speed and rate-of-climb table; a physics profile may give the speed alone (its calibrated excess power is then used).", obj{
+		"speed":              quantity(units.Speed, "The manual's climb speed, IAS (40 to 150 kt)"),
+		"rate_unit":          oneOf("The unit the rates are printed in.", "ft/min", "m/s"),
+		"pressure_altitudes": quantities(units.Length, "The rows: pressure altitudes, strictly increasing (-2000 to 20000 ft)", 1, 0),
+		"temperatures":       quantities(units.Temperature, "The columns: temperatures, strictly increasing (-60 to 60 C)", 1, 0),
+		"rate_of_climb":      rows,
+		"weights":            list(block, "One block per weight of the table (instead of rate_of_climb).", 1, 0),
+	}, "speed")
+	c["not"] = obj{"required": []string{"rate_of_climb", "weights"}}
+	table := obj{"anyOf": []any{obj{"required": []string{"rate_of_climb"}}, obj{"required": []string{"weights"}}}}
+	c["allOf"] = []any{
+		obj{"if": obj{"anyOf": []any{obj{"required": []string{"rate_unit"}}, obj{"required": []string{"pressure_altitudes"}},
+			obj{"required": []string{"temperatures"}}, obj{"required": []string{"rate_of_climb"}}, obj{"required": []string{"weights"}}}},
+			"then": obj{"required": []string{"rate_unit", "pressure_altitudes", "temperatures"}, "allOf": []any{table}}},
+	}
+	return c
 }
 
 // physicsSchema is the physics description and its calibration points.
@@ -189,7 +223,33 @@ func endSchema() obj {
 		"lda":                 quantity(units.Length, "Landing distance available (printed only)"),
 		"threshold_elevation": quantity(units.Length, "Elevation of this threshold; give both ends' (or a slope), not one"),
 		"notes":               text("Obstacles, displaced thresholds, local procedures: printed on the card", false),
+		"obstacles":           list(obstacleSchema(), "Obstacles along the departure path that the climb must clear (at most 6).", 0, 6),
 	}, "designator", "tora")
+}
+
+// obstacleSchema is one obstacle past a runway end: its height (above the end of the
+// TORA) or elevation, and its distance from the end of the TORA or from the start of
+// the takeoff run, with an optional lateral offset.
+func obstacleSchema() obj {
+	lateral := obj{
+		"type":        "string",
+		"pattern":     `^\s*` + number + `\s*(` + alternatives(units.Spellings(units.Length)) + `)\s*([Ll][Ee][Ff][Tt]|[Rr][Ii][Gg][Hh][Tt])?\s*$`,
+		"description": "Optional offset from the extended centre line, printed only: a length and a side, e.g. \"30 m left\".",
+	}
+	o := object("An obstacle the climb after takeoff must clear.", obj{
+		"note":       text("A short name the card prints, e.g. powerline (at most 40 characters)", true),
+		"height":     quantity(units.Length, "Top of the obstacle above the ground at the end of the TORA (up to 1500 ft)"),
+		"elevation":  quantity(units.Length, "Or: top of the obstacle above mean sea level (needs both threshold elevations)"),
+		"past_end":   quantity(units.Length, "Distance along the departure path from the end of the TORA (0 to 10 km)"),
+		"from_start": quantity(units.Length, "Or: distance from the start of the takeoff run (beyond the TORA)"),
+		"lateral":    lateral,
+	}, "note")
+	o["not"] = obj{"anyOf": []any{obj{"required": []string{"height", "elevation"}}, obj{"required": []string{"past_end", "from_start"}}}}
+	o["allOf"] = []any{
+		obj{"anyOf": []any{obj{"required": []string{"height"}}, obj{"required": []string{"elevation"}}}},
+		obj{"anyOf": []any{obj{"required": []string{"past_end"}}, obj{"required": []string{"from_start"}}}},
+	}
+	return o
 }
 
 func templateSections() []section {
@@ -222,6 +282,9 @@ func templateSections() []section {
 			return quantities(units.Angle, "Wind angles off the runway of the crosswind helper (0 to 90 deg, at most 7)", 1, 7)
 		}},
 		{"valid_days", true, func() obj { return wholeNumber("Default validity: the card date plus this many days", 1, 400) }},
+		{"obstacle_margin", false, func() obj {
+			return quantity(units.Length, "The height by which the climb must clear an obstacle past the runway end (default 50 ft; 10 to 500 ft)")
+		}},
 	}
 }
 

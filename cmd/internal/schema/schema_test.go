@@ -263,6 +263,9 @@ var loaderOnly = map[string]string{
 	"ac-rotation-below-stall.yaml": "the stall speed from wing area, CLmax and MTOW",
 	"ac-calib-bound.yaml":          "the physics fit",
 	"ac-table-typo.yaml":           "the physics fit to the table",
+	"ac-climb-rising.yaml":         "the climb table falling with temperature, altitude and weight",
+	"af-obstacle-elevation.yaml":   "an obstacle's elevation against the runway's threshold elevations",
+	"af-obstacle-unprintable.yaml": "the characters the card's font can print",
 	"af-duplicate-key.yaml":        "a duplicate key: a YAML parser keeps one, the loader refuses both",
 	"ac-duplicate-mtow.yaml":       "a duplicate key: a YAML parser keeps one, the loader refuses both",
 }

@@ -130,6 +130,10 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 	if physNode != nil {
 		a.Physics = d.physics(physNode)
 	}
+	if cn := m.get("climb", false); cn != nil {
+		// The all-engines climb for obstacle clearance (issue 12): climb.go.
+		a.Climb = d.climb(cn, a, physNode != nil, mtowOK)
+	}
 	model := m.oneOf("model", tableNode != nil && physNode != nil, string(perf.ModelTable), string(perf.ModelPhysics))
 	switch {
 	case tableNode == nil && physNode == nil:

@@ -112,8 +112,9 @@ func (d *decoder) runway(n *yaml.Node, path string, fieldElev float64, seen map[
 	}
 	elevs := make([]float64, len(endNodes))
 	haveElev := make([]bool, len(endNodes))
+	raws := make([][]rawObstacle, len(endNodes)) // resolved once the elevations are known
 	for i, en := range endNodes {
-		e, elev, elevNode := d.runwayEnd(en, fmt.Sprintf("%s.ends[%d]", path, i), seen)
+		e, elev, elevNode := d.runwayEnd(en, fmt.Sprintf("%s.ends[%d]", path, i), seen, &raws[i])
 		ok := elevNode != nil
 		if e == nil {
 			continue
@@ -168,6 +169,9 @@ func (d *decoder) runway(n *yaml.Node, path string, fieldElev float64, seen map[
 	default:
 		d.notef("runway %s: no slope or threshold elevations: level assumed", name)
 	}
+	for i := range r.Ends {
+		d.resolveObstacles(r, i, raws[i], elevs, haveElev)
+	}
 	return r
 }
 
@@ -200,8 +204,9 @@ func designatorNumber(s string) int {
 }
 
 // runwayEnd reads one runway end; the threshold elevation is returned with its node,
-// which is nil when none was given.
-func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Node) (*perf.RunwayEnd, float64, *yaml.Node) {
+// which is nil when none was given. Its obstacles go to *obstacles as read (see
+// resolveObstacles).
+func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Node, obstacles *[]rawObstacle) (*perf.RunwayEnd, float64, *yaml.Node) {
 	m := d.mapping(n, path)
 	e := &perf.RunwayEnd{}
 	des := m.str("designator", true)
@@ -257,6 +262,7 @@ func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Nod
 	}
 	elev, haveElev := m.quantity("threshold_elevation", units.Length, false, minElevationM, maxElevationM)
 	e.Notes = m.str("notes", false)
+	*obstacles = d.obstacles(m)
 	m.finish()
 	if !haveElev {
 		return e, elev, nil

@@ -16,7 +16,7 @@ import (
 // its line, not by cards later. "[]" walks every item of a list.
 var PrintedFields = map[Kind][]string{
 	KindAircraft: {"name", "takeoff_flap"},
-	KindAirfield: {"name", "ident", "runways[].ends[].designator", "runways[].ends[].notes"},
+	KindAirfield: {"name", "ident", "runways[].ends[].designator", "runways[].ends[].notes", "runways[].ends[].obstacles[].note"},
 }
 
 // checkPrinted reports, at its line, every printed field of a kind of file that holds

@@ -32,6 +32,7 @@ func Summarize(w io.Writer, doc *Document) int {
 			}
 		}
 		summarizeFit(w, doc)
+		summarizeClimb(w, doc.Aircraft) // climb.go
 	case doc.Template != nil:
 		summarizeTemplate(w, doc.Template)
 	case doc.Plan != nil:
@@ -74,6 +75,9 @@ func summarizeAirfield(w io.Writer, a *perf.Airfield) {
 				e.Designator, e.HeadingDeg, e.TORAM, e.TODAM, e.ASDAM, lda, e.SlopePct, units.Feet(e.ElevationM))
 			if e.Notes != "" {
 				fmt.Fprintf(w, "         note: %s\n", e.Notes)
+			}
+			for _, o := range e.Obstacles {
+				fmt.Fprintf(w, "         obstacle: %s\n", ObstacleLine(o)) // obstacle.go
 			}
 		}
 	}
@@ -192,7 +196,7 @@ func abs(x float64) float64 {
 func summarizeTemplate(w io.Writer, t *CardTemplate) {
 	fmt.Fprintf(w, "  card template %q: page %s, unit %s, policy %s, QNH %.0f hPa, tight margin %.0f %%\n",
 		t.Name, t.Page, t.Unit, t.Policy, units.HPa(t.QNHPa), t.TightMargin*100)
-	fmt.Fprintf(w, "  %d temperatures x %d winds, up to %d weight blocks; valid %d days\n", len(t.TempsK), len(t.WindsMS), t.MaxBlocks, t.ValidDays)
+	fmt.Fprintf(w, "  %d temperatures x %d winds, up to %d weight blocks; valid %d days; obstacles cleared by %.0f ft\n", len(t.TempsK), len(t.WindsMS), t.MaxBlocks, t.ValidDays, units.Feet(t.ObstacleMarginM))
 }
 
 func summarizePlan(w io.Writer, p *Plan) {

@@ -26,7 +26,18 @@ type CardTemplate struct {
 	CrosswindSpeedsMS  []float64
 	CrosswindAnglesDeg []float64
 	ValidDays          int
+	// ObstacleMarginM is the clearance a runway end's obstacles must be passed by
+	// (perf.DefaultObstacleMarginM, 50 ft, when the template does not say).
+	ObstacleMarginM float64
 }
+
+// Obstacle margins a template (and check's --obstacle-margin) accepts: below 10 ft a margin is smaller than the
+// precision of a surveyed obstacle height, above 500 ft it is no longer a margin
+// (common practice).
+const (
+	MinObstacleMarginM = 10 * units.MetresPerFoot
+	MaxObstacleMarginM = 500 * units.MetresPerFoot
+)
 
 // Grid-size limits: a card cannot hold more, and larger requests are mistakes.
 const (
@@ -85,6 +96,12 @@ func (d *decoder) cardTemplate(m *mapping) *CardTemplate {
 	t.CrosswindAnglesDeg, _, _ = m.quantities("crosswind_angles", units.Angle, true, 0, 90)
 	if len(t.CrosswindSpeedsMS) > 6 || len(t.CrosswindAnglesDeg) > 7 {
 		d.errorf(m.n, "crosswind_speeds", "at most 6 speeds and 7 angles fit the crosswind helper")
+	}
+	if v, ok := m.quantity("obstacle_margin", units.Length, false, MinObstacleMarginM, MaxObstacleMarginM); ok {
+		t.ObstacleMarginM = v
+	} else if !m.has("obstacle_margin") {
+		t.ObstacleMarginM = perf.DefaultObstacleMarginM
+		d.notef("obstacle_margin not given: obstacles past a runway end must be cleared by 50 ft")
 	}
 	if v, ok := m.number("valid_days", true, 1, 400); ok {
 		if v != math.Trunc(v) {
