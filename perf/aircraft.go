@@ -35,6 +35,10 @@ type Aircraft struct {
 	Model   ModelKind // which model the cards use
 	Table   *Table    // may be nil
 	Physics *Physics  // may be nil
+
+	// Landing is the profile's landing data (perf/landing.go); nil when it has none:
+	// its cards then have no landing side.
+	Landing *Landing
 }
 
 // ModelKind selects a takeoff model.
