@@ -54,6 +54,15 @@ type CardData struct {
 	Accel     AccelCheck
 	Crosswind CrosswindHelper
 
+	// Side is the side of the card this page is (landing.go); TwoSided says the card
+	// has both, and each side then says which it is.
+	Side     Side
+	TwoSided bool
+	// Approach is, on the landing side, the speed over the threshold per weight
+	// block; NoGrid, when set, replaces the grid (a runway end without an LDA).
+	Approach []ApproachSpeed
+	NoGrid   string
+
 	Generated   string // YYYY-MM-DD
 	ValidUntil  string
 	Fingerprint string
@@ -71,7 +80,10 @@ type DeclaredDistance struct {
 type WeightBlock struct {
 	Weight float64 // in the card's mass unit
 	MTOW   bool
-	Cells  [][]CellData
+	// Tag, when set, names the mass limit the block is at instead of "MTOW" (the
+	// landing side's "MLM").
+	Tag   string
+	Cells [][]CellData
 }
 
 // CellData is one cell: its state and, when it has one, the required distance in the
@@ -241,7 +253,7 @@ func (blk *Block) shift(dy float64) {
 // figures of at least MinNumberPt on this page: choose fewer weight blocks or
 // temperature columns, or a larger page.
 func Build(d CardData, p Page, f *Fonts) (*Card, error) {
-	if len(d.Blocks) == 0 || len(d.Temps) == 0 || len(d.WindsKt) == 0 {
+	if (len(d.Blocks) == 0 && d.NoGrid == "") || len(d.Temps) == 0 || len(d.WindsKt) == 0 {
 		return nil, fmt.Errorf("card %s %s: empty grid", d.Ident, d.Designator)
 	}
 	if len(d.DensityAltFt) != len(d.Temps) {
@@ -250,6 +262,9 @@ func Build(d CardData, p Page, f *Fonts) (*Card, error) {
 	title := fmt.Sprintf("%s runway %s, %s", d.Ident, d.Designator, d.AircraftName)
 	if d.ConditionPages > 1 {
 		title = fmt.Sprintf("%s runway %s %s, %s", d.Ident, d.Designator, d.Condition, d.AircraftName)
+	}
+	if d.TwoSided {
+		title += ", " + d.Side.String()
 	}
 	b := &builder{f: f, card: &Card{Page: p, Title: title}}
 	x0, w := marginMM, p.WidthMM-2*marginMM
@@ -260,20 +275,28 @@ func Build(d CardData, p Page, f *Fonts) (*Card, error) {
 	// Room for the grid: the tools are measured with their largest figure; once the
 	// grid's figure size is known they are laid out with it (figures stay the largest).
 	gridTop := header.Box.Y + header.Box.H + gapMM
-	room := footer.Box.Y - gapMM - legend.Box.H - gapMM - b.tools(d, x0, w, maxAccelPt).Box.H - gapMM - gridTop
-	grid, numPt, err := b.grid(d, x0, gridTop, w, room)
-	if err != nil {
+	tools := b.tools
+	if d.Side == LandingSide {
+		tools = b.landingTools
+	}
+	room := footer.Box.Y - gapMM - legend.Box.H - gapMM - tools(d, x0, w, maxAccelPt).Box.H - gapMM - gridTop
+	var grid Block
+	numPt := MinNumberPt + 2
+	var err error
+	if d.NoGrid != "" {
+		grid = b.noGrid(d, x0, gridTop, w)
+	} else if grid, numPt, err = b.grid(d, x0, gridTop, w, room); err != nil {
 		return nil, err
 	}
-	tools := b.tools(d, x0, w, numPt)
+	toolsBlk := tools(d, x0, w, numPt)
 	// Tools and legend follow the grid; what room is left becomes a notes area above
 	// the footer, never a band inside the grid.
 	y := grid.Box.Y + grid.Box.H + gapMM
-	tools.shift(y)
-	y += tools.Box.H + gapMM
+	toolsBlk.shift(y)
+	y += toolsBlk.Box.H + gapMM
 	legend.shift(y)
 	y += legend.Box.H + gapMM
-	b.card.Blocks = append(b.card.Blocks, header, grid, tools, legend)
+	b.card.Blocks = append(b.card.Blocks, header, grid, toolsBlk, legend)
 	if free := footer.Box.Y - gapMM - y; free >= 9 {
 		b.card.Blocks = append(b.card.Blocks, b.notes(x0, y, w, free))
 	}
@@ -343,6 +366,14 @@ func (b *builder) header(d CardData, x, y, w float64) Block {
 	// with is framed where it stands (the legend says what the frame means).
 	const ddPt = 9
 	cx = x
+	if d.TwoSided {
+		// Which side this is, white on black: seen at a glance when the card is turned.
+		tag := sideTag(d.Side)
+		tw := b.f.WidthMM(tag, ddPt, Bold)
+		blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: Rect{cx, y - 0.3, tw + 2.4, 4.6}, Color: Black})
+		b.text(&blk, Rect{cx + 1.2, y, tw + 0.01, 4}, tag, ddPt, Bold, Left, White, Label)
+		cx += tw + 2.4 + 3
+	}
 	for _, v := range d.Declared {
 		s := fmt.Sprintf("%s %.0f %s", v.Name, v.Value, d.Unit)
 		st := Regular
@@ -372,9 +403,7 @@ func (b *builder) header(d CardData, x, y, w float64) Block {
 		Keep(trimNum(d.QNHhPa, 2)+" hPa"), Keep(fmt.Sprintf("%.2f inHg", d.QNHinHg)), Keep(fmt.Sprintf("%.0f ft", d.PressureAltFt)),
 		Keep("10 hPa"), Keep("0.30 inHg"), Keep(fmt.Sprintf("%.0f °%s", d.HotterPer10hPa, d.TempUnit)))
 	y += b.paragraph(&blk, x, y, w, qnh, bodyPt, Bold)
-	read := fmt.Sprintf("Figures: %s required, all factors in, rounded up. Between figures take the hotter column, less headwind, "+
-		"the heavier block. Rows: reported wind (factoring included). No figure past the last column.", d.Unit)
-	y += b.paragraph(&blk, x, y, w, read, bodyPt, Regular)
+	y += b.paragraph(&blk, x, y, w, readLine(d), bodyPt, Regular)
 	if d.RunwayNotes != "" {
 		y += b.paragraph(&blk, x, y, w, "Note: "+d.RunwayNotes, bodyPt, Regular)
 	}
@@ -457,8 +486,8 @@ func weightLabel(blk WeightBlock, unit string) string {
 }
 
 func weightTitle(blk WeightBlock, unit string) string {
-	if blk.MTOW {
-		return weightLabel(blk, unit) + " MTOW"
+	if tag := blockTag(blk); tag != "" {
+		return weightLabel(blk, unit) + " " + tag
 	}
 	return weightLabel(blk, unit)
 }
@@ -543,8 +572,8 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 			l1 := by + (th-(hp+MinTextPt)*ptMM-0.3)/2
 			l2 := l1 + hp*ptMM + 0.3
 			b.text(&blk, Rect{x + 0.7, l1, g.labelW - 1.2, hp * ptMM}, weightLabel(wb, d.MassUnit), b.fitPt(weightLabel(wb, d.MassUnit), g.labelW-1.2, hp, MinTextPt, Bold), Bold, Left, Black, Label)
-			if wb.MTOW {
-				b.text(&blk, Rect{x + 0.7, l2, g.labelW - 1.2, MinTextPt * ptMM}, "MTOW", MinTextPt, Bold, Left, Black, Label)
+			if tag := blockTag(wb); tag != "" {
+				b.text(&blk, Rect{x + 0.7, l2, g.labelW - 1.2, MinTextPt * ptMM}, tag, MinTextPt, Bold, Left, Black, Label)
 			}
 			for ti, t := range d.Temps {
 				b.text(&blk, Rect{colX(ti), l1, g.colW, hp * ptMM}, tempNum(t), hp, Bold, Center, Black, Number)
@@ -747,13 +776,14 @@ func (b *builder) legend(d CardData, x, w float64) Block {
 	swW := math.Max(9.5, b.f.WidthMM(styleOf(lookLimit).Marks[0], MinTextPt, Bold)+2*cellPadMM+0.2)
 	entryW := 0.0
 	meanings := make([]string, len(ls))
+	words := make([]string, len(ls))
 	for i, l := range ls {
 		st := styleOf(l)
-		meanings[i] = st.Meaning
-		if strings.Contains(st.Meaning, "%s") {
-			meanings[i] = fmt.Sprintf(st.Meaning, margin)
+		words[i], meanings[i] = sideWords(l, d.Side, st)
+		if strings.Contains(meanings[i], "%s") {
+			meanings[i] = fmt.Sprintf(meanings[i], margin)
 		}
-		entryW = math.Max(entryW, swW+1.2+math.Max(b.f.WidthMM(st.Word, MinTextPt, Bold), b.f.WidthMM(meanings[i], MinTextPt, Regular))+0.8)
+		entryW = math.Max(entryW, swW+1.2+math.Max(b.f.WidthMM(words[i], MinTextPt, Bold), b.f.WidthMM(meanings[i], MinTextPt, Regular))+0.8)
 	}
 	cols := int(math.Max(1, math.Min(float64(len(ls)), math.Floor(w/entryW))))
 	for cols > 1 && (len(ls)+cols-1)/cols == (len(ls)+cols-2)/(cols-1) {
@@ -788,7 +818,7 @@ func (b *builder) legend(d CardData, x, w float64) Block {
 		tw := ex + ew - tx - 0.5
 		mid := ey + swH/2
 		th := MinTextPt*ptMM + 0.05
-		b.text(&blk, Rect{tx, mid - th - 0.15, tw, th}, st.Word, MinTextPt, Bold, Left, Black, Label)
+		b.text(&blk, Rect{tx, mid - th - 0.15, tw, th}, words[i], MinTextPt, Bold, Left, Black, Label)
 		b.text(&blk, Rect{tx, mid + 0.15, tw, th}, meanings[i], MinTextPt, Regular, Left, Black, Label)
 	}
 	y += float64((len(ls)+cols-1)/cols)*(swH+0.6) + 0.2

@@ -38,7 +38,7 @@ type Aircraft struct {
 
 	// Landing is the profile's landing data (perf/landing.go); nil when it has none:
 	// its cards then have no landing side.
-	Landing *Landing
+	Landing *Landing `json:",omitempty"`
 }
 
 // ModelKind selects a takeoff model.

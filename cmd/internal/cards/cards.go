@@ -51,6 +51,7 @@ type Job struct {
 
 	aircraftHash, templateHash string        // cached by Fingerprint
 	model                      perf.Model    // memoized, made by Card
+	landingModel               perf.LandingModel // made by LandingCard
 	computeTime                time.Duration // spent in perf by Card, read by Render
 }
 
@@ -99,6 +100,14 @@ type EndSummary struct {
 	// Empty is set when no cell of the page has a figure; EmptyWhy says why.
 	Empty    bool
 	EmptyWhy string
+	// The landing side of the card, when it has one (Job.HasLandingSide): its cells'
+	// states, and the same emptiness (a runway end without an LDA is not empty: its
+	// side says there is no LDA; NoLDA is set).
+	Landing         bool
+	LandingCounts   map[perf.State]int
+	LandingEmpty    bool
+	LandingEmptyWhy string
+	NoLDA           bool
 }
 
 // Result is what a job wrote.
@@ -179,6 +188,7 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 		}
 	}
 	d.RunwayNotes = e.Notes
+	d.TwoSided = j.HasLandingSide() // the front of a card with a landing side behind it
 	d.AircraftName, d.Flap = a.Name, a.TakeoffFlap
 	d.ModelName = "flight-manual table"
 	if a.Model == perf.ModelPhysics {
@@ -550,7 +560,7 @@ func shortHash(s string) string {
 // Release drops what Card memoized for the job (its model and the model's reference
 // figures, tens of kilobytes): a batch calls it once the job's PDF is made, so that
 // memory does not grow with every card file. A later Card makes them again.
-func (j *Job) Release() { j.model = nil }
+func (j *Job) Release() { j.model, j.landingModel = nil, nil }
 
 // Rendered is a job's PDF and what went into it.
 type Rendered struct {
@@ -570,6 +580,7 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 	j.computeTime = 0
 	var cs []*layout.Card
 	var data []layout.CardData
+	landing := map[int]layout.CardData{} // page index in data -> its landing side
 	for _, e := range j.Airfield.Ends() {
 		for _, cond := range Conditions(e) {
 			t0 := time.Now()
@@ -600,15 +611,27 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 					}
 				}
 			}
-			out.Ends = append(out.Ends, sum)
 			if j.Data {
 				data = append(data, d)
 			}
+			if j.HasLandingSide() {
+				t0 := time.Now()
+				ld, lc, err := j.landingPage(e, cond, id, fonts, &sum)
+				if err != nil {
+					return nil, err
+				}
+				out.Layout += time.Since(t0)
+				cs = append(cs, lc)
+				if j.Data {
+					landing[len(data)-1] = ld
+				}
+			}
+			out.Ends = append(out.Ends, sum)
 		}
 	}
 	if j.Data {
 		t0 := time.Now()
-		b, err := CardFileJSON(j, data)
+		b, err := cardFileJSON(j, data, landing)
 		if err != nil {
 			return nil, err
 		}
@@ -619,7 +642,7 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 	out.Layout -= j.computeTime
 	t0 := time.Now()
 	var buf bytes.Buffer
-	opt := layout.RenderOptions{Sheet: j.Sheet, Compress: j.Compress, Date: j.Date,
+	opt := layout.RenderOptions{Sheet: j.Sheet, Compress: j.Compress, Date: j.Date, Duplex: j.HasLandingSide(),
 		Title: fmt.Sprintf("kneeprint cards: %s at %s", j.Aircraft.Name, j.Airfield.Name), Author: "kneeprint " + j.Version,
 		Fonts: fonts}
 	if err := layout.RenderPDF(&buf, cs, opt); err != nil {

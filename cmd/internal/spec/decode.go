@@ -33,6 +33,9 @@ type decoder struct {
 	// An aircraft's calibration points, and the nodes of its table's cells.
 	calib      []calibPoint
 	tableNodes [2][][][]*yaml.Node
+	// The same for the landing section (landing.go).
+	landingCalib      []calibPoint
+	landingTableNodes [2][][][]*yaml.Node
 }
 
 // result returns the errors, with a last line counting those not listed.

@@ -33,6 +33,8 @@ type Document struct {
 	Warnings []string // things that are legal but look wrong
 
 	calib []calibPoint // an aircraft's calibration points as read, for the residual table
+	// landingCalib is the same for its landing fit.
+	landingCalib []calibPoint
 }
 
 // Parse reads one kneeprint file's bytes. name is used in messages. The error, when
@@ -71,6 +73,7 @@ func Parse(name string, data []byte) (*Document, error) {
 	}
 	doc.Defaults, doc.Warnings = d.notes, d.warns
 	doc.calib = d.calib
+	doc.landingCalib = d.landingCalib
 	if err := d.result().Err(); err != nil {
 		return doc, err
 	}

@@ -31,6 +31,7 @@ func Summarize(w io.Writer, doc *Document) {
 			}
 		}
 		summarizeFit(w, doc)
+		summarizeLanding(w, doc)
 	case doc.Template != nil:
 		summarizeTemplate(w, doc.Template)
 	case doc.Plan != nil:

@@ -26,7 +26,18 @@ type CardTemplate struct {
 	CrosswindSpeedsMS  []float64
 	CrosswindAnglesDeg []float64
 	ValidDays          int
+	// Landing says where a profile's landing figures go: LandingBack (a landing side
+	// behind each takeoff side, the default), LandingSamePage (both on one page) or
+	// LandingNone.
+	Landing string `json:",omitempty"`
 }
+
+// Where a card template puts the landing figures.
+const (
+	LandingBack     = "back"
+	LandingSamePage = "same-page"
+	LandingNone     = "none"
+)
 
 // Grid-size limits: a card cannot hold more, and larger requests are mistakes.
 const (
@@ -80,6 +91,11 @@ func (d *decoder) cardTemplate(m *mapping) *CardTemplate {
 		// prints the runway midpoint and 70 % of the rotation speed, and the expected
 		// 70 % point at each block's hottest go column.
 		d.warnf(v, "accelerate_check_temperature", "no longer used (the accelerate check follows the grid): delete this line")
+	}
+	t.Landing = m.oneOf("landing", false, LandingBack, LandingSamePage, LandingNone)
+	if t.Landing == "" && !m.has("landing") {
+		t.Landing = LandingBack
+		d.notef("landing not given: a profile's landing figures go on a landing side behind each takeoff side")
 	}
 	t.CrosswindSpeedsMS, _, _ = m.quantities("crosswind_speeds", units.Speed, true, 1*units.MetresPerSecPerKnot, 60*units.MetresPerSecPerKnot)
 	t.CrosswindAnglesDeg, _, _ = m.quantities("crosswind_angles", units.Angle, true, 0, 90)

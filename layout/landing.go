@@ -1,0 +1,136 @@
+package layout
+
+import (
+	"fmt"
+	"math"
+	"strings"
+)
+
+// Side is which side of a two-sided card a page is: the takeoff side (the front) or
+// the landing side (the back). A card file's pages come front, back, front, back, so
+// that a duplex printer puts each runway end's landing side behind its takeoff side.
+type Side int
+
+// The sides of a card.
+const (
+	TakeoffSide Side = iota
+	LandingSide
+)
+
+func (s Side) String() string {
+	if s == LandingSide {
+		return "landing"
+	}
+	return "takeoff"
+}
+
+// sideTag is the word printed, white on black, at the head of each side of a
+// two-sided card, so that a pilot turning the card knows at a glance which side he
+// holds.
+func sideTag(s Side) string {
+	if s == LandingSide {
+		return "LANDING"
+	}
+	return "TAKEOFF"
+}
+
+// ApproachSpeed is, for one weight block of the landing side, the speed over the
+// threshold at 50 ft the figures assume.
+type ApproachSpeed struct {
+	Weight float64 // in the card's mass unit
+	KIAS   float64 // rounded to the knot
+}
+
+// readLine is the how-to-read sentence of a side.
+func readLine(d CardData) string {
+	if d.Side == LandingSide {
+		return fmt.Sprintf("Figures: %s required to land from 50 ft over the threshold, all factors in, rounded up, against the LDA. "+
+			"Between figures take the hotter column, less headwind, the heavier block. Rows: reported wind (factoring included). "+
+			"No figure past the last column.", d.Unit)
+	}
+	return fmt.Sprintf("Figures: %s required, all factors in, rounded up. Between figures take the hotter column, less headwind, "+
+		"the heavier block. Rows: reported wind (factoring included). No figure past the last column.", d.Unit)
+}
+
+// blockTag is what a weight block's title says after its weight: the profile's mass
+// limit it is at (MTOW on the takeoff side, MLM on the landing side), or nothing.
+func blockTag(wb WeightBlock) string {
+	switch {
+	case wb.Tag != "":
+		return wb.Tag
+	case wb.MTOW:
+		return "MTOW"
+	}
+	return ""
+}
+
+// landingTools is the landing side's tools: the approach speeds the figures assume
+// and the crosswind helper, side by side (Build moves the block under the grid).
+func (b *builder) landingTools(d CardData, x, w, figPt float64) Block {
+	blk := Block{Name: "tools"}
+	leftW := w*0.5 - 1.5
+	ly := b.approach(&blk, d, x, 0, leftW, figPt)
+	cx := x + w*0.5 + 1.5
+	ry := b.crosswind(&blk, d, cx, 0, w-(cx-x))
+	blk.Box = Rect{x, 0, w, math.Max(ly, ry)}
+	return blk
+}
+
+// approach prints the speed over the threshold per weight block and what the figures
+// assume of the landing.
+func (b *builder) approach(blk *Block, d CardData, x, y, w, figPt float64) float64 {
+	top := y
+	b.text(blk, Rect{x, y, w, 3.6}, "APPROACH", 8.5, Bold, Left, Black, Label)
+	y += 3.9
+	if len(d.Approach) > 0 {
+		same := true
+		var parts []string
+		for _, a := range d.Approach {
+			parts = append(parts, fmt.Sprintf("%.0f KIAS", a.KIAS))
+			same = same && a.KIAS == d.Approach[0].KIAS
+		}
+		if same {
+			parts = parts[:1]
+		}
+		big := strings.Join(parts, " / ")
+		pt := math.Max(MinNumberPt, math.Min(figPt, maxAccelPt))
+		pt = b.fitPt(big, w, pt, MinNumberPt, Bold)
+		b.text(blk, Rect{x, y, w, pt * ptMM}, big, pt, Bold, Left, Black, Number)
+		y += pt*ptMM + 0.6
+		var items []string
+		if same {
+			items = []string{"Over the threshold at 50 ft, at every weight shown"}
+		} else {
+			for _, a := range d.Approach {
+				items = append(items, Keep(fmt.Sprintf("%.0f KIAS at %.0f %s", a.KIAS, a.Weight, d.MassUnit)))
+			}
+			items[0] = "Over the threshold at 50 ft: " + items[0]
+		}
+		y += b.lines(blk, x, y, w, b.wrapItems(items, " · ", w, bodyPt, Regular), bodyPt, Regular)
+	} else {
+		y += b.paragraph(blk, x, y, w, "Over the threshold at 50 ft at the manual's approach speed (the profile gives none).", bodyPt, Regular)
+	}
+	rule := "The figures assume that speed and height at the threshold, a prompt touchdown and firm braking. Faster, higher or long: go around."
+	y += b.paragraph(blk, x, y, w, rule, bodyPt, Regular)
+	return y - top
+}
+
+// noGrid is the landing side of a runway end that declares no LDA: no figure, and
+// why, in place of the grid.
+func (b *builder) noGrid(d CardData, x, y, w float64) Block {
+	blk := Block{Name: "grid"}
+	h := b.paragraph(&blk, x+1.5, y+1.5, w-3, d.NoGrid, 11, Bold)
+	blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, h + 3}, Color: Black, LineMM: 0.4})
+	blk.Box = Rect{x - 0.2, y - 0.2, w + 0.4, h + 3.4}
+	return blk
+}
+
+// sideWords are a mark's word and meaning in the legend of side s: the same marks on
+// both sides, in the words of the side (a figure-less no-go is no takeoff on the
+// takeoff side, no stop on the landing side).
+func sideWords(l look, s Side, st lookStyle) (word, meaning string) {
+	if l == lookNoTakeoff && s == LandingSide {
+		return "NO STOP", "braking does not stop"
+	}
+	return st.Word, st.Meaning
+}
