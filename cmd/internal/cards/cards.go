@@ -49,10 +49,10 @@ type Job struct {
 	// Data asks Render for the card data as JSON too (Rendered.Data).
 	Data bool
 
-	aircraftHash, templateHash string        // cached by Fingerprint
-	model                      perf.Model    // memoized, made by Card
+	aircraftHash, templateHash string            // cached by Fingerprint
+	model                      perf.Model        // memoized, made by Card
 	landingModel               perf.LandingModel // made by LandingCard
-	computeTime                time.Duration // spent in perf by Card, read by Render
+	computeTime                time.Duration     // spent in perf by Card, read by Render
 }
 
 // HashCache shares the canonical hashes of aircraft and runway ends between the jobs
