@@ -388,7 +388,7 @@ func (b *builder) header(d CardData, x, y, w float64) Block {
 		if v.Name == d.Limiting {
 			blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{cx - 0.8, y - 0.3, wd + 1.6, 4.6}, Color: Black, LineMM: 0.35})
 		}
-		cx += wd + 5
+		cx += wd + 4
 	}
 	y += 4.8
 

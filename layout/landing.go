@@ -44,9 +44,8 @@ type ApproachSpeed struct {
 // readLine is the how-to-read sentence of a side.
 func readLine(d CardData) string {
 	if d.Side == LandingSide {
-		return fmt.Sprintf("Figures: %s required to land from 50 ft over the threshold, all factors in, rounded up, against the LDA. "+
-			"Between figures take the hotter column, less headwind, the heavier block. Rows: reported wind (factoring included). "+
-			"No figure past the last column.", d.Unit)
+		return fmt.Sprintf("Figures: %s required to land from 50 ft, all factors in, rounded up. Between figures take the hotter column, "+
+			"less headwind, the heavier block. Rows: reported wind (factoring included). No figure past the last column.", d.Unit)
 	}
 	return fmt.Sprintf("Figures: %s required, all factors in, rounded up. Between figures take the hotter column, less headwind, "+
 		"the heavier block. Rows: reported wind (factoring included). No figure past the last column.", d.Unit)
@@ -99,21 +98,24 @@ func (b *builder) approach(blk *Block, d CardData, x, y, w, figPt float64) float
 		y += pt*ptMM + 0.6
 		var items []string
 		if same {
-			items = []string{"Over the threshold at 50 ft, at every weight shown"}
+			items = []string{"At 50 ft over the threshold, every weight."}
 		} else {
 			for _, a := range d.Approach {
 				items = append(items, Keep(fmt.Sprintf("%.0f KIAS at %.0f %s", a.KIAS, a.Weight, d.MassUnit)))
 			}
-			items[0] = "Over the threshold at 50 ft: " + items[0]
+			items[0] = "At 50 ft over the threshold: " + items[0]
+			items[len(items)-1] += "."
 		}
-		y += b.lines(blk, x, y, w, b.wrapItems(items, " · ", w, bodyPt, Regular), bodyPt, Regular)
+		items = append(items, approachRule)
+		y += b.lines(blk, x, y, w, b.wrapItems(items, " ", w, bodyPt, Regular), bodyPt, Regular)
 	} else {
-		y += b.paragraph(blk, x, y, w, "Over the threshold at 50 ft at the manual's approach speed (the profile gives none).", bodyPt, Regular)
+		y += b.paragraph(blk, x, y, w, "At 50 ft over the threshold at the manual's approach speed (the profile gives none). "+approachRule, bodyPt, Regular)
 	}
-	rule := "The figures assume that speed and height at the threshold, a prompt touchdown and firm braking. Faster, higher or long: go around."
-	y += b.paragraph(blk, x, y, w, rule, bodyPt, Regular)
 	return y - top
 }
+
+// approachRule is what the landing figures assume of the pilot.
+const approachRule = "Figures assume it, a prompt touchdown and firm braking: faster, higher or long, go around."
 
 // noGrid is the landing side of a runway end that declares no LDA: no figure, and
 // why, in place of the grid.

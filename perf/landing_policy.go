@@ -42,7 +42,7 @@ const euGrassLanding = 1.15
 // landingPolicies holds the landing half of each policy, by policy identifier.
 var landingPolicies = map[string]LandingPolicy{
 	PolicyEUClassB: {
-		Title: "EU Air OPS performance class B, landing",
+		Title: "EU Air OPS performance class B",
 		Source: "Regulation (EU) No 965/2012 Annex IV CAT.POL.A.330 (dry) and CAT.POL.A.335 (wet), " +
 			"AMC1 and AMC2 CAT.POL.A.330, GM1 CAT.POL.A.335",
 		surface: func(s Surface, c Condition) Factor {
@@ -60,11 +60,10 @@ var landingPolicies = map[string]LandingPolicy{
 		slope:      downslopeFivePerPercent("AMC2 CAT.POL.A.330"),
 		rule:       "CAT.POL.A.330(a)",
 		multiplier: euLandingMultiplier,
-		wetGrassCaution: "caution: very short wet grass on firm subsoil can be slippery: distances may rise by as much as 60 % " +
-			"(GM1 CAT.POL.A.335); in doubt treat the grass as wet",
+		wetGrassCaution: "caution: very short wet grass, up to +60 % (GM1 CAT.POL.A.335)",
 	},
 	PolicyUKAdvisory: {
-		Title: "UK CAA advisory factors, landing",
+		Title: "UK CAA advisory factors",
 		Source: "UK CAA Safety Sense Leaflet 7c, Aeroplane Performance (2013), landing factors " +
 			"(dry grass x1.15 as a secondary text quotes the leaflet's table; the rest from memory: verify against the leaflet; " +
 			"AIC 67/2002 para 7.6 gives x1.20 for dry grass)",
@@ -82,8 +81,7 @@ var landingPolicies = map[string]LandingPolicy{
 		slope:      downslopeFivePerPercent("SSL 7c: 2 % downslope x1.1 (from memory)"),
 		rule:       "SSL 7c landing factor",
 		multiplier: 1.43, // SSL 7c: x1.43 (from memory), the same as 1/0.7 to within 0.1 %
-		wetGrassCaution: "caution: very short wet grass on firm subsoil can be slippery: distances may rise by as much as 60 % " +
-			"(GM1 CAT.POL.A.335; SSL 7c says the same)",
+		wetGrassCaution: "caution: very short wet grass, up to +60 % (GM1 CAT.POL.A.335)",
 	},
 }
 

@@ -480,7 +480,7 @@ func (s *Summary) WriteSummary(w io.Writer) {
 	fmt.Fprintf(w, "\n%d card file(s), %d card page(s) written to %s in %.1f s\n", files, pages, s.Dir, s.Elapsed.Seconds())
 	if len(flagged) > 0 {
 		sort.Strings(flagged)
-		fmt.Fprintf(w, "runway ends with no-go or beyond-limit cells (%d):\n", len(flagged))
+		fmt.Fprintf(w, "card sides with no-go or beyond-limit cells, or without an LDA (%d):\n", len(flagged))
 		for _, f := range flagged {
 			fmt.Fprintf(w, "  %s\n", f)
 		}
@@ -537,6 +537,9 @@ func (s *Summary) Empty() []string {
 			if e.Empty {
 				out = append(out, fmt.Sprintf("%s runway %s: %s", r.Entry.Name, pageID(e), e.EmptyWhy))
 			}
+			if e.LandingEmpty {
+				out = append(out, fmt.Sprintf("%s runway %s, landing side: %s", r.Entry.Name, pageID(e), e.LandingEmptyWhy))
+			}
 		}
 	}
 	sort.Strings(out)
@@ -549,6 +552,12 @@ func flaggedEnds(r JobResult) []string {
 	for _, e := range r.Ends {
 		if e.Counts[perf.NoGo] > 0 || e.Counts[perf.BeyondLimits] > 0 {
 			out = append(out, fmt.Sprintf("%s runway %s: %d no-go, %d beyond-limits cells", r.Entry.Name, pageID(e), e.Counts[perf.NoGo], e.Counts[perf.BeyondLimits]))
+		}
+		if e.LandingCounts[perf.NoGo] > 0 || e.LandingCounts[perf.BeyondLimits] > 0 {
+			out = append(out, fmt.Sprintf("%s runway %s, landing side: %d no-go, %d beyond-limits cells", r.Entry.Name, pageID(e), e.LandingCounts[perf.NoGo], e.LandingCounts[perf.BeyondLimits]))
+		}
+		if e.NoLDA {
+			out = append(out, fmt.Sprintf("%s runway %s, landing side: no LDA declared, no landing figure", r.Entry.Name, pageID(e)))
 		}
 	}
 	return out

@@ -75,7 +75,7 @@ func TestRunPlanAndIndex(t *testing.T) {
 
 	var sb strings.Builder
 	s.WriteSummary(&sb)
-	assert.Contains(t, sb.String(), "4 card file(s), 20 card page(s) written")
+	assert.Contains(t, sb.String(), "4 card file(s), 40 card page(s) written")
 	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04 dry:")
 	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04 wet:")
 }

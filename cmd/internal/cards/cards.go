@@ -182,6 +182,9 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 	d.Surface, d.Condition, d.SlopePct = string(e.Surface), string(cond), e.SlopePct
 	d.ConditionPages = len(Conditions(e))
 	for _, dd := range []layout.DeclaredDistance{{Name: "TORA", Value: e.TORAM}, {Name: "TODA", Value: e.TODAM}, {Name: "ASDA", Value: e.ASDAM}, {Name: "LDA", Value: e.LDAM}} {
+		if dd.Name == "LDA" && j.HasLandingSide() {
+			continue // the landing side, behind, holds the LDA
+		}
 		if dd.Value > 0 {
 			dd.Value = rnd.Down(dd.Value)
 			d.Declared = append(d.Declared, dd)

@@ -67,7 +67,7 @@ func (j *Job) LandingCard(e perf.RunwayEnd, cond perf.Condition) (layout.CardDat
 	d.Limiting = "LDA"
 	d.RunwayNotes = e.Notes
 	d.AircraftName, d.Flap = a.Name, a.Landing.Flap
-	d.ModelName = "flight-manual landing table"
+	d.ModelName = "flight-manual table"
 	if a.Landing.Model == perf.ModelPhysics {
 		d.ModelName = a.Landing.Physics.Calibration.ModelLine() // LandingModelFor refused an uncalibrated one
 	}
@@ -173,7 +173,7 @@ func landingPolicyItems(lp perf.LandingPolicy, e perf.RunwayEnd, covers perf.Eff
 		}
 		assume := ""
 		if e.Surface != perf.Paved {
-			assume = " (grass on firm soil)"
+			assume = " (firm soil)"
 		}
 		items = append(items, name+" "+layout.Keep(pctFactor(sf.Value))+assume)
 	}
@@ -204,7 +204,7 @@ func (j *Job) landingPage(e perf.RunwayEnd, cond perf.Condition, id string, font
 	}
 	c, err := layout.Build(d, j.Page, fonts)
 	if err != nil {
-		return d, nil, err
+		return d, nil, fmt.Errorf("landing side: %w", err)
 	}
 	if probs := c.Check(); len(probs) > 0 {
 		more := ""

@@ -549,6 +549,9 @@ func (d *decoder) calibrationPoints(m *mapping, path string, k tableKind) []cali
 		pm := d.mapping(it, path)
 		var cp calibPoint
 		cp.label = fmt.Sprintf("calibration[%d]", i)
+		if k == landingTable {
+			cp.label = "landing " + cp.label
+		}
 		c := &cp.p.Conditions
 		okPA, okT, okW := false, false, false
 		c.PressureAltM, okPA = pm.quantity("pressure_altitude", units.Length, true, minTableAltM, maxTableAltM)

@@ -214,7 +214,11 @@ func summarizeLanding(w io.Writer, doc *Document) {
 		cond := cp.p.Conditions
 		what := cp.label
 		if !cp.p.FromTable {
-			what = fmt.Sprintf("%s %.0f ft, %.0f C, %.0f kg, %s %s", cp.label, units.Feet(cond.PressureAltM), units.Celsius(cond.TempK), cond.MassKg, cond.Surface, cond.Condition)
+			wind := "calm"
+			if cond.HeadwindMS != 0 {
+				wind = fmt.Sprintf("headwind %+.0f kt", units.Knots(cond.HeadwindMS))
+			}
+			what = fmt.Sprintf("%s %.0f ft, %.0f C, %.0f kg, %s %s, %s", cp.label, units.Feet(cond.PressureAltM), units.Celsius(cond.TempK), cond.MassKg, cond.Surface, cond.Condition, wind)
 		}
 		row := func(at *yaml.Node, name string, manual, model, pct float64) {
 			if at == nil {
