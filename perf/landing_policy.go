@@ -57,9 +57,9 @@ var landingPolicies = map[string]LandingPolicy{
 			}
 			return Factor{Name: "dry paved", Value: 1.0, Source: "flight-manual basis"}
 		},
-		slope:      downslopeFivePerPercent("AMC2 CAT.POL.A.330"),
-		rule:       "CAT.POL.A.330(a)",
-		multiplier: euLandingMultiplier,
+		slope:           downslopeFivePerPercent("AMC2 CAT.POL.A.330"),
+		rule:            "CAT.POL.A.330(a)",
+		multiplier:      euLandingMultiplier,
 		wetGrassCaution: "caution: very short wet grass, up to +60 % (GM1 CAT.POL.A.335)",
 	},
 	PolicyUKAdvisory: {
@@ -78,9 +78,9 @@ var landingPolicies = map[string]LandingPolicy{
 			}
 			return Factor{Name: "dry paved", Value: 1.0, Source: "flight-manual basis"}
 		},
-		slope:      downslopeFivePerPercent("SSL 7c: 2 % downslope x1.1 (from memory)"),
-		rule:       "SSL 7c landing factor",
-		multiplier: 1.43, // SSL 7c: x1.43 (from memory), the same as 1/0.7 to within 0.1 %
+		slope:           downslopeFivePerPercent("SSL 7c: 2 % downslope x1.1 (from memory)"),
+		rule:            "SSL 7c landing factor",
+		multiplier:      1.43, // SSL 7c: x1.43 (from memory), the same as 1/0.7 to within 0.1 %
 		wetGrassCaution: "caution: very short wet grass, up to +60 % (GM1 CAT.POL.A.335)",
 	},
 }
