@@ -28,6 +28,7 @@ type gridOptions struct {
 	policy             string
 	margin             string
 	csv, json          bool
+	landing            bool
 }
 
 func newGridCmd(e env) *cobra.Command {
@@ -41,9 +42,14 @@ conservative 1000 hPa), marks each cell go, tight, no-go, no data or beyond limi
 and prints it as a terminal table, --csv or --json. Winds are reported along-runway
 components in knots, negative for a tailwind.
 
+With --landing it gives the landing grid instead: the landing distance from 50 ft,
+factored by the policy, against each end's LDA (an end without an LDA has no
+figure), over the weights from the maximum landing mass down.
+
 ` + caution,
 		Example: `  kneeprint grid --aircraft demo:quillwing-qt6 --airfield demo:saltpan
-  kneeprint grid --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --runway 25 --temps 10C,20C,30C --winds=-5kt,0kt,10kt --csv`,
+  kneeprint grid --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --runway 25 --temps 10C,20C,30C --winds=-5kt,0kt,10kt --csv
+  kneeprint grid --aircraft demo:quillwing-qt6 --airfield demo:wrenmoor --landing --json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error { return gridRun(e, opts) },
 	}
@@ -60,6 +66,7 @@ components in knots, negative for a tailwind.
 	f.StringVar(&opts.margin, "margin", "10%", "spare margin below which a fitting cell is marked tight")
 	f.BoolVar(&opts.csv, "csv", false, "write CSV, one row per cell")
 	f.BoolVar(&opts.json, "json", false, "write JSON (fields documented in the README)")
+	f.BoolVar(&opts.landing, "landing", false, "the landing grid against the LDA (the profile needs landing data)")
 	return cmd
 }
 
@@ -117,7 +124,16 @@ func gridRun(e env, opts *gridOptions) error {
 	if err != nil {
 		return err
 	}
-	in := report.GridInput{Aircraft: j.aircraft, Airfield: j.airfield, Policy: j.policy}
+	in := report.GridInput{Aircraft: j.aircraft, Airfield: j.airfield, Policy: j.policy, Landing: opts.landing}
+	var lm perf.LandingModel
+	if opts.landing {
+		if lm, err = perf.LandingModelFor(j.aircraft); err != nil {
+			return dataError{err}
+		}
+		if opts.weights == "" {
+			spec.WeightsKg = perf.LandingMasses(j.aircraft, spec.WeightsKg, perf.MaxGridWeights)
+		}
+	}
 	for _, end := range j.airfield.Ends() {
 		if runway != "" && end.Designator != runway {
 			continue
@@ -125,7 +141,12 @@ func gridRun(e env, opts *gridOptions) error {
 		if cond != "" {
 			end.Condition = cond
 		}
-		g, err := perf.ComputeGrid(j.aircraft, j.model, j.policy, *j.airfield, end, spec)
+		var g *perf.Grid
+		if opts.landing {
+			g, err = perf.ComputeLandingGrid(j.aircraft, lm, j.policy, *j.airfield, end, spec)
+		} else {
+			g, err = perf.ComputeGrid(j.aircraft, j.model, j.policy, *j.airfield, end, spec)
+		}
 		if err != nil {
 			return err
 		}
