@@ -24,20 +24,20 @@ type GridInput struct {
 
 // GridRun is the JSON form of the grids of one aircraft at one airfield.
 type GridRun struct {
-	Aircraft           string    `json:"aircraft"`
-	Airfield           string    `json:"airfield"`
-	Ident              string    `json:"ident"`
-	Policy             string    `json:"policy"`
-	Model              string    `json:"model"`
-	ElevationFt        float64   `json:"elevation_ft"`
-	QNHhPa             float64   `json:"qnh_hpa"`
-	PressureAltitudeFt float64   `json:"pressure_altitude_ft"`
-	TightMarginPct     float64   `json:"tight_margin_pct"`
+	Aircraft           string  `json:"aircraft"`
+	Airfield           string  `json:"airfield"`
+	Ident              string  `json:"ident"`
+	Policy             string  `json:"policy"`
+	Model              string  `json:"model"`
+	ElevationFt        float64 `json:"elevation_ft"`
+	QNHhPa             float64 `json:"qnh_hpa"`
+	PressureAltitudeFt float64 `json:"pressure_altitude_ft"`
+	TightMarginPct     float64 `json:"tight_margin_pct"`
 	// Side is "takeoff", or "landing" for grid --landing: then each cell's
 	// distance_50ft_m is the landing distance from 50 ft and available_m the LDA.
-	Side string    `json:"side"`
-	Ends []GridEnd `json:"runway_ends"`
-	Caution            string    `json:"caution"`
+	Side    string    `json:"side"`
+	Ends    []GridEnd `json:"runway_ends"`
+	Caution string    `json:"caution"`
 }
 
 // GridEnd is one runway end's grid.
