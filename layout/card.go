@@ -62,6 +62,9 @@ type CardData struct {
 	// block; NoGrid, when set, replaces the grid (a runway end without an LDA).
 	Approach []ApproachSpeed
 	NoGrid   string
+	// SamePage, when set, is the landing half printed on this page below the takeoff
+	// grid (a template with landing: same-page).
+	SamePage *CardData
 
 	Generated   string // YYYY-MM-DD
 	ValidUntil  string
@@ -280,23 +283,22 @@ func Build(d CardData, p Page, f *Fonts) (*Card, error) {
 		tools = b.landingTools
 	}
 	room := footer.Box.Y - gapMM - legend.Box.H - gapMM - tools(d, x0, w, maxAccelPt).Box.H - gapMM - gridTop
-	var grid Block
-	numPt := MinNumberPt + 2
-	var err error
-	if d.NoGrid != "" {
-		grid = b.noGrid(d, x0, gridTop, w)
-	} else if grid, numPt, err = b.grid(d, x0, gridTop, w, room); err != nil {
+	grids, numPt, err := b.grids(d, x0, gridTop, w, room)
+	if err != nil {
 		return nil, err
 	}
 	toolsBlk := tools(d, x0, w, numPt)
 	// Tools and legend follow the grid; what room is left becomes a notes area above
 	// the footer, never a band inside the grid.
-	y := grid.Box.Y + grid.Box.H + gapMM
+	last := grids[len(grids)-1]
+	y := last.Box.Y + last.Box.H + gapMM
 	toolsBlk.shift(y)
 	y += toolsBlk.Box.H + gapMM
 	legend.shift(y)
 	y += legend.Box.H + gapMM
-	b.card.Blocks = append(b.card.Blocks, header, grid, toolsBlk, legend)
+	b.card.Blocks = append(b.card.Blocks, header)
+	b.card.Blocks = append(b.card.Blocks, grids...)
+	b.card.Blocks = append(b.card.Blocks, toolsBlk, legend)
 	if free := footer.Box.Y - gapMM - y; free >= 9 {
 		b.card.Blocks = append(b.card.Blocks, b.notes(x0, y, w, free))
 	}
@@ -366,7 +368,7 @@ func (b *builder) header(d CardData, x, y, w float64) Block {
 	// with is framed where it stands (the legend says what the frame means).
 	const ddPt = 9
 	cx = x
-	if d.TwoSided {
+	if d.TwoSided || d.SamePage != nil {
 		// Which side this is, white on black: seen at a glance when the card is turned.
 		tag := sideTag(d.Side)
 		tw := b.f.WidthMM(tag, ddPt, Bold)
@@ -515,7 +517,13 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	nB, nW := float64(len(d.Blocks)), float64(len(d.WindsKt))
 	gaps := (nB - 1) * gapMM
 	// Rows: the density-altitude row, then per block a title row and the wind rows.
-	rowH := (h - gaps) / (1 + nB*(1+nW))
+	// A grid without density altitudes (the landing half of a page that carries both:
+	// the takeoff grid above gives them) has no such row.
+	da := 1.0
+	if len(d.DensityAltFt) == 0 {
+		da = 0
+	}
+	rowH := (h - gaps) / (da + nB*(1+nW))
 	titleH := func(rowH float64) float64 {
 		if !g.twoLine {
 			return rowH
@@ -523,9 +531,9 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 		return math.Max(1.75*rowH, (MinNumberPt+MinTextPt)*ptMM+0.9)
 	}
 	if g.twoLine {
-		rowH = (h - gaps - nB*titleH(rowH)) / (1 + nB*nW)
+		rowH = (h - gaps - nB*titleH(rowH)) / (da + nB*nW)
 		if th := titleH(rowH); th > 1.75*rowH+1e-9 {
-			rowH = (h - gaps - nB*th) / (1 + nB*nW)
+			rowH = (h - gaps - nB*th) / (da + nB*nW)
 		}
 	}
 	rowH = math.Min(rowH, maxRowMM)
@@ -535,7 +543,7 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	numPt = math.Min(numPt, 13)
 	if numPt < MinNumberPt-1e-9 || rowH < MinNumberPt*ptMM {
 		minRow := (inkAboveEm+inkBelowEm)*MinNumberPt*ptMM + 2*cellPadMM
-		need := gaps + minRow*(1+nB*nW) + nB*titleH(minRow)
+		need := gaps + minRow*(da+nB*nW) + nB*titleH(minRow)
 		return blk, 0, fmt.Errorf("card %s %s: %d weight blocks of %d rows do not fit on a %s card with figures of at least %.0f pt (%.0f mm left for the grid, %.0f mm needed): use fewer weights (max_blocks) or wind rows, or a larger page",
 			d.Ident, d.Designator, len(d.Blocks), len(d.WindsKt), b.card.Page.Name, MinNumberPt, h, need)
 	}
@@ -553,12 +561,14 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	for _, da := range d.DensityAltFt {
 		daPt = b.fitPt(fmt.Sprintf("%.0f", da), g.colW-2*cellPadMM, daPt, MinTextPt, Regular)
 	}
-	b.text(&blk, Rect{x + 0.7, y + (rowH-MinTextPt*ptMM)/2, g.labelW - 1.2, MinTextPt * ptMM}, "DA ft", MinTextPt, Regular, Left, Black, Label)
-	for ti, da := range d.DensityAltFt {
-		b.text(&blk, Rect{colX(ti), y + (rowH-daPt*ptMM)/2, g.colW, daPt * ptMM}, fmt.Sprintf("%.0f", da), daPt, Regular, Center, Black, Label)
+	if da > 0 {
+		b.text(&blk, Rect{x + 0.7, y + (rowH-MinTextPt*ptMM)/2, g.labelW - 1.2, MinTextPt * ptMM}, "DA ft", MinTextPt, Regular, Left, Black, Label)
+		for ti, da := range d.DensityAltFt {
+			b.text(&blk, Rect{colX(ti), y + (rowH-daPt*ptMM)/2, g.colW, daPt * ptMM}, fmt.Sprintf("%.0f", da), daPt, Regular, Center, Black, Label)
+		}
+		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, rowH}, Color: Grey, LineMM: 0.15})
+		y += rowH
 	}
-	blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, rowH}, Color: Grey, LineMM: 0.15})
-	y += rowH
 
 	for bi, wb := range d.Blocks {
 		if bi > 0 {
@@ -779,7 +789,7 @@ func (b *builder) legend(d CardData, x, w float64) Block {
 	words := make([]string, len(ls))
 	for i, l := range ls {
 		st := styleOf(l)
-		words[i], meanings[i] = sideWords(l, d.Side, st)
+		words[i], meanings[i] = sideWords(l, d, st)
 		if strings.Contains(meanings[i], "%s") {
 			meanings[i] = fmt.Sprintf(meanings[i], margin)
 		}

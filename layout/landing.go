@@ -127,12 +127,105 @@ func (b *builder) noGrid(d CardData, x, y, w float64) Block {
 	return blk
 }
 
-// sideWords are a mark's word and meaning in the legend of side s: the same marks on
-// both sides, in the words of the side (a figure-less no-go is no takeoff on the
-// takeoff side, no stop on the landing side).
-func sideWords(l look, s Side, st lookStyle) (word, meaning string) {
-	if l == lookNoTakeoff && s == LandingSide {
+// sideWords are a mark's word and meaning in the legend of card page d: the same
+// marks on both sides, in the words of the side (a figure-less no-go is no takeoff on
+// the takeoff side, no stop on the landing side, either on a page with both).
+func sideWords(l look, d CardData, st lookStyle) (word, meaning string) {
+	switch {
+	case l != lookNoTakeoff:
+	case d.SamePage != nil:
+		return "NO TAKEOFF/STOP", "no lift-off, climb, stop"
+	case d.Side == LandingSide:
 		return "NO STOP", "braking does not stop"
 	}
 	return st.Word, st.Meaning
+}
+
+// grids lays out the grid of d in at most h mm (or, for a runway end without an LDA,
+// the note that replaces it) and, when d carries its landing half on the same page,
+// the landing strip and the landing grid below it. The room is shared in proportion
+// to the rows of each grid. It returns the blocks in page order and the size of the
+// takeoff grid's figures.
+func (b *builder) grids(d CardData, x, y, w, h float64) ([]Block, float64, error) {
+	if d.NoGrid != "" {
+		return []Block{b.noGrid(d, x, y, w)}, MinNumberPt + 2, nil
+	}
+	if d.SamePage == nil {
+		g, pt, err := b.grid(d, x, y, w, h)
+		return []Block{g}, pt, err
+	}
+	l := *d.SamePage
+	l.DensityAltFt = nil // the takeoff grid above gives them, column for column
+	strip := b.landingStrip(l, x, w)
+	rows := func(c CardData) float64 {
+		r := float64(len(c.Blocks)) * (1 + float64(len(c.WindsKt)))
+		if len(c.DensityAltFt) > 0 {
+			r++
+		}
+		return r
+	}
+	room := h - strip.Box.H - gapMM
+	rt, rl := rows(d), 0.0
+	if l.NoGrid == "" {
+		rl = rows(l)
+	}
+	takeoffRoom := room * rt / (rt + rl)
+	if l.NoGrid != "" {
+		// The landing note is measured, not shared.
+		takeoffRoom = room - b.noGrid(l, x, 0, w).Box.H - gapMM
+	}
+	g, pt, err := b.grid(d, x, y, w, takeoffRoom)
+	if err != nil {
+		return nil, 0, err
+	}
+	sy := g.Box.Y + g.Box.H + gapMM
+	strip.shift(sy)
+	ly := strip.Box.Y + strip.Box.H + gapMM
+	var lg Block
+	if l.NoGrid != "" {
+		lg = b.noGrid(l, x, ly, w)
+	} else if lg, _, err = b.grid(l, x, ly, w, y+h-ly); err != nil {
+		return nil, 0, fmt.Errorf("landing: %w", err)
+	}
+	lg.Name = "landing grid"
+	return []Block{g, strip, lg}, pt, nil
+}
+
+// landingStrip is the head of the landing half of a page that carries both: the
+// LANDING tag and the LDA (framed, as every landing figure is held against it), then
+// the flap, the model, the approach speeds and the policy's factors, built at the top
+// of the page (grids moves it).
+func (b *builder) landingStrip(l CardData, x, w float64) Block {
+	blk := Block{Name: "landing strip"}
+	const tagPt = 9
+	y := 0.4
+	tag := sideTag(LandingSide)
+	tw := b.f.WidthMM(tag, tagPt, Bold)
+	blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: Rect{x, y - 0.3, tw + 2.4, 4.6}, Color: Black})
+	b.text(&blk, Rect{x + 1.2, y, tw + 0.01, 4}, tag, tagPt, Bold, Left, White, Label)
+	cx := x + tw + 2.4 + 3
+	for _, v := range l.Declared {
+		s := fmt.Sprintf("%s %.0f %s", v.Name, v.Value, l.Unit)
+		wd := b.f.WidthMM(s, tagPt, Bold)
+		b.text(&blk, Rect{cx, y, wd + 0.01, 4}, s, tagPt, Bold, Left, Black, Label)
+		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{cx - 0.8, y - 0.3, wd + 1.6, 4.6}, Color: Black, LineMM: 0.35})
+		cx += wd + 4
+	}
+	y += 4.8
+	items := []string{"flap " + l.Flap, l.ModelName}
+	if len(l.Approach) > 0 {
+		var sp []string
+		for _, a := range l.Approach {
+			sp = append(sp, fmt.Sprintf("%.0f", a.KIAS))
+		}
+		items = append(items, Keep("approach "+strings.Join(sp, "/")+" KIAS at 50 ft"))
+	}
+	pol := append([]string(nil), l.PolicyItems...)
+	if len(pol) > 0 {
+		pol[0] = l.PolicyTitle + ": " + pol[0]
+	}
+	items = append(items, pol...)
+	y += b.lines(&blk, x, y, w, b.wrapItems(items, " · ", w, bodyPt, Regular), bodyPt, Regular)
+	blk.Box = Rect{x - 0.9, 0, w + 1.8, y + 0.2}
+	return blk
 }

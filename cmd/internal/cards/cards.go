@@ -592,6 +592,19 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 			if err != nil {
 				return nil, fmt.Errorf("airfield %s runway %s: %w", j.Airfield.Ident, id, err)
 			}
+			sum := EndSummary{Designator: e.Designator, Page: id, Condition: string(cond), End: e, Fingerprint: d.Fingerprint,
+				Counts: map[perf.State]int{}, Empty: d.Empty != "", EmptyWhy: d.Empty}
+			if j.landingSamePage() {
+				ld, lg, err := j.LandingCard(e, cond)
+				if err != nil {
+					return nil, fmt.Errorf("airfield %s runway %s, landing: %w", j.Airfield.Ident, id, err)
+				}
+				d.SamePage = &ld
+				sum.recordLanding(ld, lg)
+				if j.Data {
+					landing[len(data)] = ld
+				}
+			}
 			c, err := layout.Build(d, j.Page, fonts)
 			if err != nil {
 				return nil, err
@@ -605,8 +618,6 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 			}
 			out.Layout += time.Since(t0)
 			cs = append(cs, c)
-			sum := EndSummary{Designator: e.Designator, Page: id, Condition: string(cond), End: e, Fingerprint: d.Fingerprint,
-				Counts: map[perf.State]int{}, Empty: d.Empty != "", EmptyWhy: d.Empty}
 			for _, blk := range g.Cells {
 				for _, row := range blk {
 					for _, c := range row {

@@ -213,16 +213,29 @@ func (j *Job) landingPage(e perf.RunwayEnd, cond perf.Condition, id string, font
 		}
 		return d, nil, fmt.Errorf("card %s %s, landing side: layout check failed: %v%s", j.Airfield.Ident, id, probs, more)
 	}
+	sum.recordLanding(d, g)
+	return d, c, nil
+}
+
+// landingSamePage reports whether the job prints each runway end's landing figures
+// on the takeoff page (a template with landing: same-page).
+func (j *Job) landingSamePage() bool {
+	return j.Aircraft.Landing != nil && j.Template.Landing == spec.LandingSamePage
+}
+
+// recordLanding counts the landing cells of grid g (nil for an end without an LDA)
+// and the landing emptiness of its card data d.
+func (sum *EndSummary) recordLanding(d layout.CardData, g *perf.Grid) {
 	sum.Landing, sum.LandingCounts = true, map[perf.State]int{}
 	sum.LandingEmpty, sum.LandingEmptyWhy, sum.NoLDA = d.Empty != "", d.Empty, d.NoGrid != ""
-	if g != nil {
-		for _, blk := range g.Cells {
-			for _, row := range blk {
-				for _, c := range row {
-					sum.LandingCounts[c.State]++
-				}
+	if g == nil {
+		return
+	}
+	for _, blk := range g.Cells {
+		for _, row := range blk {
+			for _, c := range row {
+				sum.LandingCounts[c.State]++
 			}
 		}
 	}
-	return d, c, nil
 }
