@@ -92,6 +92,16 @@ func TestBadFiles(t *testing.T) {
 		{"ac-physics-no-min-mass.yaml", []string{`ac-physics-no-min-mass.yaml:1:1: min_mass: missing required field "min_mass": a profile without a table states its lowest flyable mass`}},
 		{"af-variation-sign.yaml", []string{`af-variation-sign.yaml:5:12: variation: "-3 deg W" gives both a sign and E or W`}},
 		{"tpl-valid-days.yaml", []string{"tpl-valid-days.yaml:16:13: valid_days: 1.9 is not a whole number of days"}},
+		// Issue 11: the landing section.
+		{"ac-landing-mlm-above-mtow.yaml", []string{"ac-landing-mlm-above-mtow.yaml:24:21: landing.max_landing_mass: 1100 kg is above the MTOW 1000 kg"}},
+		{"ac-landing-from50-short.yaml", []string{
+			"ac-landing-from50-short.yaml:35:19: landing.table.weights (1000 kg).from_50ft[0][1]: distance falls as temperature rises",
+			"ac-landing-from50-short.yaml:35:19: landing.table.weights (1000 kg).from_50ft[0][1]: distance from 50 ft is shorter than the ground roll",
+		}},
+		{"ac-landing-no-model.yaml", []string{
+			"ac-landing-no-model.yaml:24:19: landing.approach_speed: 300 kt is outside the accepted range 30 to 120 kt",
+			"ac-landing-no-model.yaml:23:3: landing.table: a landing section needs a landing model",
+		}},
 		{"empty.yaml", []string{"empty.yaml: file is empty"}},
 		{"syntax.yaml", []string{"syntax.yaml:1:1: not valid YAML: did not find expected ',' or ']'"}},
 		{"not-mapping.yaml", []string{`not-mapping.yaml:1:1: expected a mapping of key: value lines, found "just a string"`}},
