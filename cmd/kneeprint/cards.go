@@ -59,8 +59,17 @@ the command exit 1, unless --allow-empty is given: such a card is never printed
 quietly. --data writes, beside each PDF, the card's content as JSON (NAME.json: the
 figures as printed, the state of every cell; fields in the README).
 
+Landing: when the profile has landing data every card has a landing side, printed as
+the next page behind its takeoff side (the landing distance from 50 ft against the
+LDA, same marks and legend; a runway end without an LDA says so). Print the file
+double-sided. With --sheet, each sheet's back page holds the two landing sides
+mirrored: print it double-sided, flipping on the short edge (the sheet turns like a
+book page), and each landing side lands behind its own takeoff side. A template with
+landing: same-page (preset a5-one-page) prints both on one page; landing: none
+leaves the landing out.
+
 Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-letter,
-5x8, or your own file (copy one from templates/cards/).
+5x8, a5-one-page, or your own file (copy one from templates/cards/).
 
 ` + caution,
 		Example: `  kneeprint cards --demo -o cards
@@ -75,9 +84,9 @@ Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-let
 	f.StringVar(&opts.plan, "plan", "", "a plan file: aircraft, airfields, templates, dates, output folder")
 	f.StringVar(&opts.aircraft, "aircraft", "", "aircraft profile file, or demo:NAME")
 	f.StringVar(&opts.airfield, "airfield", "", "airfield file, or demo:NAME")
-	f.StringVar(&opts.template, "template", templates.DefaultCard, "card preset: a5, half-letter, 5x8, or a card-template file")
+	f.StringVar(&opts.template, "template", templates.DefaultCard, "card preset: a5, half-letter, 5x8, a5-one-page, or a card-template file")
 	f.StringVar(&opts.page, "page", "", "card size a5|half-letter|5x8 (default: the template's)")
-	f.StringVar(&opts.sheet, "sheet", "", "print two cards per a4|letter sheet, with cut marks")
+	f.StringVar(&opts.sheet, "sheet", "", "print two cards per a4|letter sheet, with cut marks (landing sides: print double-sided, flip on the short edge)")
 	f.StringVar(&opts.policy, "policy", "", "safety policy (default: the template's): "+policyList())
 	f.StringVar(&opts.date, "date", "", "card date YYYY-MM-DD (default: today; a plan gives its own)")
 	f.StringVar(&opts.validUntil, "valid-until", "", "valid-until date YYYY-MM-DD (default: date + the template's valid_days)")
