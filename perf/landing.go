@@ -453,3 +453,43 @@ func LandingMasses(a *Aircraft, weightsKg []float64, n int) []float64 {
 	}
 	return out
 }
+
+// MemoLanding wraps a landing model so that the paved, dry, level reference figures
+// are computed once, as Memo does for takeoff: every landing cell asks for them (the
+// floor under a model that covers surface or slope), the same for every runway end of
+// an airfield. Other conditions pass straight through. Not safe for concurrent use.
+func MemoLanding(m LandingModel) LandingModel {
+	if _, ok := m.(*landingMemo); ok {
+		return m
+	}
+	return &landingMemo{m: m, seen: make(map[memoKey]landingMemoEntry, 256)}
+}
+
+type landingMemoEntry struct {
+	r   LandingResult
+	err error
+}
+
+type landingMemo struct {
+	m    LandingModel
+	seen map[memoKey]landingMemoEntry
+}
+
+func (mm *landingMemo) Land(c Conditions) (LandingResult, error) {
+	if !isReference(c) {
+		return mm.m.Land(c)
+	}
+	k := memoKey{c.PressureAltM, c.TempK, c.MassKg, c.HeadwindMS}
+	if e, ok := mm.seen[k]; ok {
+		return e.r, e.err
+	}
+	r, err := mm.m.Land(c)
+	mm.seen[k] = landingMemoEntry{r, err}
+	return r, err
+}
+
+// WindFactoringIncluded passes the wrapped model's answer through.
+func (mm *landingMemo) WindFactoringIncluded() bool { return LandingWindFactoringIncluded(mm.m) }
+
+// Unwrap is the memoized model.
+func (mm *landingMemo) Unwrap() LandingModel { return mm.m }

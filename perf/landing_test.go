@@ -336,7 +336,7 @@ func TestEvaluateLanding(t *testing.T) {
 
 // calibratedLandingAircraft is a physics profile whose landing model is calibrated to
 // points it made itself (the fit's correctness is TestCalibrateLandingSyntheticTruth's).
-func calibratedLandingAircraft(t *testing.T) *Aircraft {
+func calibratedLandingAircraft(t testing.TB) *Aircraft {
 	lm := demoLandingPhysics()
 	lm.RefMassKg = 1000
 	r := landingRef(lm, Conditions{TempK: 288.15, MassKg: 1000, Surface: Paved, Condition: Dry})
@@ -397,4 +397,54 @@ func TestLandingGridProperties(t *testing.T) {
 			}
 		}
 	}
+}
+
+// The memo answers exactly as the model does, reference figures included.
+func TestMemoLandingSameAnswers(t *testing.T) {
+	m := demoLandingPhysics()
+	mm := MemoLanding(m)
+	assert.Same(t, mm, MemoLanding(mm))
+	for _, c := range []Conditions{
+		{TempK: 288.15, MassKg: 1200, Surface: Paved, Condition: Dry},
+		{TempK: 288.15, MassKg: 1200, Surface: Paved, Condition: Dry},
+		{TempK: 300, MassKg: 1100, Surface: Grass, Condition: Wet, SlopePct: -1},
+	} {
+		want, err := m.Land(c)
+		require.NoError(t, err)
+		got, err := mm.Land(c)
+		require.NoError(t, err)
+		assert.Equal(t, want, got)
+	}
+}
+
+// One 8 temperatures x 7 winds x 2 weights landing grid, as a card side computes it.
+func benchmarkLandingGrid(b *testing.B, a *Aircraft) {
+	m, err := LandingModelFor(a)
+	if err != nil {
+		b.Fatal(err)
+	}
+	p, _ := PolicyByID(PolicyUKAdvisory)
+	spec := DefaultGridSpec(a)
+	spec.WeightsKg = LandingMasses(a, a.WeightsKg, 2)
+	spec.Rounding = Rounding{Step: CardStep}
+	e := RunwayEnd{Designator: "15", LDAM: 610, Surface: Grass, Condition: Wet, SlopePct: -1}
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		if _, err := ComputeLandingGrid(a, MemoLanding(m), p, Airfield{ElevationM: 300}, e, spec); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkLandingGridPhysics(b *testing.B) {
+	b.StopTimer()
+	a := calibratedLandingAircraft(b)
+	a.WeightsKg = []float64{1000, 900}
+	b.StartTimer()
+	benchmarkLandingGrid(b, a)
+}
+
+func BenchmarkLandingGridTable(b *testing.B) {
+	benchmarkLandingGrid(b, &Aircraft{Name: "t", MTOWKg: 1000, MaxTailwindMS: 10 * knot, WeightsKg: []float64{1000, 900},
+		Landing: &Landing{MaxMassKg: 1000, Model: ModelTable, Table: landingTable()}})
 }

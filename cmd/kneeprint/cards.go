@@ -231,6 +231,9 @@ func cardsRun(e env, opts *cardsOptions) error {
 	// less eager collector saves about a tenth of the time (BenchmarkSeason) for a few
 	// tens of megabytes of memory.
 	defer debug.SetGCPercent(debug.SetGCPercent(400))
+	// Two-sided cards hold twice the pages per file in flight: a soft limit makes the
+	// lazy collector work harder only as the heap nears it (BenchmarkSeasonMemory).
+	defer debug.SetMemoryLimit(debug.SetMemoryLimit(batch.SoftMemoryLimit))
 	progress := batch.NewProgress(e.stderr, isTerminal(e.stderr))
 	if opts.plan == "" {
 		progress = batch.NewProgress(e.stdout, false)

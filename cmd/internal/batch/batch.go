@@ -457,6 +457,12 @@ func removeLeftovers(dir string) {
 	}
 }
 
+// SoftMemoryLimit is the soft memory limit the cards command sets for a batch
+// (runtime/debug.SetMemoryLimit): the collector, lazy for speed (400 %), works harder
+// only as the heap nears it, so that a season of two-sided cards stays within the
+// 300 MB target of BenchmarkSeasonMemory.
+const SoftMemoryLimit = 224 << 20
+
 // WriteSummary prints what a run did: files and pages written, the runway ends with
 // no-go or beyond-limit cells, and every error. Only files in place are counted.
 func (s *Summary) WriteSummary(w io.Writer) {

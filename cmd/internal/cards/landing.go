@@ -38,7 +38,8 @@ func (j *Job) LandingCard(e perf.RunwayEnd, cond perf.Condition) (layout.CardDat
 		if err != nil {
 			return d, nil, err
 		}
-		j.landingModel = m
+		// One memo per job: the runway ends share their reference figures.
+		j.landingModel = perf.MemoLanding(m)
 	}
 	pol, err := perf.PolicyByID(t.Policy)
 	if err != nil {
@@ -146,7 +147,11 @@ func (j *Job) approachSpeeds(weights []float64, u cardUnits) []layout.ApproachSp
 	var out []layout.ApproachSpeed
 	for _, kg := range weights {
 		var v float64
-		switch m := j.landingModel.(type) {
+		lm := j.landingModel
+		if u, ok := lm.(interface{ Unwrap() perf.LandingModel }); ok {
+			lm = u.Unwrap()
+		}
+		switch m := lm.(type) {
 		case *perf.LandingPhysicsModel:
 			v = m.ApproachEASMS(kg)
 		default:
