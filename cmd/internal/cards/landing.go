@@ -177,8 +177,11 @@ func landingPolicyItems(lp perf.LandingPolicy, e perf.RunwayEnd, covers perf.Eff
 			name = fmt.Sprintf("unpaved, %s: grass factor", e.Condition)
 		}
 		assume := ""
-		if e.Surface != perf.Paved {
+		switch e.Surface {
+		case perf.Grass:
 			assume = " (firm soil)"
+		case perf.Gravel:
+			assume = " (firm surface)"
 		}
 		items = append(items, name+" "+layout.Keep(pctFactor(sf.Value))+assume)
 	}

@@ -128,7 +128,7 @@ func (d *decoder) landingPhysics(n *yaml.Node, a *perf.Aircraft) *perf.LandingPh
 // fitLanding fits the physics landing model to its calibration points and, with a
 // landing table, to every cell of it (perf.CalibrateLanding), as fitPhysics does for
 // the takeoff. A profile with nothing to fit to is warned about: cards, check and
-// grid then give no landing figure.
+// grid --landing then refuse its landing.
 func (d *decoder) fitLanding(a *perf.Aircraft, landingNode *yaml.Node) {
 	l := a.Landing
 	if l == nil || l.Physics == nil || a.Physics == nil {
@@ -139,7 +139,7 @@ func (d *decoder) fitLanding(a *perf.Aircraft, landingNode *yaml.Node) {
 		d.landingCalib = append(d.landingCalib, tablePoints(l.Table, d.landingTableNodes, landingTable)...)
 	}
 	if len(d.landingCalib) == 0 {
-		d.warnf(physNode, "landing.physics.calibration", "not calibrated: cards, check and grid give no landing figure until it lists the flight manual's landing figures (at least sea level, maximum landing mass, paved dry)")
+		d.warnf(physNode, "landing.physics.calibration", "not calibrated: cards and check refuse this profile's landing (and grid --landing) until it lists the flight manual's landing figures (at least sea level, maximum landing mass, paved dry)")
 		return
 	}
 	if len(d.landingCalib) > perf.MaxCalibrationPoints {
@@ -163,7 +163,7 @@ func (d *decoder) fitLanding(a *perf.Aircraft, landingNode *yaml.Node) {
 		return
 	}
 	if !anchored && l.Model == perf.ModelPhysics {
-		d.warnf(physNode, "landing.physics.calibration", "no point is at the maximum landing mass on a paved, dry runway: cards, check and grid give no landing figure until the manual's figure there is added")
+		d.warnf(physNode, "landing.physics.calibration", "no point is at the maximum landing mass on a paved, dry runway: cards and check refuse this profile's landing (and grid --landing) until the manual's figure there is added")
 	}
 	cal, err := perf.CalibrateLanding(perf.LandingPhysicsModel{P: *a.Physics, L: *l.Physics, ApproachIASMS: l.ApproachIASMS, RefMassKg: l.MaxMassKg}, pts)
 	if d.fitErrors(err, d.landingCalib, physNode, "landing.physics", "landing.physics", landingTable) {
@@ -199,7 +199,7 @@ func summarizeLanding(w io.Writer, doc *Document) {
 	fmt.Fprintf(w, "    landing physics: CLmax %.2f (flap %s), CD0 %.3f, CL ground roll %.2f, free roll %.1f s\n", p.CLMax, l.Flap, p.CD0, p.CLGround, p.FreeRollS)
 	c := p.Calibration
 	if c == nil {
-		fmt.Fprintf(w, "    landing physics NOT CALIBRATED: cards, check and grid give no landing figure\n")
+		fmt.Fprintf(w, "    landing physics NOT CALIBRATED: cards and check refuse this profile's landing (and grid --landing)\n")
 		return
 	}
 	fmt.Fprintf(w, "    landing physics calibrated to %d point(s) (Nelder-Mead, %d model evaluations):\n", len(c.Points), c.Evaluations)
