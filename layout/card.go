@@ -65,6 +65,17 @@ type CardData struct {
 	ClimbWeight      float64
 	ClimbPct         []float64
 	HasClimbPct      []bool
+	// Side is the side of the card this page is (landing.go); TwoSided says the card
+	// has both, and each side then says which it is.
+	Side     Side
+	TwoSided bool
+	// Approach is, on the landing side, the speed over the threshold per weight
+	// block; NoGrid, when set, replaces the grid (a runway end without an LDA).
+	Approach []ApproachSpeed
+	NoGrid   string
+	// SamePage, when set, is the landing half printed on this page below the takeoff
+	// grid (a template with landing: same-page).
+	SamePage *CardData
 
 	Generated   string // YYYY-MM-DD
 	ValidUntil  string
@@ -83,7 +94,10 @@ type DeclaredDistance struct {
 type WeightBlock struct {
 	Weight float64 // in the card's mass unit
 	MTOW   bool
-	Cells  [][]CellData
+	// Tag, when set, names the mass limit the block is at instead of "MTOW" (the
+	// landing side's "MLM").
+	Tag   string
+	Cells [][]CellData
 }
 
 // CellData is one cell: its state and, when it has one, the required distance in the
@@ -264,7 +278,7 @@ func (blk *Block) shift(dy float64) {
 // figures of at least MinNumberPt on this page: choose fewer weight blocks or
 // temperature columns, or a larger page.
 func Build(d CardData, p Page, f *Fonts) (*Card, error) {
-	if len(d.Blocks) == 0 || len(d.Temps) == 0 || len(d.WindsKt) == 0 {
+	if (len(d.Blocks) == 0 && d.NoGrid == "") || len(d.Temps) == 0 || len(d.WindsKt) == 0 {
 		return nil, fmt.Errorf("card %s %s: empty grid", d.Ident, d.Designator)
 	}
 	if len(d.DensityAltFt) != len(d.Temps) {
@@ -273,6 +287,9 @@ func Build(d CardData, p Page, f *Fonts) (*Card, error) {
 	title := fmt.Sprintf("%s runway %s, %s", d.Ident, d.Designator, d.AircraftName)
 	if d.ConditionPages > 1 {
 		title = fmt.Sprintf("%s runway %s %s, %s", d.Ident, d.Designator, d.Condition, d.AircraftName)
+	}
+	if d.TwoSided {
+		title += ", " + d.Side.String()
 	}
 	b := &builder{f: f, card: &Card{Page: p, Title: title}}
 	x0, w := marginMM, p.WidthMM-2*marginMM
@@ -283,20 +300,27 @@ func Build(d CardData, p Page, f *Fonts) (*Card, error) {
 	// Room for the grid: the tools are measured with their largest figure; once the
 	// grid's figure size is known they are laid out with it (figures stay the largest).
 	gridTop := header.Box.Y + header.Box.H + gapMM
-	room := footer.Box.Y - gapMM - legend.Box.H - gapMM - b.tools(d, x0, w, maxAccelPt).Box.H - gapMM - gridTop
-	grid, numPt, err := b.grid(d, x0, gridTop, w, room)
+	tools := b.tools
+	if d.Side == LandingSide {
+		tools = b.landingTools
+	}
+	room := footer.Box.Y - gapMM - legend.Box.H - gapMM - tools(d, x0, w, maxAccelPt).Box.H - gapMM - gridTop
+	grids, numPt, err := b.grids(d, x0, gridTop, w, room)
 	if err != nil {
 		return nil, err
 	}
-	tools := b.tools(d, x0, w, numPt)
+	toolsBlk := tools(d, x0, w, numPt)
 	// Tools and legend follow the grid; what room is left becomes a notes area above
 	// the footer, never a band inside the grid.
-	y := grid.Box.Y + grid.Box.H + gapMM
-	tools.shift(y)
-	y += tools.Box.H + gapMM
+	last := grids[len(grids)-1]
+	y := last.Box.Y + last.Box.H + gapMM
+	toolsBlk.shift(y)
+	y += toolsBlk.Box.H + gapMM
 	legend.shift(y)
 	y += legend.Box.H + gapMM
-	b.card.Blocks = append(b.card.Blocks, header, grid, tools, legend)
+	b.card.Blocks = append(b.card.Blocks, header)
+	b.card.Blocks = append(b.card.Blocks, grids...)
+	b.card.Blocks = append(b.card.Blocks, toolsBlk, legend)
 	if free := footer.Box.Y - gapMM - y; free >= 9 {
 		b.card.Blocks = append(b.card.Blocks, b.notes(x0, y, w, free))
 	}
@@ -366,6 +390,14 @@ func (b *builder) header(d CardData, x, y, w float64) Block {
 	// with is framed where it stands (the legend says what the frame means).
 	const ddPt = 9
 	cx = x
+	if d.TwoSided || d.SamePage != nil {
+		// Which side this is, white on black: seen at a glance when the card is turned.
+		tag := sideTag(d.Side)
+		tw := b.f.WidthMM(tag, ddPt, Bold)
+		blk.Shapes = append(blk.Shapes, Shape{Kind: FillRect, Box: Rect{cx, y - 0.3, tw + 2.4, 4.6}, Color: Black})
+		b.text(&blk, Rect{cx + 1.2, y, tw + 0.01, 4}, tag, ddPt, Bold, Left, White, Label)
+		cx += tw + 2.4 + 3
+	}
 	for _, v := range d.Declared {
 		s := fmt.Sprintf("%s %.0f %s", v.Name, v.Value, d.Unit)
 		st := Regular
@@ -380,7 +412,7 @@ func (b *builder) header(d CardData, x, y, w float64) Block {
 		if v.Name == d.Limiting {
 			blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{cx - 0.8, y - 0.3, wd + 1.6, 4.6}, Color: Black, LineMM: 0.35})
 		}
-		cx += wd + 5
+		cx += wd + 4
 	}
 	y += 4.8
 
@@ -395,9 +427,7 @@ func (b *builder) header(d CardData, x, y, w float64) Block {
 		Keep(trimNum(d.QNHhPa, 2)+" hPa"), Keep(fmt.Sprintf("%.2f inHg", d.QNHinHg)), Keep(fmt.Sprintf("%.0f ft", d.PressureAltFt)),
 		Keep("10 hPa"), Keep("0.30 inHg"), Keep(fmt.Sprintf("%.0f °%s", d.HotterPer10hPa, d.TempUnit)))
 	y += b.paragraph(&blk, x, y, w, qnh, bodyPt, Bold)
-	read := fmt.Sprintf("Figures: %s required, all factors in, rounded up. Between figures take the hotter column, less headwind, "+
-		"the heavier block. Rows: reported wind (factoring included). No figure past the last column.", d.Unit)
-	y += b.paragraph(&blk, x, y, w, read, bodyPt, Regular)
+	y += b.paragraph(&blk, x, y, w, readLine(d), bodyPt, Regular)
 	if d.RunwayNotes != "" {
 		y += b.paragraph(&blk, x, y, w, "Note: "+d.RunwayNotes, bodyPt, Regular)
 	}
@@ -523,8 +553,8 @@ func weightLabel(blk WeightBlock, unit string) string {
 }
 
 func weightTitle(blk WeightBlock, unit string) string {
-	if blk.MTOW {
-		return weightLabel(blk, unit) + " MTOW"
+	if tag := blockTag(blk); tag != "" {
+		return weightLabel(blk, unit) + " " + tag
 	}
 	return weightLabel(blk, unit)
 }
@@ -552,10 +582,16 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	nB, nW := float64(len(d.Blocks)), float64(len(d.WindsKt))
 	gaps := (nB - 1) * gapMM
 	// Rows: the density-altitude row (and the climb row on a card with obstacles),
-	// then per block a title row and the wind rows.
-	top1 := 1.0
+	// then per block a title row and the wind rows. A grid without density altitudes
+	// (the landing half of a page that carries both: the takeoff grid above gives
+	// them) has no such row.
+	da := 1.0
+	if len(d.DensityAltFt) == 0 {
+		da = 0
+	}
+	top1 := da
 	if len(d.ClimbPct) > 0 {
-		top1 = 2
+		top1++
 	}
 	rowH := (h - gaps) / (top1 + nB*(1+nW))
 	titleH := func(rowH float64) float64 {
@@ -595,12 +631,14 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	for _, da := range d.DensityAltFt {
 		daPt = b.fitPt(fmt.Sprintf("%.0f", da), g.colW-2*cellPadMM, daPt, MinTextPt, Regular)
 	}
-	b.text(&blk, Rect{x + 0.7, y + (rowH-MinTextPt*ptMM)/2, g.labelW - 1.2, MinTextPt * ptMM}, "DA ft", MinTextPt, Regular, Left, Black, Label)
-	for ti, da := range d.DensityAltFt {
-		b.text(&blk, Rect{colX(ti), y + (rowH-daPt*ptMM)/2, g.colW, daPt * ptMM}, fmt.Sprintf("%.0f", da), daPt, Regular, Center, Black, Label)
+	if da > 0 {
+		b.text(&blk, Rect{x + 0.7, y + (rowH-MinTextPt*ptMM)/2, g.labelW - 1.2, MinTextPt * ptMM}, "DA ft", MinTextPt, Regular, Left, Black, Label)
+		for ti, da := range d.DensityAltFt {
+			b.text(&blk, Rect{colX(ti), y + (rowH-daPt*ptMM)/2, g.colW, daPt * ptMM}, fmt.Sprintf("%.0f", da), daPt, Regular, Center, Black, Label)
+		}
+		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, rowH}, Color: Grey, LineMM: 0.15})
+		y += rowH
 	}
-	blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, rowH}, Color: Grey, LineMM: 0.15})
-	y += rowH
 	if len(d.ClimbPct) > 0 {
 		// The still-air climb gradient per column at the heaviest block's weight.
 		cpt := daPt
@@ -627,8 +665,8 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 			l1 := by + (th-(hp+MinTextPt)*ptMM-0.3)/2
 			l2 := l1 + hp*ptMM + 0.3
 			b.text(&blk, Rect{x + 0.7, l1, g.labelW - 1.2, hp * ptMM}, weightLabel(wb, d.MassUnit), b.fitPt(weightLabel(wb, d.MassUnit), g.labelW-1.2, hp, MinTextPt, Bold), Bold, Left, Black, Label)
-			if wb.MTOW {
-				b.text(&blk, Rect{x + 0.7, l2, g.labelW - 1.2, MinTextPt * ptMM}, "MTOW", MinTextPt, Bold, Left, Black, Label)
+			if tag := blockTag(wb); tag != "" {
+				b.text(&blk, Rect{x + 0.7, l2, g.labelW - 1.2, MinTextPt * ptMM}, tag, MinTextPt, Bold, Left, Black, Label)
 			}
 			for ti, t := range d.Temps {
 				b.text(&blk, Rect{colX(ti), l1, g.colW, hp * ptMM}, tempNum(t), hp, Bold, Center, Black, Number)
@@ -831,13 +869,14 @@ func (b *builder) legend(d CardData, x, w float64) Block {
 	swW := math.Max(9.5, b.f.WidthMM(styleOf(lookLimit).Marks[0], MinTextPt, Bold)+2*cellPadMM+0.2)
 	entryW := 0.0
 	meanings := make([]string, len(ls))
+	words := make([]string, len(ls))
 	for i, l := range ls {
 		st := styleOf(l)
-		meanings[i] = st.Meaning
-		if strings.Contains(st.Meaning, "%s") {
-			meanings[i] = fmt.Sprintf(st.Meaning, margin)
+		words[i], meanings[i] = sideWords(l, d, st)
+		if strings.Contains(meanings[i], "%s") {
+			meanings[i] = fmt.Sprintf(meanings[i], margin)
 		}
-		entryW = math.Max(entryW, swW+1.2+math.Max(b.f.WidthMM(st.Word, MinTextPt, Bold), b.f.WidthMM(meanings[i], MinTextPt, Regular))+0.8)
+		entryW = math.Max(entryW, swW+1.2+math.Max(b.f.WidthMM(words[i], MinTextPt, Bold), b.f.WidthMM(meanings[i], MinTextPt, Regular))+0.8)
 	}
 	// The frame on a declared distance is explained in the slot after the marks when
 	// that costs no row of its own; otherwise on a line below them.
@@ -890,7 +929,7 @@ func (b *builder) legend(d CardData, x, w float64) Block {
 		tx := sw.X + sw.W + 1.2
 		tw := ex + ew - tx - 0.5
 		mid := ey + swH/2
-		b.text(&blk, Rect{tx, mid - th - 0.15, tw, th}, st.Word, MinTextPt, Bold, Left, Black, Label)
+		b.text(&blk, Rect{tx, mid - th - 0.15, tw, th}, words[i], MinTextPt, Bold, Left, Black, Label)
 		b.text(&blk, Rect{tx, mid + 0.15, tw, th}, meanings[i], MinTextPt, Regular, Left, Black, Label)
 	}
 	fw := b.f.WidthMM(name, MinTextPt, Bold)

@@ -30,6 +30,9 @@ type RenderOptions struct {
 	Author string
 	// Fonts supplies the embedded fonts; nil makes one.
 	Fonts *Fonts
+	// Duplex says the cards come in front/back pairs (takeoff side, landing side):
+	// on 2-up sheets the backs are then imposed mirrored (Impose).
+	Duplex bool
 }
 
 const fontFamily = "go"
@@ -81,6 +84,9 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 	pdf.SetAutoPageBreak(false, 0)
 	pdf.SetMargins(0, 0, 0)
 
+	if opt.Duplex && len(cards)%2 != 0 {
+		return errors.New("two-sided cards come in front and back pairs: an odd number of pages")
+	}
 	d := &doc{pdf: pdf}
 	if err := d.addFonts(fonts, cards); err != nil {
 		return err
@@ -94,11 +100,14 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 	} else {
 		s := *opt.Sheet
 		offX, offY := (s.WidthMM-2*p.WidthMM)/2, (s.HeightMM-p.HeightMM)/2
-		for i := 0; i < len(cards); i += 2 {
+		for _, sheet := range Impose(len(cards), opt.Duplex) {
 			pdf.AddPageFormat("L", size)
-			for j := 0; j < 2 && i+j < len(cards); j++ {
-				d.bookmark(cards[i+j].Title)
-				d.drawCard(cards[i+j], offX+float64(j)*p.WidthMM, offY)
+			for j, ci := range sheet {
+				if ci < 0 {
+					continue
+				}
+				d.bookmark(cards[ci].Title)
+				d.drawCard(cards[ci], offX+float64(j)*p.WidthMM, offY)
 			}
 			cutMarks(pdf, s, p, offX, offY)
 		}
@@ -221,6 +230,34 @@ func textString(s string) string {
 		}
 	}
 	return s
+}
+
+// Impose places n cards on 2-up sheets: one [left, right] pair of card indexes per
+// sheet page, -1 for an empty half. Single-sided, cards go two by two. Duplex, the
+// cards come front, back, front, back (a takeoff side and its landing side): each
+// sheet's front page holds two fronts side by side, its back page their backs
+// mirrored, the back of the left card on the right. A sheet printed double-sided and
+// flipped on its short edge (turned like a book page) then has every back behind its
+// own front, and cutting it gives two whole cards.
+func Impose(n int, duplex bool) [][2]int {
+	var out [][2]int
+	at := func(i int) int {
+		if i < n {
+			return i
+		}
+		return -1
+	}
+	if !duplex {
+		for i := 0; i < n; i += 2 {
+			out = append(out, [2]int{i, at(i + 1)})
+		}
+		return out
+	}
+	for i := 0; i < n; i += 4 {
+		// Cards i, i+1 are the left card's front and back; i+2, i+3 the right one's.
+		out = append(out, [2]int{i, at(i + 2)}, [2]int{at(i + 3), i + 1})
+	}
+	return out
 }
 
 // pen draws on one fpdf document and sets font, colours and line width only when they

@@ -39,6 +39,9 @@ type Aircraft struct {
 	// Climb is the all-engines climb after takeoff, for obstacle clearance; nil
 	// when the profile gives none (left out of the canonical form then).
 	Climb *Climb `json:",omitempty"`
+	// Landing is the profile's landing data (perf/landing.go); nil when it has none:
+	// its cards then have no landing side.
+	Landing *Landing `json:",omitempty"`
 }
 
 // ModelKind selects a takeoff model.

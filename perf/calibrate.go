@@ -4,8 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-
-	"gonum.org/v1/gonum/optimize"
 )
 
 // Physical bounds of the two fitted propeller figures. A fit that ends on one of
@@ -173,7 +171,7 @@ func logit(p, lo, hi float64) float64 {
 //
 //	sum over figures of ((model - manual) / manual)^2
 //
-// with gonum's Nelder-Mead simplex (derivative free: the model is an integration),
+// with gonum's Nelder-Mead simplex (fitBounded, shared with the landing fit; derivative free: the model is an integration),
 // started from m's values, run twice (the second run restarts from the first's
 // result with a fresh simplex, the usual guard against a simplex collapsing early).
 // The parameters are kept inside their physical bounds (MinStaticThrustFrac...
@@ -197,91 +195,37 @@ func Calibrate(m PhysicsModel, points []CalibrationPoint) (*Calibration, error) 
 	}
 	m.Envelope = nil
 	cal := &Calibration{Points: append([]CalibrationPoint(nil), points...), StartStatic: m.P.StaticThrustFac, StartEta: m.P.PropEfficiency}
-	set := func(x []float64) {
-		m.P.StaticThrustFac = logistic(x[0], MinStaticThrustFrac, MaxStaticThrustFrac)
-		m.P.PropEfficiency = logistic(x[1], MinPropEfficiency, MaxPropEfficiency)
+	params := []fitParam{
+		{"static thrust fraction", m.P.StaticThrustFac, MinStaticThrustFrac, MaxStaticThrustFrac},
+		{"propeller efficiency", m.P.PropEfficiency, MinPropEfficiency, MaxPropEfficiency},
 	}
-	cost := func(x []float64) float64 {
-		set(x)
+	set := func(v []float64) { m.P.StaticThrustFac, m.P.PropEfficiency = v[0], v[1] }
+	cost := func() float64 {
 		cal.Evaluations++
 		sum := 0.0
 		for _, p := range points {
 			r, err := m.Takeoff(p.Conditions)
-			if err != nil {
-				// No figure where the manual has one: a residual of 100 % on each.
-				if p.GroundRollM > 0 {
-					sum++
-				}
-				if p.To50ftM > 0 {
-					sum++
-				}
-				continue
-			}
-			if p.GroundRollM > 0 {
-				d := r.GroundRollM/p.GroundRollM - 1
-				sum += d * d
-			}
-			if p.To50ftM > 0 {
-				d := r.To50ftM/p.To50ftM - 1
-				sum += d * d
-			}
+			sum = addSquares(sum, [2]float64{r.GroundRollM, r.To50ftM}, [2]float64{p.GroundRollM, p.To50ftM}, err)
 		}
 		return sum
 	}
-	x := []float64{
-		logit(m.P.StaticThrustFac, MinStaticThrustFrac, MaxStaticThrustFrac),
-		logit(m.P.PropEfficiency, MinPropEfficiency, MaxPropEfficiency),
+	vals, err := fitBounded(params, set, cost)
+	if err != nil {
+		return cal, err
 	}
-	for run := 0; run < 2; run++ {
-		res, err := optimize.Minimize(optimize.Problem{Func: cost}, x, &optimize.Settings{
-			Converger:       &optimize.FunctionConverge{Absolute: 1e-14, Relative: 1e-12, Iterations: 40},
-			FuncEvaluations: 1500,
-		}, &optimize.NelderMead{SimplexSize: 0.5})
-		if err != nil && res == nil {
-			return cal, fmt.Errorf("calibration: %w", err)
-		}
-		x = append(x[:0], res.X...)
-	}
-	set(x)
-	cal.Static, cal.Eta = m.P.StaticThrustFac, m.P.PropEfficiency
+	cal.Static, cal.Eta = vals[0], vals[1]
 
 	var fe FitError
-	for i, p := range points {
-		var pf PointFit
-		r, err := m.Takeoff(p.Conditions)
-		if err != nil {
-			pf.Err = err.Error()
-			fe.Problems = append(fe.Problems, FitProblem{Point: i, Msg: "the fitted model gives no figure here: " + err.Error()})
-			cal.LargestPct = math.Max(cal.LargestPct, 100)
-			cal.Fits = append(cal.Fits, pf)
-			continue
-		}
-		pf.GroundRollM, pf.To50ftM = r.GroundRollM, r.To50ftM
-		check := func(model, manual float64, figure string) float64 {
-			if manual <= 0 {
-				return 0
-			}
-			pct := (model/manual - 1) * 100
-			cal.LargestPct = math.Max(cal.LargestPct, math.Abs(pct))
-			if math.Abs(pct) > CalibrationTolerancePct {
-				fe.Problems = append(fe.Problems, FitProblem{Point: i, Figure: figure,
-					Msg: fmt.Sprintf("the best fit gives %.0f m, %+.1f %% off the manual's %.0f m (at most %.0f %% accepted)", model, pct, manual, CalibrationTolerancePct)})
-			}
-			return pct
-		}
-		pf.GroundRollPct = check(r.GroundRollM, p.GroundRollM, "ground_roll")
-		pf.To50ftPct = check(r.To50ftM, p.To50ftM, "to_50ft")
-		cal.Fits = append(cal.Fits, pf)
-	}
-	bound := func(v, lo, hi float64, name string) {
-		if v-lo < boundMargin*(hi-lo) || hi-v < boundMargin*(hi-lo) {
-			cal.BoundHit = true
-			fe.Problems = append(fe.Problems, FitProblem{Point: -1,
-				Msg: fmt.Sprintf("the fit pushed the %s to %.3f, on its physical bound (%.2f to %.2f): the description (power, propeller diameter, drag, speeds) does not match the manual's figures", name, v, lo, hi)})
-		}
-	}
-	bound(cal.Static, MinStaticThrustFrac, MaxStaticThrustFrac, "static thrust fraction")
-	bound(cal.Eta, MinPropEfficiency, MaxPropEfficiency, "propeller efficiency")
+	cal.Fits, cal.LargestPct, fe.Problems = residuals(len(points),
+		func(i int) ([2]float64, error) {
+			r, err := m.Takeoff(points[i].Conditions)
+			return [2]float64{r.GroundRollM, r.To50ftM}, err
+		},
+		func(i int) [2]float64 { return [2]float64{points[i].GroundRollM, points[i].To50ftM} },
+		[2]string{"ground_roll", "to_50ft"})
+	var bp []FitProblem
+	cal.BoundHit, bp = boundProblems(params, vals, "the description (power, propeller diameter, drag, speeds) does not match the manual's figures")
+	fe.Problems = append(fe.Problems, bp...)
 	if len(fe.Problems) > 0 {
 		return cal, &fe
 	}

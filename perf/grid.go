@@ -396,6 +396,9 @@ type Grid struct {
 	PressureAltM float64 // at Spec.QNHPa and ElevationM
 	Policy       Policy
 	Cells        [][][]Cell // [weight][wind][temperature]
+	// Landing is true for a grid of landing distances against the LDA
+	// (ComputeLandingGrid); its cells' To50ftM is then the distance from 50 ft.
+	Landing bool
 }
 
 // DefaultGridSpec is 0 to 35 C by 5, tailwind 10 kt to headwind 20 kt by 5, the

@@ -75,6 +75,18 @@ func ModelLine(a *Aircraft) string {
 	return "flight-manual table"
 }
 
+// LandingModelLine names the model a profile's landing figures come from: "flight-manual
+// table", or the physics landing model with its calibration; "" without landing data.
+func LandingModelLine(a *Aircraft) string {
+	switch {
+	case a.Landing == nil:
+		return ""
+	case a.Landing.Model == ModelPhysics && a.Landing.Physics != nil:
+		return a.Landing.Physics.Calibration.ModelLine()
+	}
+	return "flight-manual table"
+}
+
 // ModelFor returns the takeoff model the aircraft's profile selects.
 func ModelFor(a *Aircraft) (Model, error) {
 	switch a.Model {

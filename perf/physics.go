@@ -162,6 +162,10 @@ type forces struct {
 	slopeRad float64
 	thrust   func(va float64) float64 // when nil, prop is used
 	prop     propThrust
+	// braking makes accel return the deceleration of a landing roll: the same
+	// quadrature then integrates the landing roll run backwards in time, from rest
+	// to the touchdown speed (see LandingPhysicsModel.Land).
+	braking bool
 }
 
 // propThrust is the propeller thrust law of the physics model (see Takeoff).
@@ -204,7 +208,11 @@ func (f *forces) accel(va float64) float64 {
 	} else {
 		thrust = f.prop.at(va)
 	}
-	return (thrust - drag - f.mu*normal - w*f.sinSlope) / f.massKg
+	a := (thrust - drag - f.mu*normal - w*f.sinSlope) / f.massKg
+	if f.braking {
+		return -a
+	}
+	return a
 }
 
 // RunPoint is one sample of the ground run.

@@ -70,71 +70,13 @@ func (m *TableModel) WindFactoringIncluded() bool { return m.Table.WindInData }
 func (m *TableModel) Takeoff(c Conditions) (Result, error) {
 	t := m.Table
 	var r Result
-	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "weight", func(x float64) string { return fmt.Sprintf("%.0f kg", x) })
+	gr, to, notes, err := t.lookup(c)
+	r.Notes = notes
 	if err != nil {
 		return r, err
 	}
-	if note != "" {
-		// Say what was done, not that it is conservative: a weight below the table
-		// is as likely a typing slip (100 kg for 1000 kg) as a light aircraft, and
-		// the profile's lowest flyable mass is checked before a model is asked.
-		r.Notes = append(r.Notes, fmt.Sprintf("weight %.0f kg is below the table's lightest block: the %.0f kg figures are used", c.MassKg, t.WeightKg[0]))
-	}
-	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "pressure altitude", func(x float64) string { return fmt.Sprintf("%.0f ft", x/0.3048) })
-	if err != nil {
+	if gr, to, err = t.applyNotes(c, gr, to, &r.Covers, &r.Notes); err != nil {
 		return r, err
-	}
-	if note != "" {
-		r.Notes = append(r.Notes, note)
-	}
-	ti, tf, note, err := axisPos(t.TempK, c.TempK, "temperature", func(x float64) string { return fmt.Sprintf("%.0f C", x-273.15) })
-	if err != nil {
-		return r, err
-	}
-	if note != "" {
-		r.Notes = append(r.Notes, note)
-	}
-	gr := trilinear(t.GroundRollM, wi, wf, pi, pf, ti, tf)
-	to := trilinear(t.To50ftM, wi, wf, pi, pf, ti, tf)
-
-	k := t.Corrections
-	factor := 1.0
-	switch {
-	case c.HeadwindMS > 0 && k.HeadwindPerMS > 0:
-		factor = 1 - k.HeadwindPct/100*c.HeadwindMS/k.HeadwindPerMS
-		if factor < 0.5 {
-			// No manual's linear headwind note is meant to halve the distance;
-			// keep the credit bounded (conservative, common practice).
-			factor = 0.5
-			r.Notes = append(r.Notes, "headwind credit limited to half the distance")
-		}
-	case c.HeadwindMS < 0:
-		tail := -c.HeadwindMS
-		if k.TailwindPerMS <= 0 {
-			return r, fmt.Errorf("%w: the manual gives no tailwind correction", ErrNoData)
-		}
-		if tail > k.TailwindMaxMS+1e-9 {
-			return r, fmt.Errorf("%w: tailwind %.1f kt beyond the manual's correction (up to %.0f kt)", ErrNoData, tail/knot, k.TailwindMaxMS/knot)
-		}
-		factor = 1 + k.TailwindPct/100*tail/k.TailwindPerMS
-	}
-	gr *= factor
-	to *= factor
-
-	if c.Surface != Paved {
-		pct := k.GrassPctOfGroundRoll
-		if c.Condition == Wet {
-			pct = k.WetGrassPctOfGroundRoll
-		}
-		if c.Surface == Grass && pct > 0 {
-			add := pct / 100 * gr
-			gr += add
-			to += add
-			r.Covers.Surface = true
-			r.Notes = append(r.Notes, fmt.Sprintf("manual's %s grass note: +%g %% of ground roll", c.Condition, pct))
-		}
-	} else if c.Condition == Dry {
-		r.Covers.Surface = true // the table is for a paved, dry runway
 	}
 	r.GroundRollM, r.To50ftM = gr, to
 
@@ -153,6 +95,88 @@ func (m *TableModel) Takeoff(c Conditions) (Result, error) {
 	}
 	r.AccelCheckM = ratio * gr
 	return r, nil
+}
+
+// lookup interpolates the table multilinearly over pressure altitude x temperature x
+// weight and returns its ground roll and total distance (to 50 ft for a takeoff
+// table, from 50 ft for a landing table) with notes on clamped axes. Above the
+// highest value of an axis: ErrNoData, never an extrapolation; below the lowest, the
+// lowest value's figures with a note.
+func (t *Table) lookup(c Conditions) (gr, total float64, notes []string, err error) {
+	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "weight", func(x float64) string { return fmt.Sprintf("%.0f kg", x) })
+	if err != nil {
+		return 0, 0, notes, err
+	}
+	if note != "" {
+		// Say what was done, not that it is conservative: a weight below the table
+		// is as likely a typing slip (100 kg for 1000 kg) as a light aircraft, and
+		// the profile's lowest flyable mass is checked before a model is asked.
+		notes = append(notes, fmt.Sprintf("weight %.0f kg is below the table's lightest block: the %.0f kg figures are used", c.MassKg, t.WeightKg[0]))
+	}
+	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "pressure altitude", func(x float64) string { return fmt.Sprintf("%.0f ft", x/0.3048) })
+	if err != nil {
+		return 0, 0, notes, err
+	}
+	if note != "" {
+		notes = append(notes, note)
+	}
+	ti, tf, note, err := axisPos(t.TempK, c.TempK, "temperature", func(x float64) string { return fmt.Sprintf("%.0f C", x-273.15) })
+	if err != nil {
+		return 0, 0, notes, err
+	}
+	if note != "" {
+		notes = append(notes, note)
+	}
+	return trilinear(t.GroundRollM, wi, wf, pi, pf, ti, tf), trilinear(t.To50ftM, wi, wf, pi, pf, ti, tf), notes, nil
+}
+
+// applyNotes applies the manual's correction notes to a ground roll gr and a total
+// distance total, in the manual's order: wind (per knot, to both distances), then the
+// grass note (a percentage of the corrected ground roll added to both distances). It
+// sets covers.Surface when the figures include the surface (the table is for paved,
+// dry; a grass note covers grass) and appends what it applied to notes. A tailwind
+// the notes do not reach is ErrNoData.
+func (t *Table) applyNotes(c Conditions, gr, total float64, covers *Effects, notes *[]string) (float64, float64, error) {
+	k := t.Corrections
+	factor := 1.0
+	switch {
+	case c.HeadwindMS > 0 && k.HeadwindPerMS > 0:
+		factor = 1 - k.HeadwindPct/100*c.HeadwindMS/k.HeadwindPerMS
+		if factor < 0.5 {
+			// No manual's linear headwind note is meant to halve the distance;
+			// keep the credit bounded (conservative, common practice).
+			factor = 0.5
+			*notes = append(*notes, "headwind credit limited to half the distance")
+		}
+	case c.HeadwindMS < 0:
+		tail := -c.HeadwindMS
+		if k.TailwindPerMS <= 0 {
+			return gr, total, fmt.Errorf("%w: the manual gives no tailwind correction", ErrNoData)
+		}
+		if tail > k.TailwindMaxMS+1e-9 {
+			return gr, total, fmt.Errorf("%w: tailwind %.1f kt beyond the manual's correction (up to %.0f kt)", ErrNoData, tail/knot, k.TailwindMaxMS/knot)
+		}
+		factor = 1 + k.TailwindPct/100*tail/k.TailwindPerMS
+	}
+	gr *= factor
+	total *= factor
+
+	if c.Surface != Paved {
+		pct := k.GrassPctOfGroundRoll
+		if c.Condition == Wet {
+			pct = k.WetGrassPctOfGroundRoll
+		}
+		if c.Surface == Grass && pct > 0 {
+			add := pct / 100 * gr
+			gr += add
+			total += add
+			covers.Surface = true
+			*notes = append(*notes, fmt.Sprintf("manual's %s grass note: +%g %% of ground roll", c.Condition, pct))
+		}
+	} else if c.Condition == Dry {
+		covers.Surface = true // the table is for a paved, dry runway
+	}
+	return gr, total, nil
 }
 
 const knot = 1852.0 / 3600.0

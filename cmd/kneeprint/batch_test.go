@@ -21,7 +21,7 @@ func TestSeasonEndToEnd(t *testing.T) {
 	plan := filepath.Join(dir, "demo-season.yaml")
 	code, out, errOut := runCLI(t, "cards", "--plan", plan)
 	require.Equal(t, exitOK, code, errOut+out)
-	assert.Contains(t, out, "4 card file(s), 20 card page(s) written to "+filepath.Join(dir, "cards"))
+	assert.Contains(t, out, "4 card file(s), 40 card page(s) written to "+filepath.Join(dir, "cards"))
 	assert.Contains(t, errOut, "[4/4] wrote", "plain progress lines when not on a terminal")
 
 	code, out, _ = runCLI(t, "stale", filepath.Join(dir, "cards"))

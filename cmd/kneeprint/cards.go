@@ -63,8 +63,17 @@ A runway end that lists obstacles past its end gets an obstacle line and a climb
 row; a cell whose figure fits but whose climb does not clear an obstacle by the
 template's obstacle_margin (default 50 ft) is no-go, with its own mark.
 
-Card presets (page, unit, axes, margins, policy) are YAML: a5 (default), half-letter,
-5x8, or your own file (copy one from templates/cards/).
+Landing: when the profile has landing data every card has a landing side, printed as
+the next page behind its takeoff side (the landing distance from 50 ft against the
+LDA, same marks and legend; a runway end without an LDA says so). Print the file
+double-sided. With --sheet, each sheet's back page holds the two landing sides
+mirrored: print it double-sided, flipping on the short edge (the sheet turns like a
+book page), and each landing side lands behind its own takeoff side. A template with
+landing: same-page (preset a5-one-page) prints both on one page; landing: none
+leaves the landing out.
+
+Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-letter,
+5x8, a5-one-page, or your own file (copy one from templates/cards/).
 
 ` + caution,
 		Example: `  kneeprint cards --demo -o cards
@@ -79,9 +88,9 @@ Card presets (page, unit, axes, margins, policy) are YAML: a5 (default), half-le
 	f.StringVar(&opts.plan, "plan", "", "a plan file: aircraft, airfields, templates, dates, output folder")
 	f.StringVar(&opts.aircraft, "aircraft", "", "aircraft profile file, or demo:NAME")
 	f.StringVar(&opts.airfield, "airfield", "", "airfield file, or demo:NAME")
-	f.StringVar(&opts.template, "template", templates.DefaultCard, "card preset: a5, half-letter, 5x8, or a card-template file")
+	f.StringVar(&opts.template, "template", templates.DefaultCard, "card preset: a5, half-letter, 5x8, a5-one-page, or a card-template file")
 	f.StringVar(&opts.page, "page", "", "card size a5|half-letter|5x8 (default: the template's)")
-	f.StringVar(&opts.sheet, "sheet", "", "print two cards per a4|letter sheet, with cut marks")
+	f.StringVar(&opts.sheet, "sheet", "", "print two cards per a4|letter sheet, with cut marks (landing sides: print double-sided, flip on the short edge)")
 	f.StringVar(&opts.policy, "policy", "", "safety policy (default: the template's): "+policyList())
 	f.StringVar(&opts.date, "date", "", "card date YYYY-MM-DD (default: today; a plan gives its own)")
 	f.StringVar(&opts.validUntil, "valid-until", "", "valid-until date YYYY-MM-DD (default: date + the template's valid_days)")
@@ -226,6 +235,9 @@ func cardsRun(e env, opts *cardsOptions) error {
 	// less eager collector saves about a tenth of the time (BenchmarkSeason) for a few
 	// tens of megabytes of memory.
 	defer debug.SetGCPercent(debug.SetGCPercent(400))
+	// Two-sided cards hold twice the pages per file in flight: a soft limit makes the
+	// lazy collector work harder only as the heap nears it (BenchmarkSeasonMemory).
+	defer debug.SetMemoryLimit(debug.SetMemoryLimit(batch.SoftMemoryLimit))
 	progress := batch.NewProgress(e.stderr, isTerminal(e.stderr))
 	if opts.plan == "" {
 		progress = batch.NewProgress(e.stdout, false)

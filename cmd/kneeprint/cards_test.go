@@ -21,7 +21,7 @@ func TestCardsDemo(t *testing.T) {
 	for _, e := range entries {
 		assert.True(t, strings.HasSuffix(e.Name(), ".pdf") || e.Name() == "kneeprint-index.jsonl", "no temporary file left: %s", e.Name())
 	}
-	assert.Contains(t, out, "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf (4 page(s))")
+	assert.Contains(t, out, "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf (8 page(s))")
 	assert.Contains(t, out, "no-go")
 }
 
@@ -30,7 +30,7 @@ func TestCardsUserFilesAndOptions(t *testing.T) {
 	code, out, errOut := runCLI(t, "cards", "--aircraft", "demo:quillwing-qt6", "--airfield", "demo:saltpan", "--template", "5x8",
 		"--sheet", "letter", "--date", "2027-03-01", "--valid-until", "2027-10-31", "--policy", "eu-class-b", "-o", dir)
 	require.Equal(t, exitOK, code, errOut)
-	assert.Contains(t, out, "kp-spm_quillwing-qt-6-demo-tourer_5x8_letter-2up.pdf (2 page(s))")
+	assert.Contains(t, out, "kp-spm_quillwing-qt-6-demo-tourer_5x8_letter-2up.pdf (4 page(s))")
 	_, err := os.Stat(filepath.Join(dir, "kp-spm_quillwing-qt-6-demo-tourer_5x8_letter-2up.pdf"))
 	assert.NoError(t, err)
 }
@@ -109,6 +109,20 @@ func TestCardsData(t *testing.T) {
 					State  string   `json:"state"`
 				} `json:"cells"`
 			} `json:"blocks"`
+			Landing *struct {
+				LDA      *float64 `json:"lda"`
+				Approach []struct {
+					KIAS float64 `json:"kias"`
+				} `json:"approach"`
+				Blocks []struct {
+					Weight float64 `json:"weight"`
+					MLM    bool    `json:"mlm"`
+					Cells  []struct {
+						Figure *float64 `json:"figure"`
+						State  string   `json:"state"`
+					} `json:"cells"`
+				} `json:"blocks"`
+			} `json:"landing"`
 		} `json:"pages"`
 	}
 	require.NoError(t, json.Unmarshal(data, &f))
@@ -122,7 +136,19 @@ func TestCardsData(t *testing.T) {
 	}
 	assert.Equal(t, []string{"07", "25", "15 dry", "15 wet", "33 dry", "33 wet"}, pages)
 	assert.Equal(t, 840.0, *f.Pages[0].Declared.TORA)
-	assert.Equal(t, 780.0, *f.Pages[0].Declared.LDA)
+	// The LDA is on the card's landing side (the back), with the landing blocks:
+	// the maximum landing mass (the MTOW of this profile) first.
+	assert.Nil(t, f.Pages[0].Declared.LDA, "the takeoff side prints TORA, TODA and ASDA")
+	for _, p := range f.Pages {
+		require.NotNil(t, p.Landing, "page %s has a landing side", p.Page)
+		require.NotEmpty(t, p.Landing.Blocks)
+		assert.True(t, p.Landing.Blocks[0].MLM)
+		assert.Equal(t, 1000.0, p.Landing.Blocks[0].Weight)
+		assert.Len(t, p.Landing.Blocks[0].Cells, 8*7)
+		assert.Equal(t, 58.0, p.Landing.Approach[0].KIAS, "the profile's approach speed")
+	}
+	assert.Equal(t, 780.0, *f.Pages[0].Landing.LDA)
+	assert.Equal(t, 510.0, *f.Pages[4].Landing.LDA, "33: threshold displaced 50 m")
 	// Without --data, no JSON beside the cards.
 	dir2 := t.TempDir()
 	code, _, _ = runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "-o", dir2)

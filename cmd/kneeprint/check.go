@@ -3,6 +3,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"math"
 
 	"github.com/spf13/cobra"
 
@@ -23,6 +24,10 @@ type checkOptions struct {
 	margin             string
 	obstacleMargin     string
 	json               bool
+	// landing: the landing answer only; takeoff: the takeoff answer only. Neither:
+	// both, when the profile has landing data.
+	landing, takeoff bool
+	landingWeight    string
 }
 
 func newCheckCmd(e env) *cobra.Command {
@@ -55,10 +60,17 @@ must pass each by --obstacle-margin (default 50 ft), or the end is no-go; the ou
 gives the climb gradient and every obstacle's clearance. Exit 0 when computed,
 whatever the verdict.
 
+Landing: when the profile has landing data the answer also gives, for every runway
+end, the landing distance from 50 ft, what the policy requires of the LDA (e.g.
+CAT.POL.A.330: within 70 % of it) and the verdict; --landing gives the landing answer
+only, --takeoff the takeoff answer only. The landing weight is --landing-weight, else
+--weight, else the maximum landing mass.
+
 ` + caution,
 		Example: `  kneeprint check --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --temp 30C --qnh 1003hPa --wind 240/15G25
   kneeprint check --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --metar "METAR ZZZZ 121250Z 25012G22KT 9999 FEW040 24/11 Q1009"
-  kneeprint check --aircraft my-plane.yaml --airfield home.yaml --temp 86F --qnh 29.62inHg --weight 2300lb --surface wet --json`,
+  kneeprint check --aircraft my-plane.yaml --airfield home.yaml --temp 86F --qnh 29.62inHg --weight 2300lb --surface wet --json
+  kneeprint check --aircraft demo:quillwing-qt6 --airfield demo:wrenmoor --temp 25C --qnh 1008hPa --wind 320/08 --landing --landing-weight 1150kg`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error { return checkRun(e, opts) },
 	}
@@ -76,6 +88,9 @@ whatever the verdict.
 	f.StringVar(&opts.margin, "margin", "10%", "spare margin below which a fitting runway is marked tight")
 	f.StringVar(&opts.obstacleMargin, "obstacle-margin", defaultObstacleMargin, "clearance an obstacle past a runway end must be passed by, e.g. 50ft or 15m")
 	f.BoolVar(&opts.json, "json", false, "write JSON (fields documented in the README)")
+	f.BoolVar(&opts.landing, "landing", false, "the landing answer only (the profile needs landing data)")
+	f.BoolVar(&opts.takeoff, "takeoff", false, "the takeoff answer only")
+	f.StringVar(&opts.landingWeight, "landing-weight", "", "landing weight (default: --weight, else the maximum landing mass)")
 	return cmd
 }
 
@@ -111,9 +126,18 @@ func checkRun(e env, opts *checkOptions) error {
 		}
 		return errors.New("--qnh is required, e.g. --qnh 1003hPa or --qnh 29.62inHg (or --metar with a whole report): kneeprint never assumes a pressure")
 	}
+	if opts.landing && opts.takeoff {
+		return errors.New("--landing and --takeoff: choose one, or neither for both")
+	}
 	j, err := loadJob(opts.aircraft, opts.airfield, opts.policy)
 	if err != nil {
 		return err
+	}
+	var lm perf.LandingModel
+	if opts.landing || (!opts.takeoff && j.aircraft.Landing != nil) {
+		if lm, err = perf.LandingModelFor(j.aircraft); err != nil {
+			return dataError{err}
+		}
 	}
 	in := report.CheckInput{Aircraft: j.aircraft, Airfield: j.airfield, Policy: j.policy}
 	q := perf.Question{MassKg: j.aircraft.MTOWKg}
@@ -198,12 +222,47 @@ func checkRun(e env, opts *checkOptions) error {
 	if q.ObstacleMarginM, err = obstacleMarginFlag(opts.obstacleMargin); err != nil {
 		return err
 	}
-	ans, err := perf.Ask(j.aircraft, j.model, j.policy, *j.airfield, q)
-	if err != nil {
-		return err
+	landingQ := q
+	if lm != nil {
+		landingQ.MassKg = j.aircraft.Landing.MaxMassKg
+		if opts.weight != "" {
+			landingQ.MassKg = q.MassKg
+		}
+		if opts.landingWeight != "" {
+			if landingQ.MassKg, err = quantity("landing-weight", opts.landingWeight, units.Mass); err != nil {
+				return err
+			}
+			if err := perf.CheckMass(j.aircraft, landingQ.MassKg); err != nil {
+				return fmt.Errorf("--landing-weight: %w", err)
+			}
+		}
+	}
+	var ans perf.Answer
+	if !opts.landing {
+		if ans, err = perf.Ask(j.aircraft, j.model, j.policy, *j.airfield, q); err != nil {
+			return err
+		}
 	}
 	in.Question = q
 	run := report.BuildCheck(in, ans)
+	if opts.landing {
+		run.Ends = []report.CheckEnd{}
+	}
+	if lm != nil {
+		lans, err := perf.AskLanding(j.aircraft, lm, j.policy, *j.airfield, landingQ)
+		if err != nil {
+			return err
+		}
+		run.Landing = report.BuildLanding(lans)
+		run.LandingModel, run.LandingWeightKg = string(j.aircraft.Landing.Model), math.Round(landingQ.MassKg)
+		if opts.landing {
+			// The atmosphere of the answer, which the takeoff would otherwise give.
+			run.ElevationFt = math.Round(units.Feet(lans.ElevationM))
+			run.PressureAltitudeFt = math.Round(units.Feet(lans.PressureAltM))
+			run.DensityAltitudeFt = math.Round(units.Feet(lans.DensityAltM))
+			run.ISADeviationC = math.Round(lans.ISADevK*10) / 10
+		}
+	}
 	if opts.json {
 		return report.WriteCheckJSON(e.stdout, run)
 	}

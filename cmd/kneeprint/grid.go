@@ -29,6 +29,7 @@ type gridOptions struct {
 	margin             string
 	obstacleMargin     string
 	csv, json          bool
+	landing            bool
 }
 
 func newGridCmd(e env) *cobra.Command {
@@ -44,9 +45,14 @@ components in knots, negative for a tailwind. On a runway end that lists obstacl
 cell whose climb does not pass each by --obstacle-margin (default 50 ft) is no-go
 (marked ^ in the table when it fits the declared distances).
 
+With --landing it gives the landing grid instead: the landing distance from 50 ft,
+factored by the policy, against each end's LDA (an end without an LDA has no
+figure), over the weights from the maximum landing mass down.
+
 ` + caution,
 		Example: `  kneeprint grid --aircraft demo:quillwing-qt6 --airfield demo:saltpan
-  kneeprint grid --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --runway 25 --temps 10C,20C,30C --winds=-5kt,0kt,10kt --csv`,
+  kneeprint grid --aircraft demo:sedgefin-sf2 --airfield demo:wrenmoor --runway 25 --temps 10C,20C,30C --winds=-5kt,0kt,10kt --csv
+  kneeprint grid --aircraft demo:quillwing-qt6 --airfield demo:wrenmoor --landing --json`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error { return gridRun(e, opts) },
 	}
@@ -64,6 +70,7 @@ cell whose climb does not pass each by --obstacle-margin (default 50 ft) is no-g
 	f.StringVar(&opts.obstacleMargin, "obstacle-margin", defaultObstacleMargin, "clearance an obstacle past a runway end must be passed by, e.g. 50ft or 15m")
 	f.BoolVar(&opts.csv, "csv", false, "write CSV, one row per cell")
 	f.BoolVar(&opts.json, "json", false, "write JSON (fields documented in the README)")
+	f.BoolVar(&opts.landing, "landing", false, "the landing grid against the LDA (the profile needs landing data)")
 	return cmd
 }
 
@@ -124,7 +131,16 @@ func gridRun(e env, opts *gridOptions) error {
 	if err != nil {
 		return err
 	}
-	in := report.GridInput{Aircraft: j.aircraft, Airfield: j.airfield, Policy: j.policy}
+	in := report.GridInput{Aircraft: j.aircraft, Airfield: j.airfield, Policy: j.policy, Landing: opts.landing}
+	var lm perf.LandingModel
+	if opts.landing {
+		if lm, err = perf.LandingModelFor(j.aircraft); err != nil {
+			return dataError{err}
+		}
+		if opts.weights == "" {
+			spec.WeightsKg = perf.LandingMasses(j.aircraft, spec.WeightsKg, perf.MaxGridWeights)
+		}
+	}
 	for _, end := range j.airfield.Ends() {
 		if runway != "" && end.Designator != runway {
 			continue
@@ -132,7 +148,12 @@ func gridRun(e env, opts *gridOptions) error {
 		if cond != "" {
 			end.Condition = cond
 		}
-		g, err := perf.ComputeGrid(j.aircraft, j.model, j.policy, *j.airfield, end, spec)
+		var g *perf.Grid
+		if opts.landing {
+			g, err = perf.ComputeLandingGrid(j.aircraft, lm, j.policy, *j.airfield, end, spec)
+		} else {
+			g, err = perf.ComputeGrid(j.aircraft, j.model, j.policy, *j.airfield, end, spec)
+		}
 		if err != nil {
 			return err
 		}

@@ -69,6 +69,12 @@ func TestValidatePrintsFit(t *testing.T) {
 	}
 	rows := regexp.MustCompile(`quillwing-qt6\.yaml:\d+:\d+  calibration\[\d\] .*, (ground roll|to 50 ft) \d+ m, fit \d+ m, [+-]\d+\.\d %`).FindAllString(out, -1)
 	assert.Len(t, rows, 8, out)
+	// Issue 11 item 1: the landing fit is printed the same way, figure by figure.
+	for _, want := range []string{"landing physics calibrated to 4 point(s)", "approach angle", "braking fraction"} {
+		assert.Contains(t, out, want)
+	}
+	rows = regexp.MustCompile(`quillwing-qt6\.yaml:\d+:\d+  landing calibration\[\d\] .*, (ground roll|from 50 ft) \d+ m, fit \d+ m, [+-]\d+\.\d %`).FindAllString(out, -1)
+	assert.Len(t, rows, 8, out)
 }
 
 // tablePhysics is a profile with a table and a physics description; the table was

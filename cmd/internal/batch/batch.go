@@ -457,6 +457,12 @@ func removeLeftovers(dir string) {
 	}
 }
 
+// SoftMemoryLimit is the soft memory limit the cards command sets for a batch
+// (runtime/debug.SetMemoryLimit): the collector, lazy for speed (400 %), works harder
+// only as the heap nears it, so that a season of two-sided cards stays within the
+// 300 MB target of BenchmarkSeasonMemory.
+const SoftMemoryLimit = 224 << 20
+
 // WriteSummary prints what a run did: files and pages written, the runway ends with
 // no-go or beyond-limit cells, and every error. Only files in place are counted.
 func (s *Summary) WriteSummary(w io.Writer) {
@@ -480,7 +486,7 @@ func (s *Summary) WriteSummary(w io.Writer) {
 	fmt.Fprintf(w, "\n%d card file(s), %d card page(s) written to %s in %.1f s\n", files, pages, s.Dir, s.Elapsed.Seconds())
 	if len(flagged) > 0 {
 		sort.Strings(flagged)
-		fmt.Fprintf(w, "runway ends with no-go or beyond-limit cells (%d):\n", len(flagged))
+		fmt.Fprintf(w, "card sides with no-go or beyond-limit cells, or without an LDA (%d):\n", len(flagged))
 		for _, f := range flagged {
 			fmt.Fprintf(w, "  %s\n", f)
 		}
@@ -537,6 +543,9 @@ func (s *Summary) Empty() []string {
 			if e.Empty {
 				out = append(out, fmt.Sprintf("%s runway %s: %s", r.Entry.Name, pageID(e), e.EmptyWhy))
 			}
+			if e.LandingEmpty {
+				out = append(out, fmt.Sprintf("%s runway %s, landing side: %s", r.Entry.Name, pageID(e), e.LandingEmptyWhy))
+			}
 		}
 	}
 	sort.Strings(out)
@@ -549,6 +558,12 @@ func flaggedEnds(r JobResult) []string {
 	for _, e := range r.Ends {
 		if e.Counts[perf.NoGo] > 0 || e.Counts[perf.BeyondLimits] > 0 {
 			out = append(out, fmt.Sprintf("%s runway %s: %d no-go, %d beyond-limits cells", r.Entry.Name, pageID(e), e.Counts[perf.NoGo], e.Counts[perf.BeyondLimits]))
+		}
+		if e.LandingCounts[perf.NoGo] > 0 || e.LandingCounts[perf.BeyondLimits] > 0 {
+			out = append(out, fmt.Sprintf("%s runway %s, landing side: %d no-go, %d beyond-limits cells", r.Entry.Name, pageID(e), e.LandingCounts[perf.NoGo], e.LandingCounts[perf.BeyondLimits]))
+		}
+		if e.NoLDA {
+			out = append(out, fmt.Sprintf("%s runway %s, landing side: no LDA declared, no landing figure", r.Entry.Name, pageID(e)))
 		}
 	}
 	return out

@@ -75,7 +75,7 @@ func TestRunPlanAndIndex(t *testing.T) {
 
 	var sb strings.Builder
 	s.WriteSummary(&sb)
-	assert.Contains(t, sb.String(), "4 card file(s), 20 card page(s) written")
+	assert.Contains(t, sb.String(), "4 card file(s), 40 card page(s) written")
 	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04 dry:")
 	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04 wet:")
 }
@@ -128,6 +128,40 @@ func TestStaleNamesExactlyTheAffectedCards(t *testing.T) {
 		require.Len(t, s.Reasons, 1)
 		assert.Contains(t, s.Reasons[0], "runway end 15 changed in")
 		assert.Contains(t, s.Reasons[0], "TORA 610 m -> 580 m")
+	}
+}
+
+// Issue 11 item 5: editing one runway end's LDA names exactly the cards of that end
+// (their landing side holds the LDA), for every aircraft, and says so.
+func TestStaleLDAChangeNamesThatEndsCards(t *testing.T) {
+	dir := demoDir(t)
+	run(t, dir, demoPlan(dir))
+	out := filepath.Join(dir, "cards")
+	path := filepath.Join(dir, "wrenmoor.yaml")
+	data, _ := os.ReadFile(path)
+	edited := strings.Replace(string(data), "lda: 780 m", "lda: 700 m", 1) // runway 07
+	require.NotEqual(t, string(data), edited)
+	require.NoError(t, os.WriteFile(path, []byte(edited), 0o644))
+	rep, err := Stale(out, nil, "", "test", planDate)
+	require.NoError(t, err)
+	require.Len(t, rep.Stale, 2, "2 aircraft x the card of runway 07")
+	for _, s := range rep.Stale {
+		assert.Equal(t, "07", s.Page)
+		assert.True(t, strings.HasPrefix(s.File, "kp-wrm_"))
+		require.Len(t, s.Reasons, 1)
+		assert.Contains(t, s.Reasons[0], "LDA 780 m -> 700 m (its landing side)")
+	}
+	// The index counts each card's landing cells by state.
+	idx, err := ReadIndex(out)
+	require.NoError(t, err)
+	for _, c := range idx.Cards {
+		for _, e := range c.Ends {
+			total := 0
+			for _, n := range e.LandingStates {
+				total += n
+			}
+			assert.Equal(t, 7*8*2, total, "%s %s: 7 winds x 8 temperatures x 2 landing blocks", c.File, e.Page)
+		}
 	}
 }
 

@@ -94,6 +94,9 @@ type IndexEnd struct {
 	EndHash     string         `json:"end_hash"`
 	End         perf.RunwayEnd `json:"end"`
 	States      map[string]int `json:"states"`
+	// LandingStates counts the cells of the card's landing side by state; absent
+	// when the card has none.
+	LandingStates map[string]int `json:"landing_states,omitempty"`
 }
 
 // aircraftKey hashes what of a profile counts for its cards: all of it but its type
@@ -263,8 +266,15 @@ func entryCard(dir string, e *Entry, r JobResult) IndexCard {
 		for k, v := range s.Counts {
 			st[k.String()] = v
 		}
-		c.Ends = append(c.Ends, IndexEnd{Page: pageID(s), Designator: s.Designator, Fingerprint: s.Fingerprint,
-			EndHash: cards.EndHash(j.Airfield, s.End), End: s.End, States: st})
+		ie := IndexEnd{Page: pageID(s), Designator: s.Designator, Fingerprint: s.Fingerprint,
+			EndHash: cards.EndHash(j.Airfield, s.End), End: s.End, States: st}
+		if s.Landing {
+			ie.LandingStates = map[string]int{}
+			for k, v := range s.LandingCounts {
+				ie.LandingStates[k.String()] = v
+			}
+		}
+		c.Ends = append(c.Ends, ie)
 	}
 	return c
 }

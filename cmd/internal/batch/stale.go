@@ -162,7 +162,11 @@ func Stale(dir string, plan *spec.Plan, planDir, version string, today time.Time
 				case cards.EndHash(cur.airfield, ne) != ie.EndHash:
 					var what []string
 					for _, fc := range changes.EndFields(ie.End, ne) {
-						what = append(what, fmt.Sprintf("%s %s -> %s", fc.Field, fc.Old, fc.New))
+						w := fmt.Sprintf("%s %s -> %s", fc.Field, fc.Old, fc.New)
+						if fc.Field == "LDA" && ie.LandingStates != nil {
+							w += " (its landing side)"
+						}
+						what = append(what, w)
 					}
 					if len(what) == 0 {
 						what = append(what, "airfield name, identifier or elevation, or the runway's other threshold elevation")

@@ -49,9 +49,10 @@ type Job struct {
 	// Data asks Render for the card data as JSON too (Rendered.Data).
 	Data bool
 
-	aircraftHash, templateHash string        // cached by Fingerprint
-	model                      perf.Model    // memoized, made by Card
-	computeTime                time.Duration // spent in perf by Card, read by Render
+	aircraftHash, templateHash string            // cached by Fingerprint
+	model                      perf.Model        // memoized, made by Card
+	landingModel               perf.LandingModel // made by LandingCard
+	computeTime                time.Duration     // spent in perf by Card, read by Render
 }
 
 // HashCache shares the canonical hashes of aircraft and runway ends between the jobs
@@ -99,6 +100,14 @@ type EndSummary struct {
 	// Empty is set when no cell of the page has a figure; EmptyWhy says why.
 	Empty    bool
 	EmptyWhy string
+	// The landing side of the card, when it has one (Job.HasLandingSide): its cells'
+	// states, and the same emptiness (a runway end without an LDA is not empty: its
+	// side says there is no LDA; NoLDA is set).
+	Landing         bool
+	LandingCounts   map[perf.State]int
+	LandingEmpty    bool
+	LandingEmptyWhy string
+	NoLDA           bool
 }
 
 // Result is what a job wrote.
@@ -173,12 +182,16 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 	d.Surface, d.Condition, d.SlopePct = string(e.Surface), string(cond), e.SlopePct
 	d.ConditionPages = len(Conditions(e))
 	for _, dd := range []layout.DeclaredDistance{{Name: "TORA", Value: e.TORAM}, {Name: "TODA", Value: e.TODAM}, {Name: "ASDA", Value: e.ASDAM}, {Name: "LDA", Value: e.LDAM}} {
+		if dd.Name == "LDA" && j.HasLandingSide() {
+			continue // the landing side, behind, holds the LDA
+		}
 		if dd.Value > 0 {
 			dd.Value = rnd.Down(dd.Value)
 			d.Declared = append(d.Declared, dd)
 		}
 	}
 	d.RunwayNotes = e.Notes
+	d.TwoSided = j.HasLandingSide() // the front of a card with a landing side behind it
 	d.AircraftName, d.Flap = a.Name, a.TakeoffFlap
 	d.ModelName = perf.ModelLine(a) // ModelFor refused an uncalibrated physics model above
 	var covers perf.Effects
@@ -550,7 +563,7 @@ func shortHash(s string) string {
 // Release drops what Card memoized for the job (its model and the model's reference
 // figures, tens of kilobytes): a batch calls it once the job's PDF is made, so that
 // memory does not grow with every card file. A later Card makes them again.
-func (j *Job) Release() { j.model = nil }
+func (j *Job) Release() { j.model, j.landingModel = nil, nil }
 
 // Rendered is a job's PDF and what went into it.
 type Rendered struct {
@@ -570,6 +583,7 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 	j.computeTime = 0
 	var cs []*layout.Card
 	var data []layout.CardData
+	landing := map[int]layout.CardData{} // page index in data -> its landing side
 	for _, e := range j.Airfield.Ends() {
 		for _, cond := range Conditions(e) {
 			t0 := time.Now()
@@ -577,6 +591,19 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 			d, g, err := j.Card(e, cond)
 			if err != nil {
 				return nil, fmt.Errorf("airfield %s runway %s: %w", j.Airfield.Ident, id, err)
+			}
+			sum := EndSummary{Designator: e.Designator, Page: id, Condition: string(cond), End: e, Fingerprint: d.Fingerprint,
+				Counts: map[perf.State]int{}, Empty: d.Empty != "", EmptyWhy: d.Empty}
+			if j.landingSamePage() {
+				ld, lg, err := j.LandingCard(e, cond)
+				if err != nil {
+					return nil, fmt.Errorf("airfield %s runway %s, landing: %w", j.Airfield.Ident, id, err)
+				}
+				d.SamePage = &ld
+				sum.recordLanding(ld, lg)
+				if j.Data {
+					landing[len(data)] = ld
+				}
 			}
 			c, err := layout.Build(d, j.Page, fonts)
 			if err != nil {
@@ -591,8 +618,6 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 			}
 			out.Layout += time.Since(t0)
 			cs = append(cs, c)
-			sum := EndSummary{Designator: e.Designator, Page: id, Condition: string(cond), End: e, Fingerprint: d.Fingerprint,
-				Counts: map[perf.State]int{}, Empty: d.Empty != "", EmptyWhy: d.Empty}
 			for _, blk := range g.Cells {
 				for _, row := range blk {
 					for _, c := range row {
@@ -600,15 +625,27 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 					}
 				}
 			}
-			out.Ends = append(out.Ends, sum)
 			if j.Data {
 				data = append(data, d)
 			}
+			if j.HasLandingSide() {
+				t0 := time.Now()
+				ld, lc, err := j.landingPage(e, cond, id, fonts, &sum)
+				if err != nil {
+					return nil, err
+				}
+				out.Layout += time.Since(t0)
+				cs = append(cs, lc)
+				if j.Data {
+					landing[len(data)-1] = ld
+				}
+			}
+			out.Ends = append(out.Ends, sum)
 		}
 	}
 	if j.Data {
 		t0 := time.Now()
-		b, err := CardFileJSON(j, data)
+		b, err := cardFileJSON(j, data, landing)
 		if err != nil {
 			return nil, err
 		}
@@ -619,7 +656,7 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 	out.Layout -= j.computeTime
 	t0 := time.Now()
 	var buf bytes.Buffer
-	opt := layout.RenderOptions{Sheet: j.Sheet, Compress: j.Compress, Date: j.Date,
+	opt := layout.RenderOptions{Sheet: j.Sheet, Compress: j.Compress, Date: j.Date, Duplex: j.HasLandingSide(),
 		Title: fmt.Sprintf("kneeprint cards: %s at %s", j.Aircraft.Name, j.Airfield.Name), Author: "kneeprint " + j.Version,
 		Fonts: fonts}
 	if err := layout.RenderPDF(&buf, cs, opt); err != nil {

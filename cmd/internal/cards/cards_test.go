@@ -149,9 +149,15 @@ func TestPDFValidAndPageCount(t *testing.T) {
 			for _, e := range jj.Airfield.Ends() {
 				ends += len(Conditions(e))
 			}
-			want := ends
+			// A card with a landing side is two pages, front and back; on 2-up sheets
+			// each sheet has a front page and a back page.
+			sides := 1
+			if jj.HasLandingSide() {
+				sides = 2
+			}
+			want := ends * sides
 			if sheet != "" {
-				want = (ends + 1) / 2
+				want = sides * ((ends + 1) / 2)
 			}
 			assert.Equal(t, want, n, jj.FileName())
 			assert.Equal(t, want, pages)

@@ -62,6 +62,8 @@ type DataPage struct {
 	Obstacles        []DataObstacle `json:"obstacles"`
 	ObstacleMarginFt *float64       `json:"obstacle_margin_ft"`
 	Climb            *DataClimb     `json:"climb"`
+	// Landing is the card's landing side (the back), null when it has none.
+	Landing *DataLanding `json:"landing"`
 }
 
 // DataObstacle is one obstacle as printed: height in feet, distances in the card's unit.
@@ -78,6 +80,29 @@ type DataClimb struct {
 	SpeedKIAS    float64    `json:"speed_kias"`
 	Weight       float64    `json:"weight"`
 	GradientsPct []*float64 `json:"gradients_pct"`
+}
+
+// DataLanding is the landing side of a card as printed.
+type DataLanding struct {
+	LDA           *float64       `json:"lda"` // as printed, rounded down; null when not declared
+	NoLDA         bool           `json:"no_lda"`
+	Flap          string         `json:"flap"`
+	Model         string         `json:"model"`
+	Factors       []string       `json:"factors"`
+	Approach      []DataApproach `json:"approach"`
+	PressureAltFt float64        `json:"pressure_altitude_ft"`
+	Temperatures  []float64      `json:"temperatures"`
+	DensityAltFt  []float64      `json:"density_altitudes_ft"`
+	WindsKt       []float64      `json:"winds_kt"`
+	Empty         *string        `json:"empty"`
+	OmittedMass   []float64      `json:"weights_not_on_side"`
+	Blocks        []DataBlock    `json:"blocks"`
+}
+
+// DataApproach is the speed over the threshold a landing block assumes.
+type DataApproach struct {
+	Weight float64 `json:"weight"`
+	KIAS   float64 `json:"kias"`
 }
 
 // Declared are the declared distances as printed (null when not declared).
@@ -113,6 +138,7 @@ type DataXwind struct {
 type DataBlock struct {
 	Weight float64    `json:"weight"`
 	MTOW   bool       `json:"mtow"`
+	MLM    bool       `json:"mlm,omitempty"` // a landing block at the maximum landing mass
 	Cells  []DataCell `json:"cells"`
 }
 
@@ -124,13 +150,19 @@ type DataCell struct {
 	Figure        *float64 `json:"figure"`
 	State         string   `json:"state"`
 	CannotTakeOff bool     `json:"cannot_take_off"`
-	Obstacle      bool     `json:"obstacle"` // a no-go that fits the declared distance but does not clear an obstacle
+	Obstacle      bool     `json:"obstacle"`              // a no-go that fits the declared distance but does not clear an obstacle
+	CannotStop    bool     `json:"cannot_stop,omitempty"` // landing: a no-go without a figure
 }
 
 func num(x float64) *float64 { return &x }
 
 // CardFileJSON is job j's card data, pages as computed, in JSON.
 func CardFileJSON(j *Job, pages []layout.CardData) ([]byte, error) {
+	return cardFileJSON(j, pages, nil)
+}
+
+// cardFileJSON is CardFileJSON with the landing side of page i in landing[i].
+func cardFileJSON(j *Job, pages []layout.CardData, landing map[int]layout.CardData) ([]byte, error) {
 	f := CardFile{Format: DataFormat, Version: j.Version, Aircraft: j.Aircraft.Name, Airfield: j.Airfield.Name,
 		Ident: j.Airfield.Ident, Template: j.Template.Name, Policy: j.Template.Policy,
 		Generated: j.Date.Format("2006-01-02"), ValidUntil: j.ValidUntil.Format("2006-01-02"), Caution: Caution,
@@ -206,6 +238,9 @@ func CardFileJSON(j *Job, pages []layout.CardData) ([]byte, error) {
 			}
 			p.Blocks = append(p.Blocks, db)
 		}
+		if ld, ok := landing[i]; ok {
+			p.Landing = dataLanding(ld)
+		}
 		f.Pages = append(f.Pages, p)
 	}
 	var buf bytes.Buffer
@@ -216,4 +251,36 @@ func CardFileJSON(j *Job, pages []layout.CardData) ([]byte, error) {
 		return nil, err
 	}
 	return buf.Bytes(), nil
+}
+
+// dataLanding is the JSON form of a landing side.
+func dataLanding(d layout.CardData) *DataLanding {
+	l := &DataLanding{NoLDA: d.NoGrid != "", Flap: d.Flap, Model: d.ModelName, Factors: append([]string{}, d.PolicyItems...),
+		Approach: []DataApproach{}, PressureAltFt: d.PressureAltFt, Temperatures: d.Temps, DensityAltFt: d.DensityAltFt,
+		WindsKt: d.WindsKt, OmittedMass: append([]float64{}, d.Omitted...), Blocks: []DataBlock{}}
+	for _, dd := range d.Declared {
+		if dd.Name == "LDA" {
+			l.LDA = num(dd.Value)
+		}
+	}
+	for _, a := range d.Approach {
+		l.Approach = append(l.Approach, DataApproach{Weight: a.Weight, KIAS: a.KIAS})
+	}
+	if d.Empty != "" {
+		l.Empty = &d.Empty
+	}
+	for _, b := range d.Blocks {
+		db := DataBlock{Weight: b.Weight, MLM: b.Tag == "MLM", Cells: []DataCell{}}
+		for wi, row := range b.Cells {
+			for ti, c := range row {
+				dc := DataCell{WindKt: d.WindsKt[wi], Temperature: d.Temps[ti], State: c.State.String(), CannotStop: c.CannotTakeOff}
+				if c.HasDistance {
+					dc.Figure = num(c.Distance)
+				}
+				db.Cells = append(db.Cells, dc)
+			}
+		}
+		l.Blocks = append(l.Blocks, db)
+	}
+	return l
 }

@@ -74,6 +74,7 @@ func quote(s string) string {
 type CellChange struct {
 	Aircraft     string   `json:"aircraft"`
 	Designator   string   `json:"designator"`
+	Side         string   `json:"side"` // "takeoff", or "landing": a cell of the landing grid (against the LDA)
 	WeightKg     float64  `json:"weight_kg"`
 	HeadwindKt   float64  `json:"headwind_kt"`
 	TemperatureC float64  `json:"temperature_c"`
@@ -91,7 +92,11 @@ func (c CellChange) String() string {
 	} else if c.HeadwindKt > 0 {
 		wind = fmt.Sprintf("%.0f kt head", c.HeadwindKt)
 	}
-	s := fmt.Sprintf("runway %s, %s: %.0f °C, %s, %.0f kg: %s -> %s", c.Designator, c.Aircraft, c.TemperatureC, wind, c.WeightKg, c.Old, c.New)
+	where := c.Designator
+	if c.Side == "landing" {
+		where += " landing"
+	}
+	s := fmt.Sprintf("runway %s, %s: %.0f °C, %s, %.0f kg: %s -> %s", where, c.Aircraft, c.TemperatureC, wind, c.WeightKg, c.Old, c.New)
 	if c.NewRequiredM != nil && c.NewAvailable != nil {
 		s += fmt.Sprintf(" (%.0f m required, %.0f m available)", *c.NewRequiredM, *c.NewAvailable)
 	}
@@ -167,23 +172,32 @@ func Diff(aircraft []*perf.Aircraft, old, new *perf.Airfield, t spec.CardTemplat
 			if err != nil {
 				return nil, err
 			}
-			for wi := range og.Cells {
-				for hi := range og.Cells[wi] {
-					for ti := range og.Cells[wi][hi] {
-						oc, nc := og.Cells[wi][hi][ti], ng.Cells[wi][hi][ti]
-						r.CellsCompared++
-						if oc.State == nc.State {
-							continue
-						}
-						r.Cells = append(r.Cells, CellChange{
-							Aircraft: a.Name, Designator: e.Designator, WeightKg: weights[wi],
-							HeadwindKt: math.Round(units.Knots(gs.HeadwindsMS[hi])), TemperatureC: math.Round(units.Celsius(gs.TempsK[ti])),
-							Old: oc.State.String(), New: nc.State.String(),
-							OldRequiredM: required(oc), NewRequiredM: required(nc), NewAvailable: available(nc),
-						})
-					}
-				}
+			r.compare(a, e.Designator, "takeoff", weights, gs, og, ng)
+		}
+		if a.Landing == nil || t.Landing == spec.LandingNone {
+			continue
+		}
+		// The landing grids: an LDA change shows here, and only here.
+		lm, err := perf.LandingModelFor(a)
+		if err != nil {
+			return nil, err
+		}
+		lgs := gs
+		lgs.WeightsKg = perf.LandingMasses(a, weights, 0)
+		for _, e := range old.Ends() {
+			ne, ok := newEnds[e.Designator]
+			if !ok {
+				continue
 			}
+			og, err := perf.ComputeLandingGrid(a, lm, pol, *old, e, lgs)
+			if err != nil {
+				return nil, err
+			}
+			ng, err := perf.ComputeLandingGrid(a, lm, pol, *new, ne, lgs)
+			if err != nil {
+				return nil, err
+			}
+			r.compare(a, e.Designator, "landing", lgs.WeightsKg, lgs, og, ng)
 		}
 	}
 	// Names alone do not matter to a pilot; everything else does.
@@ -195,6 +209,27 @@ func Diff(aircraft []*perf.Aircraft, old, new *perf.Airfield, t spec.CardTemplat
 	}
 	r.Changed = pilotFields > 0 || len(r.Removed) > 0 || len(r.Added) > 0 || len(r.Ends) > 0 || len(r.Cells) > 0
 	return r, nil
+}
+
+// compare adds every cell of grid og whose state differs in ng.
+func (r *Report) compare(a *perf.Aircraft, designator, side string, weights []float64, gs perf.GridSpec, og, ng *perf.Grid) {
+	for wi := range og.Cells {
+		for hi := range og.Cells[wi] {
+			for ti := range og.Cells[wi][hi] {
+				oc, nc := og.Cells[wi][hi][ti], ng.Cells[wi][hi][ti]
+				r.CellsCompared++
+				if oc.State == nc.State {
+					continue
+				}
+				r.Cells = append(r.Cells, CellChange{
+					Aircraft: a.Name, Designator: designator, Side: side, WeightKg: weights[wi],
+					HeadwindKt: math.Round(units.Knots(gs.HeadwindsMS[hi])), TemperatureC: math.Round(units.Celsius(gs.TempsK[ti])),
+					Old: oc.State.String(), New: nc.State.String(),
+					OldRequiredM: required(oc), NewRequiredM: required(nc), NewAvailable: available(nc),
+				})
+			}
+		}
+	}
 }
 
 func required(c perf.Cell) *float64 {

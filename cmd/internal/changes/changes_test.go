@@ -51,11 +51,14 @@ func TestShorterRunwayChangesOnlyThatEnd(t *testing.T) {
 	order := map[string]int{"go": 0, "tight": 1, "no-go": 2, "no-data": 3, "beyond-limits": 4}
 	for _, c := range rep.Cells {
 		assert.Equal(t, "07", c.Designator)
+		assert.Equal(t, "takeoff", c.Side, "a TORA change changes no landing cell: %s", c)
 		assert.Greater(t, order[c.New], order[c.Old], "a shorter runway never improves a cell: %s", c)
 	}
-	// 4 runway ends x 7 winds x 8 temperatures x (3 + 4) weights: the trainer's 3,
-	// the tourer's 4.
-	assert.Equal(t, 4*7*8*7, rep.CellsCompared)
+	// 4 runway ends x 7 winds x 8 temperatures x (3 + 4) takeoff weights (the
+	// trainer's 3, the tourer's 4) and as many landing weights (the trainer from its
+	// MTOW, which is its maximum landing mass, 1000, 900, 800 kg; the tourer from its
+	// maximum landing mass 1200 kg, then 1150, 1050, 950 kg).
+	assert.Equal(t, 4*7*8*(7+7), rep.CellsCompared)
 
 	var buf bytes.Buffer
 	require.NoError(t, rep.WriteJSON(&buf))
@@ -97,4 +100,39 @@ func TestAddedRemovedAndSurface(t *testing.T) {
 	var buf bytes.Buffer
 	require.NoError(t, rep.WriteText(&buf))
 	assert.Contains(t, buf.String(), "runway 25: REMOVED")
+}
+
+// Issue 11 item 5: an LDA change flags exactly that runway end's landing cells, and
+// no takeoff cell; a shorter LDA never improves a cell.
+func TestShorterLDAChangesOnlyThatEndsLanding(t *testing.T) {
+	src, acs, tm := fixtures(t)
+	edited := strings.Replace(src, "lda: 780 m", "lda: 640 m", 1)
+	require.NotEqual(t, src, edited)
+	rep, err := Diff(acs, load(t, src), load(t, edited), tm)
+	require.NoError(t, err)
+	assert.True(t, rep.Changed)
+	require.Len(t, rep.Ends, 1)
+	assert.Equal(t, FieldChange{Designator: "07", Field: "LDA", Old: "780 m", New: "640 m"}, rep.Ends[0])
+	require.NotEmpty(t, rep.Cells)
+	order := map[string]int{"go": 0, "tight": 1, "no-go": 2, "no-data": 3, "beyond-limits": 4}
+	aircraft := map[string]bool{}
+	for _, c := range rep.Cells {
+		assert.Equal(t, "07", c.Designator)
+		assert.Equal(t, "landing", c.Side)
+		assert.Greater(t, order[c.New], order[c.Old], "a shorter LDA never improves a cell: %s", c)
+		assert.Equal(t, 640.0, *c.NewAvailable)
+		aircraft[c.Aircraft] = true
+	}
+	assert.Len(t, aircraft, 2, "both demo aircraft have landing cells that change")
+	var buf bytes.Buffer
+	require.NoError(t, rep.WriteText(&buf))
+	assert.Contains(t, buf.String(), "runway 07: LDA 780 m -> 640 m")
+	assert.Contains(t, buf.String(), "runway 07 landing, ")
+
+	// A template that leaves the landing out compares no landing cell.
+	tm.Landing = spec.LandingNone
+	rep, err = Diff(acs, load(t, src), load(t, edited), tm)
+	require.NoError(t, err)
+	assert.Empty(t, rep.Cells)
+	assert.True(t, rep.Changed, "the LDA itself still changed")
 }

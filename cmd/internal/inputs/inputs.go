@@ -121,7 +121,7 @@ func In(dir, arg string) string {
 	return filepath.Join(dir, arg)
 }
 
-// Template loads a card template: a preset name (a5, half-letter, 5x8) or a file.
+// Template loads a card template: a preset name (a5, half-letter, 5x8, a5-one-page) or a file.
 func Template(arg string) (*spec.CardTemplate, error) {
 	var doc *spec.Document
 	var err error

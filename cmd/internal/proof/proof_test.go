@@ -85,7 +85,7 @@ func TestProofPages(t *testing.T) {
 		in   input
 		want int
 	}{
-		{demoInputs[0], 3}, // summary, table (3 blocks), plots (3 x 2 panels)
+		{demoInputs[0], 5}, // summary, takeoff table (3 blocks) and plots (3 x 2 panels), landing table and plots
 		{demoInputs[1], 2}, // summary, physics
 		{demoInputs[2], 2}, // data and runway 07/25, runway 15/33
 		{demoInputs[3], 1},

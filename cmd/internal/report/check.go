@@ -56,7 +56,12 @@ type CheckRun struct {
 	FromReport         []string   `json:"from_report,omitempty"`
 	FlagsOverReport    []string   `json:"flags_over_report,omitempty"`
 	Ends               []CheckEnd `json:"runway_ends"`
-	Caution            string     `json:"caution"`
+	// The landing answer (check --landing, or by default when the profile has landing
+	// data): the landing model, the landing weight and every runway end, best first.
+	LandingModel    string            `json:"landing_model,omitempty"`
+	LandingWeightKg float64           `json:"landing_weight_kg,omitempty"`
+	Landing         []CheckLandingEnd `json:"landing_runway_ends,omitempty"`
+	Caution         string            `json:"caution"`
 }
 
 // CheckEnd is the JSON form of one runway end's answer.
@@ -198,6 +203,23 @@ func WriteCheckText(w io.Writer, run CheckRun) error {
 		}
 	}
 	b.WriteString("\n")
+	if len(run.Ends) > 0 {
+		if run.Landing != nil {
+			fmt.Fprintf(b, "TAKEOFF (%s model), weight %.0f kg\n", run.Model, run.WeightKg)
+		}
+		writeTakeoffText(b, run)
+	}
+	if run.Landing != nil {
+		writeLandingText(b, run)
+	}
+	fmt.Fprintf(b, "\nhead, cross: the reported steady components, gust: the same from the gust (negative head: tailwind);\n")
+	fmt.Fprintf(b, "a tailwind counts at its gust, a headwind at its steady speed; distances rounded up.\n%s\n", Caution)
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// writeTakeoffText writes the takeoff answer's table.
+func writeTakeoffText(b *strings.Builder, run CheckRun) {
 	fmt.Fprintf(b, "%-4s %-4s %-13s %7s %7s %7s %7s %8s %8s %9s %9s %-5s  %s\n", "rank", "rwy", "surface", "head", "gust", "cross", "gust", "roll m", "50ft m", "required", "available", "limit", "status")
 	for _, e := range run.Ends {
 		dist := func(p *float64) string {
@@ -229,8 +251,4 @@ func WriteCheckText(w io.Writer, run CheckRun) error {
 		}
 		writeObstacles(b, e) // obstacle.go
 	}
-	fmt.Fprintf(b, "\nhead, cross: the reported steady components, gust: the same from the gust (negative head: tailwind);\n")
-	fmt.Fprintf(b, "a tailwind counts at its gust, a headwind at its steady speed; distances rounded up.\n%s\n", Caution)
-	_, err := io.WriteString(w, b.String())
-	return err
 }

@@ -18,22 +18,27 @@ type GridInput struct {
 	Airfield *perf.Airfield
 	Policy   perf.Policy
 	Grids    []*perf.Grid
+	// Landing says the grids are landing grids (grid --landing).
+	Landing bool
 }
 
 // GridRun is the JSON form of the grids of one aircraft at one airfield.
 type GridRun struct {
-	Aircraft           string    `json:"aircraft"`
-	Airfield           string    `json:"airfield"`
-	Ident              string    `json:"ident"`
-	Policy             string    `json:"policy"`
-	Model              string    `json:"model"`
-	ModelLine          string    `json:"model_line"`
-	ElevationFt        float64   `json:"elevation_ft"`
-	QNHhPa             float64   `json:"qnh_hpa"`
-	PressureAltitudeFt float64   `json:"pressure_altitude_ft"`
-	TightMarginPct     float64   `json:"tight_margin_pct"`
-	Ends               []GridEnd `json:"runway_ends"`
-	Caution            string    `json:"caution"`
+	Aircraft           string  `json:"aircraft"`
+	Airfield           string  `json:"airfield"`
+	Ident              string  `json:"ident"`
+	Policy             string  `json:"policy"`
+	Model              string  `json:"model"`
+	ModelLine          string  `json:"model_line"`
+	ElevationFt        float64 `json:"elevation_ft"`
+	QNHhPa             float64 `json:"qnh_hpa"`
+	PressureAltitudeFt float64 `json:"pressure_altitude_ft"`
+	TightMarginPct     float64 `json:"tight_margin_pct"`
+	// Side is "takeoff", or "landing" for grid --landing: then each cell's
+	// distance_50ft_m is the landing distance from 50 ft and available_m the LDA.
+	Side    string    `json:"side"`
+	Ends    []GridEnd `json:"runway_ends"`
+	Caution string    `json:"caution"`
 }
 
 // GridEnd is one runway end's grid.
@@ -46,6 +51,7 @@ type GridEnd struct {
 	TORAM      float64 `json:"tora_m"`
 	TODAM      float64 `json:"toda_m"`
 	ASDAM      float64 `json:"asda_m"`
+	LDAM       float64 `json:"lda_m"` // 0 when the runway end declares none
 	// The elevation this end's pressure altitude is taken at (the highest of the
 	// aerodrome elevation and the runway's thresholds) and that pressure altitude.
 	ElevationUsedFt    float64        `json:"elevation_used_ft"`
@@ -78,7 +84,13 @@ func BuildGrid(in GridInput) GridRun {
 	r := GridRun{
 		Aircraft: in.Aircraft.Name, Airfield: in.Airfield.Name, Ident: in.Airfield.Ident,
 		Policy: in.Policy.ID, Model: string(in.Aircraft.Model), ModelLine: perf.ModelLine(in.Aircraft),
-		ElevationFt: math.Round(units.Feet(in.Airfield.ElevationM)), Caution: Caution,
+		ElevationFt: math.Round(units.Feet(in.Airfield.ElevationM)), Caution: Caution, Side: "takeoff",
+	}
+	if in.Landing {
+		r.Side = "landing"
+		if in.Aircraft.Landing != nil {
+			r.Model, r.ModelLine = string(in.Aircraft.Landing.Model), perf.LandingModelLine(in.Aircraft)
+		}
 	}
 	for _, g := range in.Grids {
 		r.QNHhPa = round1(units.HPa(g.Spec.QNHPa))
@@ -88,7 +100,7 @@ func BuildGrid(in GridInput) GridRun {
 		ge := GridEnd{
 			Designator: g.End.Designator, HeadingDeg: g.End.HeadingDeg, Surface: string(g.End.Surface),
 			Condition: string(g.End.Condition), SlopePct: math.Round(g.End.SlopePct*100) / 100,
-			TORAM: g.End.TORAM, TODAM: g.End.TODAM, ASDAM: g.End.ASDAM,
+			TORAM: g.End.TORAM, TODAM: g.End.TODAM, ASDAM: g.End.ASDAM, LDAM: g.End.LDAM,
 			ElevationUsedFt:    math.Round(units.Feet(g.ElevationM)),
 			PressureAltitudeFt: math.Round(units.Feet(g.PressureAltM)),
 			Obstacles:          gridObstacles(g.End),
@@ -159,14 +171,34 @@ var textMarks = map[perf.State]string{
 // up, marked by its state.
 func WriteGridText(w io.Writer, in GridInput) error {
 	b := &strings.Builder{}
-	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s)\n", in.Aircraft.Name, in.Airfield.Name, in.Airfield.Ident, in.Policy.ID, perf.ModelLine(in.Aircraft))
-	fmt.Fprintf(b, "required distance in m (rounded up).  ~ tight (less than the margin spare)  X no-go  ^ no-go: fits, an obstacle not cleared  ? no data  L beyond limits\n")
+	model := perf.ModelLine(in.Aircraft)
+	if in.Landing {
+		model = perf.LandingModelLine(in.Aircraft)
+	}
+	fmt.Fprintf(b, "%s at %s (%s), policy %s (%s)\n", in.Aircraft.Name, in.Airfield.Name, in.Airfield.Ident, in.Policy.ID, model)
+	if in.Landing {
+		fmt.Fprintf(b, "LANDING: required landing distance in m (from 50 ft, factored, rounded up) against the LDA.  ~ tight (less than the margin spare)  X no-go  ? no data  L beyond limits\n")
+	} else {
+		fmt.Fprintf(b, "required distance in m (rounded up).  ~ tight (less than the margin spare)  X no-go  ^ no-go: fits, an obstacle not cleared  ? no data  L beyond limits\n")
+	}
 	for _, g := range in.Grids {
 		e := g.End
-		fmt.Fprintf(b, "\nrunway %s, %03.0f° M, %s %s, slope %+.1f %%; TORA %.0f TODA %.0f ASDA %.0f m; QNH %.0f hPa assumed at %.0f ft -> PA %.0f ft\n",
-			e.Designator, e.HeadingDeg, e.Surface, e.Condition, e.SlopePct, e.TORAM, e.TODAM, e.ASDAM, units.HPa(g.Spec.QNHPa), units.Feet(g.ElevationM), units.Feet(g.PressureAltM))
-		if c := g.Policy.SlopeCaution(e.SlopePct); c != "" {
-			fmt.Fprintf(b, "  %s\n", c)
+		if in.Landing {
+			lda := "no LDA declared"
+			if e.LDAM > 0 {
+				lda = fmt.Sprintf("LDA %.0f m", math.Floor(e.LDAM))
+			}
+			fmt.Fprintf(b, "\nrunway %s, %03.0f° M, %s %s, slope %+.1f %%; %s; QNH %.0f hPa assumed at %.0f ft -> PA %.0f ft\n",
+				e.Designator, e.HeadingDeg, e.Surface, e.Condition, e.SlopePct, lda, units.HPa(g.Spec.QNHPa), units.Feet(g.ElevationM), units.Feet(g.PressureAltM))
+			for _, c := range g.Policy.Landing().Cautions(e) {
+				fmt.Fprintf(b, "  %s\n", c)
+			}
+		} else {
+			fmt.Fprintf(b, "\nrunway %s, %03.0f° M, %s %s, slope %+.1f %%; TORA %.0f TODA %.0f ASDA %.0f m; QNH %.0f hPa assumed at %.0f ft -> PA %.0f ft\n",
+				e.Designator, e.HeadingDeg, e.Surface, e.Condition, e.SlopePct, e.TORAM, e.TODAM, e.ASDAM, units.HPa(g.Spec.QNHPa), units.Feet(g.ElevationM), units.Feet(g.PressureAltM))
+			if c := g.Policy.SlopeCaution(e.SlopePct); c != "" {
+				fmt.Fprintf(b, "  %s\n", c)
+			}
 		}
 		for _, o := range e.Obstacles {
 			fmt.Fprintf(b, "  obstacle: %s %.0f ft, %.0f m past the end: to be cleared by %.0f ft\n", o.Note, ceilFt(o.HeightM), math.Floor(o.PastEndM+1e-9), ceilFt(perf.ObstacleMargin(g.Spec.ObstacleMarginM)))

@@ -28,6 +28,7 @@ func aircraftSections() []section {
 		{"table", false, tableSchema},
 		{"physics", false, physicsSchema},
 		{"climb", false, climbSchema},
+		{"landing", false, landingSchema},
 	}
 }
 
@@ -77,6 +78,14 @@ func flapsSchema() obj {
 
 // tableSchema is the flight manual's takeoff table.
 func tableSchema() obj {
+	return manualTable("to_50ft", "Total distance to 50 ft",
+		"The manual's takeoff table for a paved, dry, level runway: figures over pressure altitude x temperature x weight.")
+}
+
+// manualTable is a flight manual's distance table: ground roll and the total distance
+// (key total: to 50 ft for takeoff, from 50 ft for landing) over pressure altitude x
+// temperature x weight, with the manual's own notes.
+func manualTable(total, totalDesc, desc string) obj {
 	rows := func(what string) obj {
 		return list(list(obj{"type": "number", "minimum": 1, "description": "A distance in the table's distance_unit, as the manual prints it."},
 			"One row: one figure per temperature, in the order of temperatures.", 1, 0),
@@ -85,9 +94,9 @@ func tableSchema() obj {
 	block := object("One weight's figures.", obj{
 		"weight":      quantity(units.Mass, "The weight of this block"),
 		"ground_roll": rows("Ground roll"),
-		"to_50ft":     rows("Total distance to 50 ft"),
-	}, "weight", "ground_roll", "to_50ft")
-	return object("The manual's takeoff table for a paved, dry, level runway: figures over pressure altitude x temperature x weight.", obj{
+		total:         rows(totalDesc),
+	}, "weight", "ground_roll", total)
+	return object(desc, obj{
 		"wind_factoring_included": boolean("Required, no default: true when the manual's chart or wind notes already credit only part of a headwind and more than all of a tailwind (the manual says so beside the chart); false when its wind notes are for the full reported wind or it has none. false is the conservative answer when in doubt."),
 		"distance_unit":           oneOf("The unit the rows are printed in.", "m", "ft"),
 		"pressure_altitudes":      quantities(units.Length, "The rows: pressure altitudes, strictly increasing (-2000 to 20000 ft)", 1, 0),
@@ -95,6 +104,33 @@ func tableSchema() obj {
 		"weights":                 list(block, "One block per weight of the table.", 1, 0),
 		"corrections":             correctionsSchema(),
 	}, "wind_factoring_included", "distance_unit", "pressure_altitudes", "temperatures", "weights")
+}
+
+// landingSchema is the landing section: the landing flap, approach speed and maximum
+// landing mass, the manual's landing table and/or a physics landing model calibrated
+// to the manual's landing figures.
+func landingSchema() obj {
+	point := calibrationPoint("from_50ft", "The manual's landing distance from 50 ft")
+	physics := object("A physics landing model on the airframe of the profile's physics section, calibrated to the manual's landing figures.", obj{
+		"cd0":              plainNumber("Zero-lift drag coefficient, landing flap and gear (default the takeoff cd0)", 0.01, 0.2),
+		"cl_ground_roll":   plainNumber("Lift coefficient in the landing-roll attitude (default the takeoff cl_ground_run)", 0, 2),
+		"free_roll_time":   quantity(units.Duration, "Time from touchdown to braking (default 1 s; 0 to 5 s)"),
+		"approach_angle":   quantity(units.Angle, "Starting value of the fitted approach angle below the horizontal (2 to 12 deg)"),
+		"braking_fraction": plainNumber("Starting value of the fitted fraction of the surface's braking coefficient", 0.15, 1.0),
+		"calibration":      list(point, "The manual's landing figures the physics is fitted to (at most 50): at least one at the maximum landing mass, paved, dry.", 0, 50),
+	})
+	l := object("The landing: the card's landing side and check's landing answer.", obj{
+		"flap":             text("The landing flap setting, as the manual prints it (the physics needs its clmax in flaps)", true),
+		"approach_speed":   quantity(units.Speed, "The approach speed over the 50 ft screen at the maximum landing mass, IAS (30 to 120 kt)"),
+		"max_landing_mass": quantity(units.Mass, "The maximum landing mass (default the MTOW; not above it)"),
+		"model":            oneOf("Which landing model the cards use; required when the section has both a table and physics.", "table", "physics"),
+		"table": manualTable("from_50ft", "Total distance from 50 ft to a stop",
+			"The manual's landing table for a paved, dry, level runway: figures over pressure altitude x temperature x weight."),
+		"physics": physics,
+	}, "flap")
+	l["anyOf"] = []any{obj{"required": []string{"table"}}, obj{"required": []string{"physics"}}}
+	l["allOf"] = []any{obj{"if": obj{"required": []string{"table", "physics"}}, "then": obj{"required": []string{"model"}}}}
+	return l
 }
 
 func correctionsSchema() obj {
@@ -145,8 +181,9 @@ func climbSchema() obj {
 	return c
 }
 
-// physicsSchema is the physics description and its calibration points.
-func physicsSchema() obj {
+// calibrationPoint is one of the manual's figures a physics model is fitted to: its
+// conditions, the ground roll and/or the total distance (key total).
+func calibrationPoint(total, totalDesc string) obj {
 	point := object("One of the manual's figures the physics is fitted to.", obj{
 		"source":            text("Where the figure comes from", false),
 		"pressure_altitude": quantity(units.Length, "Pressure altitude of the figure"),
@@ -156,9 +193,15 @@ func physicsSchema() obj {
 		"condition":         oneOf("Condition of the figure (default dry).", "dry", "wet"),
 		"headwind":          quantity(units.Speed, "The wind the figure is for, used as written (default 0 kt)"),
 		"ground_roll":       quantity(units.Length, "The manual's ground roll"),
-		"to_50ft":           quantity(units.Length, "The manual's total distance to 50 ft"),
+		total:               quantity(units.Length, totalDesc),
 	}, "pressure_altitude", "temperature", "weight")
-	point["anyOf"] = []any{obj{"required": []string{"ground_roll"}}, obj{"required": []string{"to_50ft"}}}
+	point["anyOf"] = []any{obj{"required": []string{"ground_roll"}}, obj{"required": []string{total}}}
+	return point
+}
+
+// physicsSchema is the physics description and its calibration points.
+func physicsSchema() obj {
+	point := calibrationPoint("to_50ft", "The manual's total distance to 50 ft")
 	return object("A physics description of the aircraft, calibrated to the manual's figures.", obj{
 		"wing_area":     quantity(units.Area, "Wing area (5 to 60 m2)"),
 		"span":          quantity(units.Length, "Wing span (4 to 25 m)"),
@@ -282,6 +325,9 @@ func templateSections() []section {
 			return quantities(units.Angle, "Wind angles off the runway of the crosswind helper (0 to 90 deg, at most 7)", 1, 7)
 		}},
 		{"valid_days", true, func() obj { return wholeNumber("Default validity: the card date plus this many days", 1, 400) }},
+		{"landing", false, func() obj {
+			return oneOf("Where a profile's landing figures go (default back).", "back", "same-page", "none")
+		}},
 		{"obstacle_margin", false, func() obj {
 			return quantity(units.Length, "The height by which the climb must clear an obstacle past the runway end (default 50 ft; 10 to 500 ft)")
 		}},

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strings"
 
 	"gopkg.in/yaml.v3"
 
@@ -183,9 +184,16 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 	case !haveMinT && !haveMaxT:
 		d.notef("limits: no operating temperature limits declared")
 	}
+	landingNode := m.get("landing", false)
+	if landingNode != nil {
+		a.Landing = d.landing(landingNode, a, flaps, mtow, mtowOK)
+	}
 	m.finish()
 	if a.Physics != nil && len(d.errs) == 0 {
 		d.fitPhysics(a, physNode, m.vals["mtow"])
+	}
+	if a.Landing != nil && len(d.errs) == 0 {
+		d.fitLanding(a, landingNode)
 	}
 	return a
 }
@@ -221,8 +229,41 @@ const windFactoringHelp = "required, no default: write true when the manual's ta
 	"correction includes the factors of the certification rules), false when its wind notes are for the full reported wind " +
 	"or it gives none; false is the conservative answer when in doubt"
 
+// tableKind says which flight-manual table is read: the takeoff table (to 50 ft) or
+// the landing table (from 50 ft). Both have the same form.
+type tableKind struct {
+	path      string // "table" or "landing.table"
+	total     string // the key of the total distance: "to_50ft" or "from_50ft"
+	totalText string // how messages name it
+	mass      string // the mass the heaviest block is held against
+}
+
+// rollText is how the proof and the outlier warnings name the kind's ground roll.
+func (k tableKind) rollText() string {
+	if k.path == "table" {
+		return "ground roll"
+	}
+	return "landing ground roll"
+}
+
+var (
+	takeoffTable = tableKind{path: "table", total: "to_50ft", totalText: "distance to 50 ft", mass: "MTOW"}
+	landingTable = tableKind{path: "landing.table", total: "from_50ft", totalText: "distance from 50 ft", mass: "maximum landing mass"}
+)
+
 func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
-	m := d.mapping(n, "table")
+	t, nodes := d.tableOf(n, mtow, takeoffTable)
+	if nodes[0] != nil {
+		d.tableNodes = nodes // for a physics fit to the table
+	}
+	return t
+}
+
+// tableOf reads a flight-manual table of kind k; it also returns the nodes of its
+// cells (nil when the table has errors), for a physics fit to it.
+func (d *decoder) tableOf(n *yaml.Node, mtow float64, k tableKind) (*perf.Table, [2][][][]*yaml.Node) {
+	var cellNodes [2][][][]*yaml.Node
+	m := d.mapping(n, k.path)
 	t := &perf.Table{}
 	if !m.has("wind_factoring_included") && n != nil && n.Kind == yaml.MappingNode {
 		at := n // the table, or the empty value when the key is written without one
@@ -230,7 +271,7 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 			at = v
 		}
 		m.get("wind_factoring_included", false)
-		d.errorf(at, "table.wind_factoring_included", "%s", windFactoringHelp)
+		d.errorf(at, k.path+".wind_factoring_included", "%s", windFactoringHelp)
 	} else if v, ok := m.boolean("wind_factoring_included", true); ok {
 		t.WindInData = v
 	}
@@ -242,13 +283,13 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 	var ok1, ok2, ok3 bool
 	var nodes []*yaml.Node
 	t.PressureAltM, nodes, ok1 = m.quantities("pressure_altitudes", units.Length, true, minTableAltM, maxTableAltM)
-	ok1 = ok1 && d.increasing("table.pressure_altitudes", t.PressureAltM, nodes)
+	ok1 = ok1 && d.increasing(k.path+".pressure_altitudes", t.PressureAltM, nodes)
 	t.TempK, nodes, ok2 = m.quantities("temperatures", units.Temperature, true, minDataTempK, maxDataTempK)
-	ok2 = ok2 && d.increasing("table.temperatures", t.TempK, nodes)
+	ok2 = ok2 && d.increasing(k.path+".temperatures", t.TempK, nodes)
 	blocks := m.list("weights", true)
 	axesOK := ok1 && ok2
 	if axesOK && len(t.PressureAltM)*len(t.TempK)*len(blocks) > maxTableCells {
-		d.errorf(n, "table", "the table has more than %d cells", maxTableCells)
+		d.errorf(n, k.path, "the table has more than %d cells", maxTableCells)
 		axesOK = false
 	}
 	type block struct {
@@ -262,18 +303,18 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 	var bs []block
 	ok3 = true
 	for i, bn := range blocks {
-		path := fmt.Sprintf("table.weights[%d]", i)
+		path := fmt.Sprintf("%s.weights[%d]", k.path, i)
 		bm := d.mapping(bn, path)
 		w, wOK := bm.quantity("weight", units.Mass, true, minMassKg, maxMassKg)
 		var gr, to [][]float64
 		var grN, toN [][]*yaml.Node
 		if axesOK {
 			gr, grN = d.grid(bm, "ground_roll", len(t.PressureAltM), len(t.TempK), factor)
-			to, toN = d.grid(bm, "to_50ft", len(t.PressureAltM), len(t.TempK), factor)
+			to, toN = d.grid(bm, k.total, len(t.PressureAltM), len(t.TempK), factor)
 		} else {
 			// Not read against unknown axes; still name any placeholder in them.
 			d.placeholdersIn(bm.get("ground_roll", false), bm.field("ground_roll"))
-			d.placeholdersIn(bm.get("to_50ft", false), bm.field("to_50ft"))
+			d.placeholdersIn(bm.get(k.total, false), bm.field(k.total))
 		}
 		bm.finish()
 		if !wOK || gr == nil || to == nil {
@@ -289,10 +330,10 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 			quantity, short, key string
 			nodes                func(block) [][]*yaml.Node
 		}{
-			{"ground roll", "roll", "ground_roll", func(b block) [][]*yaml.Node { return b.grNode }},
-			{"distance to 50 ft", "50 ft", "to_50ft", func(b block) [][]*yaml.Node { return b.toNode }},
+			{k.rollText(), "roll", "ground_roll", func(b block) [][]*yaml.Node { return b.grNode }},
+			{k.totalText, "50 ft", k.total, func(b block) [][]*yaml.Node { return b.toNode }},
 		} {
-			tt := &typedtable.Table{File: d.file, Quantity: q.quantity, Short: q.short, Section: "table", Key: q.key, Unit: unit,
+			tt := &typedtable.Table{File: d.file, Quantity: q.quantity, Short: q.short, Section: k.path, Key: q.key, Unit: unit,
 				PressureAltitudes: typedLabels(m.vals["pressure_altitudes"], t.PressureAltM),
 				Temperatures:      typedLabels(m.vals["temperatures"], t.TempK)}
 			for _, b := range bs {
@@ -308,7 +349,7 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 			nodes[0] = append(nodes[0], bs[i].grNode)
 			nodes[1] = append(nodes[1], bs[i].toNode)
 			if i > 0 && !(bs[i].w > bs[i-1].w) {
-				d.errorf(bs[i].node, "table.weights", "weight %.1f kg appears twice", bs[i].w)
+				d.errorf(bs[i].node, k.path+".weights", "weight %.1f kg appears twice", bs[i].w)
 				ok3 = false
 			}
 			t.WeightKg = append(t.WeightKg, bs[i].w)
@@ -316,16 +357,16 @@ func (d *decoder) table(n *yaml.Node, mtow float64) *perf.Table {
 			t.To50ftM = append(t.To50ftM, bs[i].to)
 		}
 		if ok3 {
-			d.monotone(t, nodes)
-			d.tableNodes = nodes // for a physics fit to the table
+			d.monotone(t, nodes, k)
+			cellNodes = nodes
 		}
 		if mtow > 0 && len(t.WeightKg) > 0 && t.WeightKg[len(t.WeightKg)-1] < mtow-1e-9 {
-			d.notef("table: heaviest block %.0f kg is below the MTOW %.0f kg: heavier cells have no data", t.WeightKg[len(t.WeightKg)-1], mtow)
+			d.notef("%s: heaviest block %.0f kg is below the %s %.0f kg: heavier cells have no data", k.path, t.WeightKg[len(t.WeightKg)-1], k.mass, mtow)
 		}
 	}
-	d.corrections(m.get("corrections", false), t)
+	d.corrections(m.get("corrections", false), t, k)
 	m.finish()
-	return t
+	return t, cellNodes
 }
 
 // grid reads rows (one per pressure altitude) of columns (one per temperature) of
@@ -372,15 +413,15 @@ func (d *decoder) grid(m *mapping, key string, rows, cols int, factor float64) (
 // monotone rejects tables whose distances fall with pressure altitude, temperature or
 // weight, or whose distance to 50 ft is below the ground roll: a flight manual never
 // prints that, so it is a typing slip (common practice).
-func (d *decoder) monotone(t *perf.Table, nodes [2][][][]*yaml.Node) {
+func (d *decoder) monotone(t *perf.Table, nodes [2][][][]*yaml.Node, tk tableKind) {
 	nw, np, nt := len(t.WeightKg), len(t.PressureAltM), len(t.TempK)
-	names := [2]string{"ground_roll", "to_50ft"}
+	names := [2]string{"ground_roll", tk.total}
 	for w := 0; w < nw; w++ {
 		for p := 0; p < np; p++ {
 			for k := 0; k < nt; k++ {
 				for gi, g := range [2][][][]float64{t.GroundRollM, t.To50ftM} {
 					v, n := g[w][p][k], nodes[gi][w][p][k]
-					where := fmt.Sprintf("table.weights (%.0f kg).%s[%d][%d]", t.WeightKg[w], names[gi], p, k)
+					where := fmt.Sprintf("%s.weights (%.0f kg).%s[%d][%d]", tk.path, t.WeightKg[w], names[gi], p, k)
 					if k > 0 && v < g[w][p][k-1] {
 						d.errorf(n, where, "distance falls as temperature rises: check the typing")
 					}
@@ -392,48 +433,48 @@ func (d *decoder) monotone(t *perf.Table, nodes [2][][][]*yaml.Node) {
 					}
 				}
 				if t.To50ftM[w][p][k] < t.GroundRollM[w][p][k] {
-					d.errorf(nodes[1][w][p][k], fmt.Sprintf("table.weights (%.0f kg).to_50ft[%d][%d]", t.WeightKg[w], p, k), "distance to 50 ft is shorter than the ground roll")
+					d.errorf(nodes[1][w][p][k], fmt.Sprintf("%s.weights (%.0f kg).%s[%d][%d]", tk.path, t.WeightKg[w], tk.total, p, k), "%s is shorter than the ground roll", tk.totalText)
 				}
 			}
 		}
 	}
 }
 
-func (d *decoder) corrections(n *yaml.Node, t *perf.Table) {
-	m := d.mapping(n, "table.corrections")
+func (d *decoder) corrections(n *yaml.Node, t *perf.Table, k tableKind) {
+	m := d.mapping(n, k.path+".corrections")
 	if n == nil {
-		d.notef("table.corrections not given: no wind or grass notes; tailwind cells have no data")
+		d.notef("%s.corrections not given: no wind or grass notes; tailwind cells have no data", k.path)
 		return
 	}
 	if hn := m.get("headwind", false); hn != nil {
-		hm := d.mapping(hn, "table.corrections.headwind")
+		hm := d.mapping(hn, k.path+".corrections.headwind")
 		t.Corrections.HeadwindPct, _ = hm.quantity("decrease", units.Percent, true, 0, 50)
 		t.Corrections.HeadwindPerMS, _ = hm.quantity("per", units.Speed, true, 0.5*units.MetresPerSecPerKnot, 50*units.MetresPerSecPerKnot)
 		hm.finish()
 	} else {
-		d.notef("table.corrections.headwind not given: no credit for headwind")
+		d.notef("%s.corrections.headwind not given: no credit for headwind", k.path)
 	}
 	if tn := m.get("tailwind", false); tn != nil {
-		tm := d.mapping(tn, "table.corrections.tailwind")
+		tm := d.mapping(tn, k.path+".corrections.tailwind")
 		t.Corrections.TailwindPct, _ = tm.quantity("increase", units.Percent, true, 0, 100)
 		t.Corrections.TailwindPerMS, _ = tm.quantity("per", units.Speed, true, 0.5*units.MetresPerSecPerKnot, 50*units.MetresPerSecPerKnot)
 		t.Corrections.TailwindMaxMS, _ = tm.quantity("up_to", units.Speed, true, 0, 30*units.MetresPerSecPerKnot)
 		tm.finish()
 	} else {
-		d.notef("table.corrections.tailwind not given: tailwind cells have no data")
+		d.notef("%s.corrections.tailwind not given: tailwind cells have no data", k.path)
 	}
-	t.Corrections.GrassPctOfGroundRoll = d.groundRollNote(m, "grass", 200)
-	t.Corrections.WetGrassPctOfGroundRoll = d.groundRollNote(m, "wet_grass", 300)
+	t.Corrections.GrassPctOfGroundRoll = d.groundRollNote(m, "grass", 200, k)
+	t.Corrections.WetGrassPctOfGroundRoll = d.groundRollNote(m, "wet_grass", 300, k)
 	m.finish()
 }
 
 // groundRollNote reads a note "add x % of the ground roll" under key; 0 when absent.
-func (d *decoder) groundRollNote(m *mapping, key string, maxPct float64) float64 {
+func (d *decoder) groundRollNote(m *mapping, key string, maxPct float64, k tableKind) float64 {
 	n := m.get(key, false)
 	if n == nil {
 		return 0
 	}
-	gm := d.mapping(n, "table.corrections."+key)
+	gm := d.mapping(n, k.path+".corrections."+key)
 	pct, _ := gm.quantity("add_of_ground_roll", units.Percent, true, 0, maxPct)
 	gm.finish()
 	return pct
@@ -524,16 +565,27 @@ type calibPoint struct {
 // calibration reads physics.calibration: the flight manual's figures the physics is
 // fitted to.
 func (d *decoder) calibration(m *mapping) {
+	d.calib = append(d.calib, d.calibrationPoints(m, "physics", takeoffTable)...)
+}
+
+// calibrationPoints reads the calibration list of the section m (at path) for a
+// table of kind k: each point's conditions and the manual's ground roll and total
+// distance (k.total).
+func (d *decoder) calibrationPoints(m *mapping, path string, k tableKind) []calibPoint {
+	var out []calibPoint
 	items := m.list("calibration", false)
 	if len(items) > maxExplicitPoints {
-		d.errorf(m.vals["calibration"], "physics.calibration", "%d points, at most %d: a few well-chosen manual figures are enough (a whole table goes under table:)", len(items), maxExplicitPoints)
-		return
+		d.errorf(m.vals["calibration"], path+".calibration", "%d points, at most %d: a few well-chosen manual figures are enough (a whole table goes under %s:)", len(items), maxExplicitPoints, k.path)
+		return nil
 	}
 	for i, it := range items {
-		path := fmt.Sprintf("physics.calibration[%d]", i)
+		path := fmt.Sprintf("%s.calibration[%d]", path, i)
 		pm := d.mapping(it, path)
 		var cp calibPoint
 		cp.label = fmt.Sprintf("calibration[%d]", i)
+		if k == landingTable {
+			cp.label = "landing " + cp.label
+		}
 		c := &cp.p.Conditions
 		okPA, okT, okW := false, false, false
 		c.PressureAltM, okPA = pm.quantity("pressure_altitude", units.Length, true, minTableAltM, maxTableAltM)
@@ -554,12 +606,12 @@ func (d *decoder) calibration(m *mapping) {
 		c.HeadwindMS, _ = pm.quantity("headwind", units.Speed, false, -30*units.MetresPerSecPerKnot, 30*units.MetresPerSecPerKnot)
 		pm.str("source", false)
 		gr, okGR := pm.quantity("ground_roll", units.Length, false, 1, maxDistanceM)
-		to, okTo := pm.quantity("to_50ft", units.Length, false, 1, maxDistanceM)
-		if !pm.has("ground_roll") && !pm.has("to_50ft") && it.Kind == yaml.MappingNode {
-			d.errorf(it, path, "a calibration point needs the manual's ground_roll, to_50ft or both")
+		to, okTo := pm.quantity(k.total, units.Length, false, 1, maxDistanceM)
+		if !pm.has("ground_roll") && !pm.has(k.total) && it.Kind == yaml.MappingNode {
+			d.errorf(it, path, "a calibration point needs the manual's ground_roll, %s or both", k.total)
 		}
 		if okGR && okTo && to <= gr {
-			d.errorf(pm.vals["to_50ft"], path+".to_50ft", "distance to 50 ft is not longer than the ground roll")
+			d.errorf(pm.vals[k.total], path+"."+k.total, "%s is not longer than the ground roll", k.totalText)
 		}
 		pm.finish()
 		if !(okPA && okT && okW) || (!okGR && !okTo) {
@@ -569,10 +621,11 @@ func (d *decoder) calibration(m *mapping) {
 			cp.p.GroundRollM, cp.grAt, cp.grFld = gr, pm.vals["ground_roll"], path+".ground_roll"
 		}
 		if okTo {
-			cp.p.To50ftM, cp.toAt, cp.toFld = to, pm.vals["to_50ft"], path+".to_50ft"
+			cp.p.To50ftM, cp.toAt, cp.toFld = to, pm.vals[k.total], path+"."+k.total
 		}
-		d.calib = append(d.calib, cp)
+		out = append(out, cp)
 	}
+	return out
 }
 
 // fitPhysics fits a's physics to its calibration points and, when it has both, to
@@ -582,23 +635,7 @@ func (d *decoder) calibration(m *mapping) {
 func (d *decoder) fitPhysics(a *perf.Aircraft, physNode *yaml.Node, mtowNode *yaml.Node) {
 	p := a.Physics
 	if a.Table != nil && d.tableNodes[0] != nil {
-		t := a.Table
-		for wi, w := range t.WeightKg {
-			for pi, pa := range t.PressureAltM {
-				for ti, tk := range t.TempK {
-					var cp calibPoint
-					cp.p = perf.CalibrationPoint{
-						Conditions:  perf.Conditions{PressureAltM: pa, TempK: tk, MassKg: w, Surface: perf.Paved, Condition: perf.Dry},
-						GroundRollM: t.GroundRollM[wi][pi][ti], To50ftM: t.To50ftM[wi][pi][ti], FromTable: true,
-					}
-					cp.label = fmt.Sprintf("table %.0f kg, %.0f ft, %.0f C", w, units.Feet(pa), units.Celsius(tk))
-					where := fmt.Sprintf("table.weights (%.0f kg).%%s[%d][%d]", w, pi, ti)
-					cp.grAt, cp.grFld = d.tableNodes[0][wi][pi][ti], fmt.Sprintf(where, "ground_roll")
-					cp.toAt, cp.toFld = d.tableNodes[1][wi][pi][ti], fmt.Sprintf(where, "to_50ft")
-					d.calib = append(d.calib, cp)
-				}
-			}
-		}
+		d.calib = append(d.calib, tablePoints(a.Table, d.tableNodes, takeoffTable)...)
 	}
 	if len(d.calib) == 0 {
 		d.warnf(physNode, "physics.calibration", "not calibrated: cards, check and grid refuse this profile until it lists the flight manual's figures (at least sea level, MTOW, paved dry) under physics.calibration")
@@ -628,17 +665,50 @@ func (d *decoder) fitPhysics(a *perf.Aircraft, physNode *yaml.Node, mtowNode *ya
 		d.warnf(mtowNode, "physics.calibration", "no point is at MTOW on a paved, dry runway: cards, check and grid refuse this profile until the manual's figure there is added")
 	}
 	cal, err := perf.Calibrate(perf.PhysicsModel{P: *p, RotateIASMS: a.RotateIASMS, At50ftIASMS: a.At50ftIASMS}, pts)
+	if d.fitErrors(err, d.calib, physNode, "physics.propeller", "physics", takeoffTable) {
+		return
+	}
+	p.StaticThrustFac, p.PropEfficiency, p.Calibration = cal.Static, cal.Eta, cal
+}
+
+// tablePoints makes every cell of table t (kind k) a calibration point, paved, dry,
+// calm, with the nodes its figures were read from.
+func tablePoints(t *perf.Table, nodes [2][][][]*yaml.Node, k tableKind) []calibPoint {
+	var out []calibPoint
+	for wi, w := range t.WeightKg {
+		for pi, pa := range t.PressureAltM {
+			for ti, tk := range t.TempK {
+				var cp calibPoint
+				cp.p = perf.CalibrationPoint{
+					Conditions:  perf.Conditions{PressureAltM: pa, TempK: tk, MassKg: w, Surface: perf.Paved, Condition: perf.Dry},
+					GroundRollM: t.GroundRollM[wi][pi][ti], To50ftM: t.To50ftM[wi][pi][ti], FromTable: true,
+				}
+				cp.label = fmt.Sprintf("%s %.0f kg, %.0f ft, %.0f C", strings.ReplaceAll(k.path, ".", " "), w, units.Feet(pa), units.Celsius(tk))
+				where := fmt.Sprintf("%s.weights (%.0f kg).%%s[%d][%d]", k.path, w, pi, ti)
+				cp.grAt, cp.grFld = nodes[0][wi][pi][ti], fmt.Sprintf(where, "ground_roll")
+				cp.toAt, cp.toFld = nodes[1][wi][pi][ti], fmt.Sprintf(where, k.total)
+				out = append(out, cp)
+			}
+		}
+	}
+	return out
+}
+
+// fitErrors reports a refused fit (a *perf.FitError) at the figures too far off,
+// named by pts, and at section node (field) for a parameter on its bound; any other
+// error at the section (sectionField). It reports whether err was not nil.
+func (d *decoder) fitErrors(err error, pts []calibPoint, section *yaml.Node, boundField, sectionField string, k tableKind) bool {
 	var fe *perf.FitError
 	switch {
 	case errors.As(err, &fe):
 		for _, pr := range fe.Problems {
 			if pr.Point < 0 {
-				d.errorf(physNode, "physics.propeller", "%s", pr.Msg)
+				d.errorf(section, boundField, "%s", pr.Msg)
 				continue
 			}
-			cp := d.calib[pr.Point]
+			cp := pts[pr.Point]
 			at, fld := cp.grAt, cp.grFld
-			if pr.Figure == "to_50ft" || at == nil {
+			if pr.Figure == k.total || at == nil {
 				at, fld = cp.toAt, cp.toFld
 			}
 			msg := pr.Msg
@@ -647,12 +717,12 @@ func (d *decoder) fitPhysics(a *perf.Aircraft, physNode *yaml.Node, mtowNode *ya
 			}
 			d.errorf(at, fld, "%s", msg)
 		}
-		return
+		return true
 	case err != nil:
-		d.errorf(physNode, "physics", "%v", err)
-		return
+		d.errorf(section, sectionField, "%v", err)
+		return true
 	}
-	p.StaticThrustFac, p.PropEfficiency, p.Calibration = cal.Static, cal.Eta, cal
+	return false
 }
 
 // speedsForPhysics checks the speeds the physics model flies: both given, the 50 ft

@@ -38,6 +38,9 @@ type decoder struct {
 	// typed holds an aircraft's tables as typed (typedtable), for the proof sheet
 	// and the outlier check.
 	typed []*typedtable.Table
+	// The same for the landing section (landing.go).
+	landingCalib      []calibPoint
+	landingTableNodes [2][][][]*yaml.Node
 }
 
 // result returns the errors, with a last line counting those not listed.

@@ -42,6 +42,8 @@ type Document struct {
 	Scalars map[string]Scalar
 
 	calib []calibPoint // an aircraft's calibration points as read, for the residual table
+	// landingCalib is the same for its landing fit.
+	landingCalib []calibPoint
 }
 
 // Parse reads one kneeprint file's bytes. name is used in messages. The error, when
@@ -84,6 +86,7 @@ func Parse(name string, data []byte) (*Document, error) {
 	doc.Defaults, doc.Warnings = d.notes, d.warns
 	doc.calib = d.calib
 	doc.Tables = d.typed
+	doc.landingCalib = d.landingCalib
 	if err := d.result().Err(); err != nil {
 		return doc, err
 	}

@@ -15,7 +15,7 @@ import (
 // (layout.Printable), so that a name a card cannot show is refused by validate with
 // its line, not by cards later. "[]" walks every item of a list.
 var PrintedFields = map[Kind][]string{
-	KindAircraft: {"name", "takeoff_flap"},
+	KindAircraft: {"name", "takeoff_flap", "landing.flap"},
 	KindAirfield: {"name", "ident", "runways[].ends[].designator", "runways[].ends[].notes", "runways[].ends[].obstacles[].note"},
 }
 

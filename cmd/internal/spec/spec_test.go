@@ -122,6 +122,16 @@ func TestBadFiles(t *testing.T) {
 			"ac-climb-shape.yaml:27:15: climb.weights[0].weight: 1100 kg is above the MTOW",
 			"ac-climb-shape.yaml:30:11: climb.weights[0].rate_of_climb[1]: row has 1 values, the table has 2 temperatures (ragged table)",
 		}},
+		// Issue 11: the landing section.
+		{"ac-landing-mlm-above-mtow.yaml", []string{"ac-landing-mlm-above-mtow.yaml:24:21: landing.max_landing_mass: 1100 kg is above the MTOW 1000 kg"}},
+		{"ac-landing-from50-short.yaml", []string{
+			"ac-landing-from50-short.yaml:35:19: landing.table.weights (1000 kg).from_50ft[0][1]: distance falls as temperature rises",
+			"ac-landing-from50-short.yaml:35:19: landing.table.weights (1000 kg).from_50ft[0][1]: distance from 50 ft is shorter than the ground roll",
+		}},
+		{"ac-landing-no-model.yaml", []string{
+			"ac-landing-no-model.yaml:24:19: landing.approach_speed: 300 kt is outside the accepted range 30 to 120 kt",
+			"ac-landing-no-model.yaml:23:3: landing.table: a landing section needs a landing model",
+		}},
 		{"empty.yaml", []string{"empty.yaml: file is empty"}},
 		{"syntax.yaml", []string{"syntax.yaml:1:1: not valid YAML: did not find expected ',' or ']'"}},
 		{"not-mapping.yaml", []string{`not-mapping.yaml:1:1: expected a mapping of key: value lines, found "just a string"`}},

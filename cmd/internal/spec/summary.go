@@ -33,6 +33,7 @@ func Summarize(w io.Writer, doc *Document) int {
 		}
 		summarizeFit(w, doc)
 		summarizeClimb(w, doc.Aircraft) // climb.go
+		summarizeLanding(w, doc)
 	case doc.Template != nil:
 		summarizeTemplate(w, doc.Template)
 	case doc.Plan != nil:
@@ -197,6 +198,7 @@ func summarizeTemplate(w io.Writer, t *CardTemplate) {
 	fmt.Fprintf(w, "  card template %q: page %s, unit %s, policy %s, QNH %.0f hPa, tight margin %.0f %%\n",
 		t.Name, t.Page, t.Unit, t.Policy, units.HPa(t.QNHPa), t.TightMargin*100)
 	fmt.Fprintf(w, "  %d temperatures x %d winds, up to %d weight blocks; valid %d days; obstacles cleared by %.0f ft\n", len(t.TempsK), len(t.WindsMS), t.MaxBlocks, t.ValidDays, units.Feet(t.ObstacleMarginM))
+	fmt.Fprintf(w, "  landing figures (for a profile with landing data): %s\n", t.Landing)
 }
 
 func summarizePlan(w io.Writer, p *Plan) {

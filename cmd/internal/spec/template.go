@@ -29,6 +29,10 @@ type CardTemplate struct {
 	// ObstacleMarginM is the clearance a runway end's obstacles must be passed by
 	// (perf.DefaultObstacleMarginM, 50 ft, when the template does not say).
 	ObstacleMarginM float64
+	// Landing says where a profile's landing figures go: LandingBack (a landing side
+	// behind each takeoff side, the default), LandingSamePage (both on one page) or
+	// LandingNone.
+	Landing string `json:",omitempty"`
 }
 
 // Obstacle margins a template (and check's --obstacle-margin) accepts: below 10 ft a margin is smaller than the
@@ -37,6 +41,13 @@ type CardTemplate struct {
 const (
 	MinObstacleMarginM = 10 * units.MetresPerFoot
 	MaxObstacleMarginM = 500 * units.MetresPerFoot
+)
+
+// Where a card template puts the landing figures.
+const (
+	LandingBack     = "back"
+	LandingSamePage = "same-page"
+	LandingNone     = "none"
 )
 
 // Grid-size limits: a card cannot hold more, and larger requests are mistakes.
@@ -91,6 +102,11 @@ func (d *decoder) cardTemplate(m *mapping) *CardTemplate {
 		// prints the runway midpoint and 70 % of the rotation speed, and the expected
 		// 70 % point at each block's hottest go column.
 		d.warnf(v, "accelerate_check_temperature", "no longer used (the accelerate check follows the grid): delete this line")
+	}
+	t.Landing = m.oneOf("landing", false, LandingBack, LandingSamePage, LandingNone)
+	if t.Landing == "" && !m.has("landing") {
+		t.Landing = LandingBack
+		d.notef("landing not given: a profile's landing figures go on a landing side behind each takeoff side")
 	}
 	t.CrosswindSpeedsMS, _, _ = m.quantities("crosswind_speeds", units.Speed, true, 1*units.MetresPerSecPerKnot, 60*units.MetresPerSecPerKnot)
 	t.CrosswindAnglesDeg, _, _ = m.quantities("crosswind_angles", units.Angle, true, 0, 90)

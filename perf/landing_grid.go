@@ -1,0 +1,225 @@
+package perf
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+)
+
+// LandingCase is one landing question: this aircraft, this runway end, these
+// conditions.
+type LandingCase struct {
+	Aircraft     *Aircraft
+	Model        LandingModel
+	Policy       Policy // its landing half is applied (Policy.Landing)
+	End          RunwayEnd
+	PressureAltM float64
+	TempK        float64
+	MassKg       float64
+	Wind         Components // reported components, before any factoring
+	TightMargin  float64
+	Rounding     Rounding
+}
+
+// EvaluateLanding answers one landing case with the states, marks and rounding of
+// the takeoff cells (Evaluate): a Cell whose To50ftM is the landing distance from
+// 50 ft, GroundRollM the ground roll from touchdown, RequiredM the factored landing
+// distance times the rule's factor and AvailableM the LDA (Limiting "LDA").
+//
+//   - beyond limits: mass above the maximum landing mass, tailwind past its limit,
+//     crosswind past a declared max_crosswind, temperature past a declared limit;
+//   - no data: the runway end declares no LDA, or the model holds no answer;
+//   - no-go without a figure (CannotTakeOff): braking does not stop the aircraft;
+//   - no-go, tight, go: from the figures as printed.
+//
+// The wind is credited as for takeoff (CAT.POL.A.330(c)(2): not more than 50 % of a
+// headwind, not less than 150 % of a tailwind, unless the data already do); on a wet
+// unpaved runway the requirement is never below the dry one.
+func EvaluateLanding(k LandingCase) Cell {
+	a := k.Aircraft
+	c := Cell{TempK: k.TempK, HeadwindMS: k.Wind.HeadwindMS, CrosswindMS: math.Abs(k.Wind.GustCrosswindMS), MassKg: k.MassKg}
+	mlm := a.MTOWKg
+	if a.Landing != nil && a.Landing.MaxMassKg > 0 {
+		mlm = a.Landing.MaxMassKg
+	}
+	if k.MassKg > mlm+1e-9 {
+		c.worsen(BeyondLimits, reason{s: fmt.Sprintf("weight %.0f kg above the maximum landing mass %.0f kg", k.MassKg, mlm)})
+	}
+	along := k.Wind.ForDistanceMS()
+	if tail := -along; tail > a.MaxTailwindMS+1e-9 {
+		c.worsen(BeyondLimits, reason{kind: reasonTailwind, a: tail, b: a.MaxTailwindMS})
+	}
+	switch {
+	case a.HasMaxCrosswind && c.CrosswindMS > a.MaxCrosswindMS+1e-9:
+		c.worsen(BeyondLimits, reason{kind: reasonCrosswind, a: c.CrosswindMS, b: a.MaxCrosswindMS})
+	case a.DemonstratedCrosswindMS > 0 && c.CrosswindMS > a.DemonstratedCrosswindMS+1e-9:
+		c.reasons = append(c.reasons, reason{kind: reasonDemonstrated, a: c.CrosswindMS, b: a.DemonstratedCrosswindMS})
+	}
+	if (a.MaxTempK > 0 && k.TempK > a.MaxTempK+1e-9) || (a.MinTempK > 0 && k.TempK < a.MinTempK-1e-9) {
+		c.worsen(BeyondLimits, reason{kind: reasonTemperature, a: k.TempK, b: a.MinTempK, c: a.MaxTempK})
+	}
+	if !(k.End.LDAM > 0) {
+		c.worsen(NoData, reason{s: fmt.Sprintf("no LDA declared for runway end %s: no landing figure", k.End.Designator)})
+		return c
+	}
+	lp := k.Policy.Landing()
+	c.CreditedWindMS = CreditedWindMS(along, LandingWindFactoringIncluded(k.Model))
+	cond := Conditions{
+		PressureAltM: k.PressureAltM, TempK: k.TempK, MassKg: k.MassKg,
+		HeadwindMS: c.CreditedWindMS, SlopePct: k.End.SlopePct,
+		Surface: k.End.Surface, Condition: k.End.Condition,
+	}
+	actual, req, err := land(k.Model, lp, k.End, cond)
+	if err == nil && cond.Surface != Paved && cond.Condition == Wet {
+		dryCond, dryEnd := cond, k.End
+		dryCond.Condition, dryEnd.Condition = Dry, Dry
+		if _, dry, derr := land(k.Model, lp, dryEnd, dryCond); derr == nil && dry.FactoredTODM > req.FactoredTODM {
+			dry.Caution = req.Caution // the wet runway's cautions stand
+			req = dry
+			c.reasons = append(c.reasons, reason{s: "wet figure raised to the dry one: wet is never shorter than dry"})
+		}
+	}
+	if err != nil {
+		switch {
+		case errors.Is(err, ErrCannotStop):
+			c.CannotTakeOff = true
+			c.worsen(NoGo, reason{s: err.Error()})
+		default:
+			c.worsen(NoData, reason{s: err.Error()})
+		}
+		return c
+	}
+	c.GroundRollM, c.To50ftM = actual.GroundRollM, actual.From50ftM
+	c.Covers = actual.Covers
+	for _, n := range actual.Notes {
+		c.reasons = append(c.reasons, reason{s: n})
+	}
+	c.Requirement = req
+	c.RequiredM, c.AvailableM, c.Limiting = req.Limiting.RequiredM, req.Limiting.AvailableM, req.Limiting.Declared
+	c.HasDistance = true
+	c.ShownRequired, c.ShownAvailable, c.ShownUnit = k.Rounding.Up(c.RequiredM), k.Rounding.Down(c.AvailableM), k.Rounding.UnitName()
+	r := reason{s: c.Limiting, a: c.ShownRequired, b: c.ShownAvailable, c: k.TightMargin, unit: c.ShownUnit}
+	switch {
+	case c.ShownRequired > c.ShownAvailable:
+		r.kind = reasonNoGo
+		c.worsen(NoGo, r)
+	case c.ShownRequired*(1+k.TightMargin) > c.ShownAvailable+1e-9:
+		r.kind = reasonTight
+		c.worsen(Tight, r)
+	}
+	return c
+}
+
+// land asks the landing model for cond (and, when the model covers surface or slope,
+// for the paved, dry, level reference) and applies the landing policy. A model's
+// contract is a positive, finite distance: any other answer is no data.
+func land(m LandingModel, lp LandingPolicy, e RunwayEnd, cond Conditions) (LandingResult, Requirement, error) {
+	actual, err := m.Land(cond)
+	if err != nil {
+		return actual, Requirement{}, err
+	}
+	ref := actual
+	if (actual.Covers.Surface || actual.Covers.Slope) && !isReference(cond) {
+		refCond := cond
+		refCond.Surface, refCond.Condition, refCond.SlopePct = Paved, Dry, 0
+		if ref, err = m.Land(refCond); err != nil {
+			return actual, Requirement{}, err
+		}
+	}
+	if !(landingUsable(actual) && landingUsable(ref)) {
+		return actual, Requirement{}, fmt.Errorf("%w: the landing model gave no usable distance (%.1f m, %.1f m)", ErrNoData, actual.GroundRollM, actual.From50ftM)
+	}
+	return actual, lp.Require(actual, ref, e), nil
+}
+
+// ComputeLandingGrid evaluates every landing cell of spec for runway end e of
+// airfield f (EvaluateLanding), at the pressure altitude of the assumed QNH at the
+// highest of the aerodrome elevation and the runway's thresholds, as the takeoff grid
+// does. The grid's Landing is set.
+func ComputeLandingGrid(a *Aircraft, m LandingModel, p Policy, f Airfield, e RunwayEnd, spec GridSpec) (*Grid, error) {
+	if len(spec.TempsK) == 0 || len(spec.HeadwindsMS) == 0 || len(spec.WeightsKg) == 0 {
+		return nil, errors.New("grid: every axis needs at least one value")
+	}
+	if len(spec.TempsK) > MaxGridTemps || len(spec.HeadwindsMS) > MaxGridWinds || len(spec.WeightsKg) > MaxGridWeights {
+		return nil, fmt.Errorf("grid: at most %d temperatures, %d winds and %d weights", MaxGridTemps, MaxGridWinds, MaxGridWeights)
+	}
+	if !(spec.QNHPa >= MinQNHPa && spec.QNHPa <= MaxQNHPa) {
+		return nil, fmt.Errorf("grid: QNH %.1f hPa outside 800 to 1100 hPa", spec.QNHPa/100)
+	}
+	if err := spec.Rounding.Validate(); err != nil {
+		return nil, fmt.Errorf("grid: %w", err)
+	}
+	for _, w := range spec.WeightsKg {
+		if err := CheckMass(a, w); err != nil {
+			return nil, fmt.Errorf("grid: %w", err)
+		}
+	}
+	for _, t := range spec.TempsK {
+		if err := CheckTemp(t); err != nil {
+			return nil, fmt.Errorf("grid: %w", err)
+		}
+	}
+	g := &Grid{Spec: spec, End: e, ElevationM: TakeoffElevationM(f, e), Policy: p, Landing: true}
+	g.PressureAltM = PressureAltitudeFromQNH(spec.QNHPa, g.ElevationM)
+	g.Cells = make([][][]Cell, len(spec.WeightsKg))
+	for wi, w := range spec.WeightsKg {
+		g.Cells[wi] = make([][]Cell, len(spec.HeadwindsMS))
+		for hi, h := range spec.HeadwindsMS {
+			row := make([]Cell, len(spec.TempsK))
+			for ti, t := range spec.TempsK {
+				row[ti] = EvaluateLanding(LandingCase{
+					Aircraft: a, Model: m, Policy: p, End: e,
+					PressureAltM: g.PressureAltM, TempK: t, MassKg: w,
+					Wind: Components{HeadwindMS: h}, TightMargin: spec.TightMargin, Rounding: spec.Rounding,
+				})
+			}
+			g.Cells[wi][hi] = row
+		}
+	}
+	return g, nil
+}
+
+// AskLanding evaluates the landing question q on every runway end of airfield f and
+// ranks the ends as Ask does (state, then required over available, then
+// designator). Each end takes its pressure altitude as the takeoff does.
+func AskLanding(a *Aircraft, m LandingModel, p Policy, f Airfield, q Question) (Answer, error) {
+	if err := q.Check(a); err != nil {
+		return Answer{}, err
+	}
+	ans := Answer{ElevationM: f.ElevationM}
+	ans.PressureAltM = PressureAltitudeFromQNH(q.QNHPa, f.ElevationM)
+	ans.DensityAltM = DensityAltitudeM(ans.PressureAltM, q.TempK)
+	ans.ISADevK = q.TempK - ISATempK(ans.PressureAltM)
+	for _, e := range f.Ends() {
+		ea := EndAnswer{ElevationM: TakeoffElevationM(f, e)}
+		if q.Condition != "" {
+			e.Condition = q.Condition
+		}
+		ea.End = e
+		ea.PressureAltM = PressureAltitudeFromQNH(q.QNHPa, ea.ElevationM)
+		ea.DensityAltM = DensityAltitudeM(ea.PressureAltM, q.TempK)
+		ea.ISADevK = q.TempK - ISATempK(ea.PressureAltM)
+		ea.Wind = WindComponents(q.Wind, e.HeadingDeg, f.VariationDeg)
+		ea.Cell = EvaluateLanding(LandingCase{
+			Aircraft: a, Model: m, Policy: p, End: e,
+			PressureAltM: ea.PressureAltM, TempK: q.TempK, MassKg: q.MassKg,
+			Wind: ea.Wind, TightMargin: q.TightMargin,
+		})
+		ans.Ends = append(ans.Ends, ea)
+	}
+	sort.SliceStable(ans.Ends, func(i, j int) bool {
+		a, b := ans.Ends[i].Cell, ans.Ends[j].Cell
+		if a.State != b.State {
+			return a.State < b.State
+		}
+		if a.HasDistance && b.HasDistance {
+			ra, rb := a.RequiredM/a.AvailableM, b.RequiredM/b.AvailableM
+			if ra != rb {
+				return ra < rb
+			}
+		}
+		return ans.Ends[i].End.Designator < ans.Ends[j].End.Designator
+	})
+	return ans, nil
+}

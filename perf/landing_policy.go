@@ -1,0 +1,181 @@
+package perf
+
+import (
+	"fmt"
+	"math"
+)
+
+// LandingPolicy is the landing half of a published policy: surface and slope
+// factors on the landing distance from 50 ft, and the overall factor it must fit the
+// LDA with.
+type LandingPolicy struct {
+	Title  string
+	Source string
+	// surface and slope give the published factors for a paved, dry, level basis;
+	// surface includes the wet-runway factor.
+	surface func(Surface, Condition) Factor
+	slope   func(pct float64) Factor
+	// rule is the rule's name and its factor on the landing distance, compared with
+	// the LDA.
+	rule       string
+	multiplier float64
+	// wetGrassCaution is printed on a wet grass runway end, if not empty.
+	wetGrassCaution string
+}
+
+// The landing factor of EU Air OPS class B: a full-stop landing from 50 ft within
+// 70 % of the LDA (Regulation (EU) No 965/2012 Annex IV CAT.POL.A.330(a), read in the
+// UK CAA regulatory library), i.e. LDA at least LD / 0.7 = 1.43 LD (GM1 CAT.POL.A.430,
+// Table 1, for the same 70 %).
+const euLandingMultiplier = 1 / 0.7
+
+// EU wet-runway factor: the LDA at least 115 % of the CAT.POL.A.330 distance
+// (CAT.POL.A.335(a) as the integrator's pinned sources quote it; the same 15 % is in
+// GM1 CAT.POL.A.430, Table 2: 1.15 x 1.43 = 1.64, and GM1 CAT.POL.A.335(b) names "the
+// wet factor (1.15)").
+const euWetLanding = 1.15
+
+// EU grass landing factor x1.15: AMC1 CAT.POL.A.330 (the table was not read; the
+// factor as CAP 698 quotes it in secondary texts).
+const euGrassLanding = 1.15
+
+// landingPolicies holds the landing half of each policy, by policy identifier.
+var landingPolicies = map[string]LandingPolicy{
+	PolicyEUClassB: {
+		Title: "EU Air OPS performance class B",
+		Source: "Regulation (EU) No 965/2012 Annex IV CAT.POL.A.330 (dry) and CAT.POL.A.335 (wet), " +
+			"AMC1 and AMC2 CAT.POL.A.330, GM1 CAT.POL.A.335",
+		surface: func(s Surface, c Condition) Factor {
+			switch {
+			case s != Paved && c == Wet:
+				return Factor{Name: "wet grass", Value: euGrassLanding * euWetLanding,
+					Source: "AMC1 CAT.POL.A.330: grass x1.15 (secondary quotation), and CAT.POL.A.335(a): wet x1.15"}
+			case s != Paved:
+				return Factor{Name: "dry grass", Value: euGrassLanding, Source: "AMC1 CAT.POL.A.330: grass x1.15 (secondary quotation)"}
+			case c == Wet:
+				return Factor{Name: "wet paved", Value: euWetLanding, Source: "CAT.POL.A.335(a): wet x1.15"}
+			}
+			return Factor{Name: "dry paved", Value: 1.0, Source: "flight-manual basis"}
+		},
+		slope:           downslopeFivePerPercent("AMC2 CAT.POL.A.330"),
+		rule:            "CAT.POL.A.330(a)",
+		multiplier:      euLandingMultiplier,
+		wetGrassCaution: "caution: very short wet grass, up to +60 % (GM1 CAT.POL.A.335)",
+	},
+	PolicyUKAdvisory: {
+		Title: "UK CAA advisory factors",
+		Source: "UK CAA Safety Sense Leaflet 7c, Aeroplane Performance (2013), landing factors " +
+			"(dry grass x1.15 as a secondary text quotes the leaflet's table; the rest from memory: verify against the leaflet; " +
+			"AIC 67/2002 para 7.6 gives x1.20 for dry grass)",
+		surface: func(s Surface, c Condition) Factor {
+			switch {
+			case s != Paved && c == Wet:
+				return Factor{Name: "wet grass", Value: 1.35, Source: "SSL 7c: wet grass x1.35 (from memory)"}
+			case s != Paved:
+				return Factor{Name: "dry grass", Value: 1.15, Source: "SSL 7c: dry grass x1.15 (secondary quotation)"}
+			case c == Wet:
+				return Factor{Name: "wet paved", Value: 1.15, Source: "SSL 7c: wet paved x1.15 (from memory)"}
+			}
+			return Factor{Name: "dry paved", Value: 1.0, Source: "flight-manual basis"}
+		},
+		slope:           downslopeFivePerPercent("SSL 7c: 2 % downslope x1.1 (from memory)"),
+		rule:            "SSL 7c landing factor",
+		multiplier:      1.43, // SSL 7c: x1.43 (from memory), the same as 1/0.7 to within 0.1 %
+		wetGrassCaution: "caution: very short wet grass, up to +60 % (GM1 CAT.POL.A.335)",
+	},
+}
+
+// Landing is the landing half of policy p.
+func (p Policy) Landing() LandingPolicy {
+	lp, ok := landingPolicies[p.ID]
+	if !ok {
+		panic("kneeprint: policy " + p.ID + " has no landing half") // a programming defect: every policy has one
+	}
+	return lp
+}
+
+// downslopeFivePerPercent is +5 % of the landing distance per 1 % of downslope in the
+// direction of landing, linear, and no credit for an upslope (AMC2 CAT.POL.A.330 as
+// CAP 698 quotes it: "increased by 5 % for each 1 % downslope. No allowance is
+// permitted for an upslope"; AMC2 CAT.POL.A.430, read in the UK CAA regulatory
+// library, says the same for class C). pct is uphill positive in the direction of
+// landing, which on a runway end is the direction of its takeoff.
+func downslopeFivePerPercent(src string) func(float64) Factor {
+	return func(pct float64) Factor {
+		if pct >= 0 {
+			return Factor{Name: "level or upslope", Pct: pct, Value: 1.0, Source: src + ": no credit for upslope"}
+		}
+		return Factor{Name: "downslope", Pct: -pct, Value: 1 + 0.05*-pct, Source: src + ": +5 % per 1 % downslope"}
+	}
+}
+
+// SurfaceFactor is the landing policy's factor for a surface and condition.
+func (lp LandingPolicy) SurfaceFactor(s Surface, c Condition) Factor { return lp.surface(s, c) }
+
+// SlopeFactor is the landing policy's factor for a slope (uphill positive in the
+// direction of landing).
+func (lp LandingPolicy) SlopeFactor(pct float64) Factor { return lp.slope(pct) }
+
+// Rule is the landing rule with its factor on the landing distance, for printing.
+func (lp LandingPolicy) Rule() Rule {
+	return Rule{Name: lp.rule, Checks: []Check{{Declared: "LDA", Multiplier: lp.multiplier}}}
+}
+
+// Cautions are what the landing policy prints for runway end e in its condition: a
+// downslope past the 2 % the published slope guidance is known to cover (the
+// figure is still given, with +5 % per 1 % carried on), and the wet grass warning.
+func (lp LandingPolicy) Cautions(e RunwayEnd) []string {
+	var out []string
+	if e.SlopePct < -publishedSlopePct-1e-9 {
+		out = append(out, fmt.Sprintf("caution: downslope %.1f %% is beyond the %g %% the published slope guidance is known to cover; +5 %% per 1 %% is carried on, a steep slope may cost more", -e.SlopePct, publishedSlopePct))
+	}
+	if e.Surface == Grass && e.Condition == Wet && lp.wetGrassCaution != "" {
+		out = append(out, lp.wetGrassCaution)
+	}
+	return out
+}
+
+// Require applies the landing policy to a landing result on runway end e. actual is
+// the model's answer for the real surface, condition and slope; ref its answer for a
+// paved, dry, level runway in the same conditions (ignored when the model covers
+// neither). As for the takeoff (Policy.Require), each effect is applied once, and an
+// effect the model includes keeps the published factor as a floor (FloorRule):
+//
+//	LD = max(actual x factors for effects not covered, ref x all published factors)
+//	required = LD x the rule's factor <= LDA
+//
+// The Requirement's FactoredTODM holds the factored landing distance LD.
+func (lp LandingPolicy) Require(actual, ref LandingResult, e RunwayEnd) Requirement {
+	fs, fsl := lp.surface(e.Surface, e.Condition), lp.slope(e.SlopePct)
+	uncovered := 1.0
+	if !actual.Covers.Surface {
+		uncovered *= fs.Value
+	}
+	if !actual.Covers.Slope {
+		uncovered *= fsl.Value
+	}
+	ld := actual.From50ftM * uncovered
+	if actual.Covers.Surface || actual.Covers.Slope {
+		if floor := ref.From50ftM * fs.Value * fsl.Value; floor > ld {
+			ld = floor
+		}
+	}
+	req := Requirement{FactoredTODM: ld, Factors: [2]Factor{fs, fsl}}
+	req.Floor = ld > actual.From50ftM*uncovered
+	for i, c := range lp.Cautions(e) {
+		if i > 0 {
+			req.Caution += "; "
+		}
+		req.Caution += c
+	}
+	chk := Check{Declared: "LDA", Multiplier: lp.multiplier, RequiredM: lp.multiplier * ld, AvailableM: e.LDAM}
+	rule := Rule{Name: lp.rule, Checks: []Check{chk}}
+	req.Rule, req.Rules, req.Checks, req.Limiting = rule.Name, []Rule{rule}, rule.Checks, chk
+	return req
+}
+
+// landingUsable reports whether a landing result's distances are positive and
+// finite, the ground roll not longer than the distance from 50 ft.
+func landingUsable(r LandingResult) bool {
+	return r.GroundRollM > 0 && r.From50ftM >= r.GroundRollM && !math.IsInf(r.From50ftM, 0) && !math.IsNaN(r.From50ftM)
+}
