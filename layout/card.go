@@ -123,10 +123,13 @@ type ObstacleData struct {
 // AccelCheck is the accelerate check as pilots are taught it (FAA AIM 7-6-8): reach
 // 70 % of the rotation speed by the runway's midpoint, or abandon.
 type AccelCheck struct {
-	MidpointDist float64 // half the TORA, in the card's unit, rounded down
-	RotateKIAS   float64 // the profile's rotation speed; 0 when the profile gives none
-	SpeedKIAS    float64 // 0.7 x RotateKIAS, rounded up
-	Expected     []ExpectedPoint
+	MidpointDist float64 // half the run available (the TORA, or a shorter ASDA), in the card's unit, rounded down
+	// OfASDA is set when an ASDA shorter than the TORA is the run available: the
+	// midpoint is then the ASDA's, and the card says so.
+	OfASDA     bool
+	RotateKIAS float64 // the profile's rotation speed; 0 when the profile gives none
+	SpeedKIAS  float64 // 0.7 x RotateKIAS, rounded up
+	Expected   []ExpectedPoint
 }
 
 // ExpectedPoint is, for one weight block, where 70 % of the rotation speed is
@@ -778,7 +781,11 @@ func (b *builder) accelCheck(blk *Block, d CardData, x, y, w, figPt float64) flo
 	pt = b.fitPt(big, w, pt, MinNumberPt, Bold)
 	b.text(blk, Rect{x, y, w, pt * ptMM}, big, pt, Bold, Left, Black, Number)
 	y += pt*ptMM + 0.6
-	rule := fmt.Sprintf("By the runway midpoint reach 0.7 × VR %s, or abandon (FAA AIM 7-6-8).",
+	where := "By the runway midpoint"
+	if a.OfASDA {
+		where = "By the midpoint of the ASDA (shorter than the TORA)"
+	}
+	rule := fmt.Sprintf("%s reach 0.7 × VR %s, or abandon (FAA AIM 7-6-8).", where,
 		Keep(trimNum(a.RotateKIAS, 1)+" KIAS"))
 	y += b.paragraph(blk, x, y, w, rule, bodyPt, Regular)
 	var items []string

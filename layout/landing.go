@@ -44,11 +44,11 @@ type ApproachSpeed struct {
 // readLine is the how-to-read sentence of a side.
 func readLine(d CardData) string {
 	if d.Side == LandingSide {
-		return fmt.Sprintf("Figures: %s required to land from 50 ft, all factors in, rounded up. Between figures take the hotter column, "+
-			"less headwind, the heavier block. Rows: reported wind (factoring included). No figure past the last column.", d.Unit)
+		return fmt.Sprintf("Figures: %s required to land from 50 ft, all factors in, rounded up. Between figures: hotter column, "+
+			"less headwind, heavier block. Rows: reported wind, factored in; tailwind at its gust. No figure past the last column.", d.Unit)
 	}
-	return fmt.Sprintf("Figures: %s required, all factors in, rounded up. Between figures take the hotter column, less headwind, "+
-		"the heavier block. Rows: reported wind (factoring included). No figure past the last column.", d.Unit)
+	return fmt.Sprintf("Figures: %s required, all factors in, rounded up. Between figures: hotter column, less headwind, "+
+		"heavier block. Rows: reported wind, factored in; tailwind at its gust. No figure past the last column.", d.Unit)
 }
 
 // blockTag is what a weight block's title says after its weight: the profile's mass

@@ -129,8 +129,13 @@ func (lp LandingPolicy) Cautions(e RunwayEnd) []string {
 	if e.SlopePct < -publishedSlopePct-1e-9 {
 		out = append(out, fmt.Sprintf("caution: downslope %.1f %% is beyond the %g %% the published slope guidance is known to cover; +5 %% per 1 %% is carried on, a steep slope may cost more", -e.SlopePct, publishedSlopePct))
 	}
-	if e.Surface == Grass && e.Condition == Wet && lp.wetGrassCaution != "" {
+	switch {
+	case e.Surface == Grass && e.Condition == Wet && lp.wetGrassCaution != "":
 		out = append(out, lp.wetGrassCaution)
+	case e.Surface != Paved && e.Condition == Wet && lp.wetGrassCaution != "":
+		// Gravel takes the grass factors, and so their caution (common practice: no
+		// published factor of its own).
+		out = append(out, lp.wetGrassCaution+"; this unpaved surface takes the grass factors")
 	}
 	return out
 }

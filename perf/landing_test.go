@@ -448,3 +448,19 @@ func BenchmarkLandingGridTable(b *testing.B) {
 	benchmarkLandingGrid(b, &Aircraft{Name: "t", MTOWKg: 1000, MaxTailwindMS: 10 * knot, WeightsKg: []float64{1000, 900},
 		Landing: &Landing{MaxMassKg: 1000, Model: ModelTable, Table: landingTable()}})
 }
+
+// A wet unpaved runway other than grass (gravel) takes the grass factors, and so the
+// wet grass caution of GM1 CAT.POL.A.335 (up to +60 % on very short wet grass [pub]);
+// a dry one and a wet paved one carry none.
+func TestWetGravelLandingCaution(t *testing.T) {
+	for _, id := range PolicyIDs() {
+		p, _ := PolicyByID(id)
+		lp := p.Landing()
+		wet := lp.Cautions(RunwayEnd{Surface: Gravel, Condition: Wet, LDAM: 800})
+		require.Len(t, wet, 1, id)
+		assert.Contains(t, wet[0], "+60 %", id)
+		assert.Contains(t, wet[0], "grass factors", id)
+		assert.Empty(t, lp.Cautions(RunwayEnd{Surface: Gravel, Condition: Dry, LDAM: 800}), id)
+		assert.Empty(t, lp.Cautions(RunwayEnd{Surface: Paved, Condition: Wet, LDAM: 800}), id)
+	}
+}

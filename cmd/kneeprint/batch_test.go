@@ -21,12 +21,12 @@ func TestSeasonEndToEnd(t *testing.T) {
 	plan := filepath.Join(dir, "demo-season.yaml")
 	code, out, errOut := runCLI(t, "cards", "--plan", plan)
 	require.Equal(t, exitOK, code, errOut+out)
-	assert.Contains(t, out, "4 card file(s), 40 card page(s) written to "+filepath.Join(dir, "cards"))
+	assert.Contains(t, out, "4 card file(s), 48 card page(s) written to "+filepath.Join(dir, "cards"))
 	assert.Contains(t, errOut, "[4/4] wrote", "plain progress lines when not on a terminal")
 
 	code, out, _ = runCLI(t, "stale", filepath.Join(dir, "cards"))
 	assert.Equal(t, exitOK, code, out)
-	assert.Contains(t, out, "all 20 card(s) match their inputs")
+	assert.Contains(t, out, "all 24 card(s) match their inputs")
 
 	// A copy of the airfield with runway 25 shortened; the plan now names the copy.
 	src, err := os.ReadFile(filepath.Join(dir, "wrenmoor.yaml"))
@@ -46,7 +46,7 @@ func TestSeasonEndToEnd(t *testing.T) {
 		} `json:"stale"`
 	}
 	require.NoError(t, json.Unmarshal([]byte(out), &rep), out)
-	require.Len(t, rep.Stale, 2, "runway 25 of each aircraft, nothing else")
+	require.Len(t, rep.Stale, 4, "runway 25 of each aircraft, dry and wet, nothing else")
 	for _, s := range rep.Stale {
 		assert.Equal(t, "25", s.Designator)
 		assert.Contains(t, strings.Join(s.Reasons, ";"), "TORA 840 m -> 760 m")

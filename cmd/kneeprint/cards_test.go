@@ -76,14 +76,14 @@ runways:
 	out := filepath.Join(dir, "cards")
 	code, stdout, errOut := runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", af, "-o", out)
 	assert.Equal(t, exitFailure, code, stdout+errOut)
-	assert.Contains(t, stdout, "card pages with no figure at all (2):")
-	assert.Contains(t, stdout, "hits_sedgefin-sf-2-demo-trainer_a5.pdf runway 09: ")
+	assert.Contains(t, stdout, "card pages with no figure at all (4):")
+	assert.Contains(t, stdout, "hits_sedgefin-sf-2-demo-trainer_a5.pdf runway 09 dry: ")
 	assert.Contains(t, stdout, "above the table's highest")
 	assert.Contains(t, errOut, "--allow-empty")
 
 	code, stdout, errOut = runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", af, "-o", out, "--allow-empty")
 	assert.Equal(t, exitOK, code, stdout+errOut)
-	assert.Contains(t, stdout, "card pages with no figure at all (2):", "still listed")
+	assert.Contains(t, stdout, "card pages with no figure at all (4):", "still listed")
 }
 
 // Issue 8.11: cards --data writes the card's content beside each PDF.
@@ -134,7 +134,7 @@ func TestCardsData(t *testing.T) {
 		require.NotEmpty(t, p.Blocks)
 		assert.Len(t, p.Blocks[0].Cells, 8*7)
 	}
-	assert.Equal(t, []string{"07", "25", "15 dry", "15 wet", "33 dry", "33 wet"}, pages)
+	assert.Equal(t, []string{"07 dry", "07 wet", "25 dry", "25 wet", "15 dry", "15 wet", "33 dry", "33 wet"}, pages, "every end dry and wet: the profile has landing data")
 	assert.Equal(t, 840.0, *f.Pages[0].Declared.TORA)
 	// The LDA is on the card's landing side (the back), with the landing blocks:
 	// the maximum landing mass (the MTOW of this profile) first.
@@ -148,7 +148,7 @@ func TestCardsData(t *testing.T) {
 		assert.Equal(t, 58.0, p.Landing.Approach[0].KIAS, "the profile's approach speed")
 	}
 	assert.Equal(t, 780.0, *f.Pages[0].Landing.LDA)
-	assert.Equal(t, 510.0, *f.Pages[4].Landing.LDA, "33: threshold displaced 50 m")
+	assert.Equal(t, 510.0, *f.Pages[6].Landing.LDA, "33: threshold displaced 50 m")
 	// Without --data, no JSON beside the cards.
 	dir2 := t.TempDir()
 	code, _, _ = runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "-o", dir2)

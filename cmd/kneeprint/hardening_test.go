@@ -90,7 +90,7 @@ func TestPageOverrideKeepsNamesUnique(t *testing.T) {
 	// The page chosen on the command line is not a template change.
 	code, out, _ = runCLI(t, "stale", filepath.Join(dir, "out"))
 	assert.Equal(t, exitOK, code, out)
-	assert.Contains(t, out, "all 40 card(s) match their inputs")
+	assert.Contains(t, out, "all 48 card(s) match their inputs")
 	code, out, _ = runCLI(t, "stale", filepath.Join(dir, "out"), "--plan", plan)
 	assert.Equal(t, exitOK, code, out)
 	assert.NotContains(t, out, "template")
@@ -167,7 +167,7 @@ func TestTwoBatchesIntoOneFolder(t *testing.T) {
 		assert.Len(t, pdfsIn(t, filepath.Join(dir, out)), 4)
 		code, sout, _ := runCLI(t, "stale", filepath.Join(dir, out))
 		assert.Equal(t, exitOK, code, sout)
-		assert.Contains(t, sout, "all 20 card(s) match their inputs", "trial %d: every card of both batches is indexed", trial)
+		assert.Contains(t, sout, "all 24 card(s) match their inputs", "trial %d: every card of both batches is indexed", trial)
 	}
 }
 

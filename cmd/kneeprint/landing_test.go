@@ -152,6 +152,15 @@ func TestGridLandingEndToEnd(t *testing.T) {
 	require.Equal(t, exitOK, code)
 	assert.Contains(t, out, "LANDING: required landing distance")
 	assert.Contains(t, out, "LDA 510 m")
+
+	// The obstacles past the end of the TORA are the takeoff's: the landing grid of 07
+	// does not list the powerline (common practice: a landing is flown from the other side).
+	code, out, _ = runCLI(t, "grid", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "--landing", "--runway", "07")
+	require.Equal(t, exitOK, code)
+	assert.NotContains(t, out, "powerline")
+	code, out, _ = runCLI(t, "grid", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "--runway", "07")
+	require.Equal(t, exitOK, code)
+	assert.Contains(t, out, "obstacle: powerline 35 ft, 400 m past the end")
 }
 
 // Issue 11 item 5, end to end: diff names the LDA change and the landing cells it

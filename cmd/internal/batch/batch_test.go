@@ -66,16 +66,17 @@ func TestRunPlanAndIndex(t *testing.T) {
 		assert.Equal(t, "2027-03-01", c.Date)
 		ends += len(c.Ends)
 	}
-	// 2 aircraft x (4 + 2 ends), and the 4 unpaved ends have a dry and a wet page each.
-	assert.Equal(t, 20, ends)
+	// 2 aircraft x (4 + 2 ends), every end a dry and a wet page (the demo aircraft have
+	// landing data: paved ends too).
+	assert.Equal(t, 24, ends)
 	rep, err := Stale(filepath.Join(dir, "cards"), nil, "", "test", planDate)
 	require.NoError(t, err)
 	assert.Empty(t, rep.Stale)
-	assert.Equal(t, 20, rep.Checked)
+	assert.Equal(t, 24, rep.Checked)
 
 	var sb strings.Builder
 	s.WriteSummary(&sb)
-	assert.Contains(t, sb.String(), "4 card file(s), 40 card page(s) written")
+	assert.Contains(t, sb.String(), "4 card file(s), 48 card page(s) written")
 	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04 dry:")
 	assert.Contains(t, sb.String(), "kp-spm_sedgefin-sf-2-demo-trainer_a5.pdf runway 04 wet:")
 }
@@ -144,9 +145,9 @@ func TestStaleLDAChangeNamesThatEndsCards(t *testing.T) {
 	require.NoError(t, os.WriteFile(path, []byte(edited), 0o644))
 	rep, err := Stale(out, nil, "", "test", planDate)
 	require.NoError(t, err)
-	require.Len(t, rep.Stale, 2, "2 aircraft x the card of runway 07")
+	require.Len(t, rep.Stale, 4, "2 aircraft x the dry and the wet card of runway 07")
 	for _, s := range rep.Stale {
-		assert.Equal(t, "07", s.Page)
+		assert.Contains(t, []string{"07 dry", "07 wet"}, s.Page)
 		assert.True(t, strings.HasPrefix(s.File, "kp-wrm_"))
 		require.Len(t, s.Reasons, 1)
 		assert.Contains(t, s.Reasons[0], "LDA 780 m -> 700 m (its landing side)")

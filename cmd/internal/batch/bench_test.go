@@ -188,7 +188,7 @@ func seasonCards(b *testing.B, fonts *layout.Fonts, n int) []*layout.Card {
 	var cs []*layout.Card
 	for _, e := range seasonEntries(b, 1, (n+3)/4, true) {
 		for _, end := range e.Job.Airfield.Ends() {
-			for _, cond := range cards.Conditions(end) {
+			for _, cond := range e.Job.Conditions(end) {
 				d, _, err := e.Job.Card(end, cond)
 				if err != nil {
 					b.Fatal(err)

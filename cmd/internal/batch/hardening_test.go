@@ -316,7 +316,7 @@ func TestStaleAfterPageOverride(t *testing.T) {
 		}
 		require.NoError(t, err)
 		assert.Empty(t, rep.Stale, "with plan: %v", plan)
-		assert.Equal(t, 40, rep.Checked, "8 card files, the unpaved ends with a dry and a wet page")
+		assert.Equal(t, 48, rep.Checked, "8 card files, every end with a dry and a wet page")
 	}
 	// A real change of the template still counts.
 	tmpl := filepath.Join(dir, "my.yaml")

@@ -24,7 +24,7 @@ func TestStaleObstacle(t *testing.T) {
 	require.NoError(t, os.WriteFile(path, []byte(edited), 0o644))
 	rep, err := Stale(out, nil, "", "test", planDate)
 	require.NoError(t, err)
-	require.Len(t, rep.Stale, 2, "2 aircraft x runway 07")
+	require.Len(t, rep.Stale, 4, "2 aircraft x runway 07, dry and wet")
 	for _, s := range rep.Stale {
 		assert.Equal(t, "07", s.Designator)
 		require.Len(t, s.Reasons, 1)

@@ -47,7 +47,7 @@ func BenchmarkCardDataFourEnds(b *testing.B) {
 		jj := *j
 		jj.model = nil // a fresh job: nothing memoized yet
 		for _, e := range jj.Airfield.Ends() {
-			for _, c := range Conditions(e) {
+			for _, c := range jj.Conditions(e) {
 				if _, _, err := jj.Card(e, c); err != nil {
 					b.Fatal(err)
 				}

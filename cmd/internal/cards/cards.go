@@ -118,24 +118,40 @@ type Result struct {
 	Ends     []EndSummary
 }
 
-// Conditions lists the conditions a runway end gets a card page for: the declared one
-// on a paved runway; dry and wet on grass and gravel, whatever the file declares, so
-// that a pilot on a wet morning has a figure (issue: an unpaved strip changes with
-// the weather, a declared condition does not).
-func Conditions(e perf.RunwayEnd) []perf.Condition {
-	if e.Surface == perf.Paved {
+// Conditions lists the conditions runway end e gets a card page for, on a card with a
+// landing side (landing true) or without one. Grass and gravel: dry and wet, whatever
+// the file declares, so that a pilot on a wet morning has a figure (an unpaved strip
+// changes with the weather, a declared condition does not). Paved: the declared
+// condition alone when the card is takeoff only (no published takeoff factor for a
+// wet paved runway: AMC1 CAT.POL.A.305, Table 1, wet paved x1.0), dry and wet when it
+// has a landing side (a wet paved landing takes x1.15: CAT.POL.A.335(a), UK CAA SSL 7c).
+func Conditions(e perf.RunwayEnd, landing bool) []perf.Condition {
+	if e.Surface == perf.Paved && !landing {
 		return []perf.Condition{e.Condition}
 	}
 	return []perf.Condition{perf.Dry, perf.Wet}
 }
 
-// PageID is the identity of the page of runway end e in condition c.
-func PageID(e perf.RunwayEnd, c perf.Condition) string {
-	if len(Conditions(e)) > 1 {
+// PageID is the identity of the page of runway end e in condition c ("15 wet" when the
+// end has a page per condition), on a card with or without a landing side.
+func PageID(e perf.RunwayEnd, c perf.Condition, landing bool) string {
+	if len(Conditions(e, landing)) > 1 {
 		return e.Designator + " " + string(c)
 	}
 	return e.Designator
 }
+
+// HasLanding reports whether the job's cards carry landing figures (a landing side,
+// or the landing on the same page).
+func (j *Job) HasLanding() bool {
+	return j.Aircraft.Landing != nil && j.Template.Landing != spec.LandingNone
+}
+
+// Conditions lists the conditions runway end e gets a card page for in this job.
+func (j *Job) Conditions(e perf.RunwayEnd) []perf.Condition { return Conditions(e, j.HasLanding()) }
+
+// PageID is the identity of the page of runway end e in condition c in this job.
+func (j *Job) PageID(e perf.RunwayEnd, c perf.Condition) string { return PageID(e, c, j.HasLanding()) }
 
 // Card computes runway end e's grid for condition cond and its card data: every
 // figure in the template's units, rounded as printed, the state of every cell decided
@@ -180,7 +196,7 @@ func (j *Job) Card(e perf.RunwayEnd, cond perf.Condition) (layout.CardData, *per
 	d.AirfieldName, d.Ident, d.ElevationFt = f.Name, f.Ident, units.Feet(f.ElevationM)
 	d.Designator, d.HeadingDeg = e.Designator, e.HeadingDeg
 	d.Surface, d.Condition, d.SlopePct = string(e.Surface), string(cond), e.SlopePct
-	d.ConditionPages = len(Conditions(e))
+	d.ConditionPages = len(j.Conditions(e))
 	for _, dd := range []layout.DeclaredDistance{{Name: "TORA", Value: e.TORAM}, {Name: "TODA", Value: e.TODAM}, {Name: "ASDA", Value: e.ASDAM}, {Name: "LDA", Value: e.LDAM}} {
 		if dd.Name == "LDA" && j.HasLandingSide() {
 			continue // the landing side, behind, holds the LDA
@@ -351,7 +367,14 @@ func surfaceAssumption(s perf.Surface) string {
 func (j *Job) accelCheck(m perf.Model, p perf.Policy, e perf.RunwayEnd, g *perf.Grid, weights []float64, u cardUnits) layout.AccelCheck {
 	a, t := j.Aircraft, j.Template
 	rnd := t.Rounding()
-	ac := layout.AccelCheck{MidpointDist: math.Floor(rnd.In(e.TORAM)/2 + 1e-9)}
+	// The run available: the TORA, or an ASDA shorter than it (the run the aircraft
+	// can stop within; perf's policies take it as the takeoff run, common practice).
+	run := e.TORAM
+	ac := layout.AccelCheck{}
+	if e.ASDAM > 0 && e.ASDAM < e.TORAM-0.5 {
+		run, ac.OfASDA = e.ASDAM, true
+	}
+	ac.MidpointDist = math.Floor(rnd.In(run)/2 + 1e-9)
 	if a.RotateIASMS <= 0 {
 		return ac
 	}
@@ -585,9 +608,9 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 	var data []layout.CardData
 	landing := map[int]layout.CardData{} // page index in data -> its landing side
 	for _, e := range j.Airfield.Ends() {
-		for _, cond := range Conditions(e) {
+		for _, cond := range j.Conditions(e) {
 			t0 := time.Now()
-			id := PageID(e, cond)
+			id := j.PageID(e, cond)
 			d, g, err := j.Card(e, cond)
 			if err != nil {
 				return nil, fmt.Errorf("airfield %s runway %s: %w", j.Airfield.Ident, id, err)

@@ -64,8 +64,8 @@ func TestDemoCardsPassLayoutChecks(t *testing.T) {
 	for _, name := range []string{"a5", "half-letter", "5x8"} {
 		for _, j := range demoJobs(t, name) {
 			for _, e := range j.Airfield.Ends() {
-				for _, cond := range Conditions(e) {
-					t.Run(fmt.Sprintf("%s/%s/%s/%s", name, j.Aircraft.Name, j.Airfield.Ident, PageID(e, cond)), func(t *testing.T) {
+				for _, cond := range j.Conditions(e) {
+					t.Run(fmt.Sprintf("%s/%s/%s/%s", name, j.Aircraft.Name, j.Airfield.Ident, j.PageID(e, cond)), func(t *testing.T) {
 						d, _, err := j.Card(e, cond)
 						require.NoError(t, err)
 						c, err := layout.Build(d, j.Page, fonts)
@@ -147,7 +147,7 @@ func TestPDFValidAndPageCount(t *testing.T) {
 			require.NoError(t, err)
 			ends := 0
 			for _, e := range jj.Airfield.Ends() {
-				ends += len(Conditions(e))
+				ends += len(jj.Conditions(e))
 			}
 			// A card with a landing side is two pages, front and back; on 2-up sheets
 			// each sheet has a front page and a back page.

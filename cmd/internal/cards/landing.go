@@ -61,7 +61,7 @@ func (j *Job) LandingCard(e perf.RunwayEnd, cond perf.Condition) (layout.CardDat
 	d.AirfieldName, d.Ident, d.ElevationFt = f.Name, f.Ident, units.Feet(f.ElevationM)
 	d.Designator, d.HeadingDeg = e.Designator, e.HeadingDeg
 	d.Surface, d.Condition, d.SlopePct = string(e.Surface), string(cond), e.SlopePct
-	d.ConditionPages = len(Conditions(e))
+	d.ConditionPages = len(j.Conditions(e))
 	if e.LDAM > 0 {
 		d.Declared = []layout.DeclaredDistance{{Name: "LDA", Value: rnd.Down(e.LDAM)}}
 	}

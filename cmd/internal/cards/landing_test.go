@@ -94,7 +94,7 @@ func TestLandingSideStatesFromPrintedFigures(t *testing.T) {
 	for _, name := range []string{"a5", "half-letter", "5x8"} {
 		for _, j := range demoJobs(t, name) {
 			for _, e := range j.Airfield.Ends() {
-				for _, cond := range Conditions(e) {
+				for _, cond := range j.Conditions(e) {
 					d, card := buildLanding(t, j, e, cond)
 					require.Len(t, d.Declared, 1)
 					lda := d.Declared[0]
@@ -111,7 +111,7 @@ func TestLandingSideStatesFromPrintedFigures(t *testing.T) {
 								m := d.TightMarginPct / 100
 								switch c.State {
 								case perf.Go:
-									assert.LessOrEqual(t, c.Distance*(1+m), lda.Value+1e-9, "%s %s: a go cell fits its LDA with the margin", j.Airfield.Ident, PageID(e, cond))
+									assert.LessOrEqual(t, c.Distance*(1+m), lda.Value+1e-9, "%s %s: a go cell fits its LDA with the margin", j.Airfield.Ident, j.PageID(e, cond))
 								case perf.Tight:
 									assert.LessOrEqual(t, c.Distance, lda.Value)
 									assert.Greater(t, c.Distance*(1+m), lda.Value)
@@ -254,9 +254,9 @@ func TestLandingSamePage(t *testing.T) {
 			assert.Positive(t, len(s.LandingCounts))
 		}
 		e := j.Airfield.Ends()[0]
-		d, _, err := j.Card(e, Conditions(e)[0])
+		d, _, err := j.Card(e, j.Conditions(e)[0])
 		require.NoError(t, err)
-		ld, _, err := j.LandingCard(e, Conditions(e)[0])
+		ld, _, err := j.LandingCard(e, j.Conditions(e)[0])
 		require.NoError(t, err)
 		d.SamePage = &ld
 		card, err := layout.Build(d, j.Page, fonts)
@@ -303,4 +303,45 @@ func TestLandingSideFactors(t *testing.T) {
 	assert.Contains(t, items, "dry grass +15 %")
 	assert.Contains(t, items, "downslope 1 % +5 %")
 	assert.Contains(t, items, "LD ≤ 70 % of LDA (CAT.POL.A.330(a))")
+}
+
+// A paved runway end of a card with a landing side gets a wet page too: its landing
+// side holds every landing distance x1.15 against the LDA (CAT.POL.A.335(a): at least
+// 115 % of the dry landing distance [pub]; UK CAA SSL 7c wet paved x1.15 [sec]), so a
+// pilot on a rainy day has a figure. The reviewer's case: Wrenmoor 07, 35 C, 5 kt
+// tailwind, dry 760 m tight against LDA 780 m; wet it does not fit.
+func TestPavedEndsHaveAWetLandingSide(t *testing.T) {
+	for _, j := range demoJobs(t, "a5") {
+		for _, e := range j.Airfield.Ends() {
+			if e.Surface != perf.Paved {
+				continue
+			}
+			require.Equal(t, []perf.Condition{perf.Dry, perf.Wet}, j.Conditions(e), "%s %s", j.Airfield.Ident, e.Designator)
+			_, dg, err := j.LandingCard(e, perf.Dry)
+			require.NoError(t, err)
+			wet, wg, err := j.LandingCard(e, perf.Wet)
+			require.NoError(t, err)
+			assert.Equal(t, "wet", wet.Condition)
+			if dg == nil {
+				continue // no LDA: no figures either way
+			}
+			for bi := range dg.Cells {
+				for wi := range dg.Cells[bi] {
+					for ti, dc := range dg.Cells[bi][wi] {
+						wc := wg.Cells[bi][wi][ti]
+						if !dc.HasDistance || !wc.HasDistance {
+							continue
+						}
+						// A table takes the factor; the physics model's own wet braking may be
+						// longer still (the published factor is then a floor).
+						assert.GreaterOrEqual(t, wc.RequiredM, 1.15*dc.RequiredM*(1-1e-9), "%s %s: wet >= dry x1.15", j.Airfield.Ident, e.Designator)
+						if j.Aircraft.Landing.Model == perf.ModelTable {
+							assert.InDelta(t, 1.15*dc.RequiredM, wc.RequiredM, 1e-6*dc.RequiredM, "%s %s: a table's wet = dry x1.15", j.Airfield.Ident, e.Designator)
+						}
+						assert.GreaterOrEqual(t, wc.State, dc.State, "wet is never a better state than dry")
+					}
+				}
+			}
+		}
+	}
 }

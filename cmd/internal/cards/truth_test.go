@@ -122,7 +122,7 @@ func withTemplate(t testing.TB, j *Job, src string) *Job {
 func TestItem1LimitingFramedWhereItStands(t *testing.T) {
 	for _, j := range demoJobs(t, "a5") {
 		for _, e := range j.Airfield.Ends() {
-			d, card := build(t, j, e, Conditions(e)[0])
+			d, card := build(t, j, e, j.Conditions(e)[0])
 			require.NotEmpty(t, d.Limiting)
 			var header layout.Block
 			for _, b := range card.Blocks {
@@ -194,7 +194,7 @@ func TestItem3PrintedFigureAndStateAgree(t *testing.T) {
 	checked := 0
 	for _, j := range jobs {
 		for _, e := range j.Airfield.Ends() {
-			for _, c := range Conditions(e) {
+			for _, c := range j.Conditions(e) {
 				d, _, err := j.Card(e, c)
 				require.NoError(t, err)
 				avail := 0.0
@@ -223,7 +223,7 @@ func TestItem3PrintedFigureAndStateAgree(t *testing.T) {
 							case cell.Distance*(1+d.TightMarginPct/100) > avail+1e-9:
 								want = perf.Tight
 							}
-							assert.Equal(t, want, cell.State, "%s %s: %v %s against %v", j.Airfield.Ident, PageID(e, c), cell.Distance, d.Unit, avail)
+							assert.Equal(t, want, cell.State, "%s %s: %v %s against %v", j.Airfield.Ident, j.PageID(e, c), cell.Distance, d.Unit, avail)
 							assert.Zero(t, math.Mod(cell.Distance, perf.CardStep), "figures in steps of 10")
 						}
 					}
@@ -348,9 +348,10 @@ func TestItem5HowToReadAndDensityAltitude(t *testing.T) {
 	}
 	text := allText(card)
 	assert.Contains(t, text, "DA ft")
-	assert.Contains(t, text, "take the hotter column")
+	assert.Contains(t, text, "hotter column")
 	assert.Contains(t, text, "No figure past the last column")
-	assert.Contains(t, text, "factoring included")
+	assert.Contains(t, text, "factored in")
+	assert.Contains(t, text, "tailwind at its gust", "the card says what check does: a tailwind counts at its gust")
 	assert.NotContains(t, text, "recompute")
 
 	// The QNH rule: 10 hPa less lowers the station pressure by 10/QNH (it is the QNH
@@ -394,6 +395,17 @@ func TestItem6AccelerateCheck(t *testing.T) {
 	assert.Contains(t, allText(card), "550 m: 39 KIAS")
 	assert.Contains(t, flatText(card), "By the runway midpoint reach 0.7 × VR 55 KIAS, or abandon (FAA AIM 7-6-8)")
 
+	// An ASDA shorter than the TORA is the run available (perf takes it as the takeoff
+	// run, common practice): the midpoint is the ASDA's, and the card says so. TORA
+	// 1100 m, ASDA 700 m (a reviewer's case): midpoint 350 m, not 550 m, which would
+	// leave 150 m to stop.
+	short := e
+	short.ASDAM = 700
+	ds, cs := build(t, j, short, perf.Dry)
+	assert.Equal(t, 350.0, ds.Accel.MidpointDist)
+	assert.True(t, ds.Accel.OfASDA)
+	assert.Contains(t, flatText(cs), "By the midpoint of the ASDA (shorter than the TORA) reach 0.7 × VR 55 KIAS")
+
 	// The expected 70 % point is factored for the surface and slope the table does not
 	// cover (gravel takes the grass factor 1.2, AMC1 CAT.POL.A.305; upslope +5 % per
 	// 1 %, AMC2 CAT.POL.A.305), from the table's ground roll at the hottest column whose
@@ -430,15 +442,15 @@ func TestItem6AccelerateCheck(t *testing.T) {
 func TestItem7UnpavedWetAndDry(t *testing.T) {
 	for _, j := range demoJobs(t, "a5") {
 		for _, e := range j.Airfield.Ends() {
-			conds := Conditions(e)
+			require.Equal(t, []perf.Condition{perf.Dry, perf.Wet}, j.Conditions(e), "the demo aircraft have landing data: every end dry and wet")
 			if e.Surface == perf.Paved {
-				assert.Equal(t, []perf.Condition{e.Condition}, conds)
+				assert.Equal(t, []perf.Condition{e.Condition}, Conditions(e, false), "a paved end of a takeoff-only card: the declared condition")
 				continue
 			}
-			require.Equal(t, []perf.Condition{perf.Dry, perf.Wet}, conds)
+			require.Equal(t, []perf.Condition{perf.Dry, perf.Wet}, Conditions(e, false), "an unpaved end: dry and wet, takeoff only or not")
 			dry, dc := build(t, j, e, perf.Dry)
 			wet, wc := build(t, j, e, perf.Wet)
-			assert.Equal(t, e.Designator+" wet", PageID(e, perf.Wet))
+			assert.Equal(t, e.Designator+" wet", j.PageID(e, perf.Wet))
 			assert.Contains(t, allText(wc), "WET")
 			assert.Contains(t, allText(dc), "DRY")
 			for bi := range dry.Blocks {
@@ -498,7 +510,7 @@ func TestItem9Legible(t *testing.T) {
 	cases = append(cases, demoJobs(t, "a5")...)
 	for _, j := range cases {
 		for _, e := range j.Airfield.Ends() {
-			d, card := build(t, j, e, Conditions(e)[0])
+			d, card := build(t, j, e, j.Conditions(e)[0])
 			fig := 0.0
 			for _, tx := range texts(card, "grid") {
 				if tx.Role == layout.Number && tx.Style == layout.Bold && len(tx.S) >= 3 && tx.S[0] >= '0' && tx.S[0] <= '9' {

@@ -106,6 +106,9 @@ func BuildGrid(in GridInput) GridRun {
 			Obstacles:          gridObstacles(g.End),
 			ObstacleMarginFt:   ceilFt(perf.ObstacleMargin(g.Spec.ObstacleMarginM)),
 		}
+		if in.Landing { // obstacles past the end of the TORA are the takeoff's
+			ge.Obstacles, ge.ObstacleMarginFt = []GridObstacle{}, 0
+		}
 		for _, blk := range g.Cells {
 			for _, row := range blk {
 				for _, c := range row {
@@ -201,6 +204,9 @@ func WriteGridText(w io.Writer, in GridInput) error {
 			}
 		}
 		for _, o := range e.Obstacles {
+			if in.Landing {
+				break // obstacles past the end of the TORA are the takeoff's
+			}
 			fmt.Fprintf(b, "  obstacle: %s %.0f ft, %.0f m past the end: to be cleared by %.0f ft\n", o.Note, ceilFt(o.HeightM), math.Floor(o.PastEndM+1e-9), ceilFt(perf.ObstacleMargin(g.Spec.ObstacleMarginM)))
 		}
 		for wi, blk := range g.Cells {

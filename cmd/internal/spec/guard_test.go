@@ -35,6 +35,9 @@ func TestStarterPlaceholdersRefused(t *testing.T) {
 			require.True(t, errors.As(err, &list))
 			fields := map[string]bool{}
 			for _, e := range list {
+				if e.Line == 0 && strings.Contains(e.Msg, "more errors not listed") {
+					continue // the list is capped; the rest follow once these are fixed
+				}
 				assert.Greater(t, e.Line, 0, "every placeholder has a line: %v", e)
 				fields[e.Field] = true
 				if e.Field != "table.wind_factoring_included" {
@@ -53,6 +56,34 @@ func TestStarterPlaceholdersRefused(t *testing.T) {
 			assert.Empty(t, doc.Warnings)
 		})
 	}
+}
+
+// Every figure of the starter is a placeholder, not only the first of each row, and so
+// are the figures of its commented-out sections: a pilot who deletes the marks he sees
+// on the first cells, or uncomments the landing example, still gets a refusal at each
+// figure left as typed by kneeprint (an independent review found a starter that
+// validated with invented landing figures).
+func TestStarterEveryFigureIsAPlaceholder(t *testing.T) {
+	data, err := fs.ReadFile(templates.FS, templates.StarterAircraft)
+	require.NoError(t, err)
+	text := string(data)
+	// Delete only the first mark of each table row, as a hurried pilot might.
+	text = regexp.MustCompile(`(?m)^(\s*- \[)EXAMPLE `).ReplaceAllString(text, "$1")
+	_, err = Parse("starter.yaml", []byte(text))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "table.weights[0].ground_roll[0][1]: \"EXAMPLE 750\" is a starter placeholder")
+	// Uncomment the landing example and answer everything else: its figures are
+	// placeholders too.
+	text = strings.ReplaceAll(string(data), PlaceholderMark+" ", "")
+	text = regexp.MustCompile(`(?m)^(\s*wind_factoring_included:)\s*(#.*)?$`).ReplaceAllString(text, "$1 false")
+	i := strings.Index(string(data), "# landing:")
+	require.Positive(t, i)
+	landing := regexp.MustCompile(`(?m)^# ?`).ReplaceAllString(string(data[i:]), "")
+	text = text[:strings.Index(text, "# landing:")] + landing
+	_, err = Parse("starter.yaml", []byte(text))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "landing.approach_speed: \"EXAMPLE 60 kt\" is a starter placeholder")
+	assert.Contains(t, err.Error(), "landing.table.weights[0].from_50ft[0][0]")
 }
 
 // Issue 9.10: wind_factoring_included has no default; its absence is explained.
@@ -227,4 +258,19 @@ func TestReferenceFigures(t *testing.T) {
 	require.NoError(t, err)
 	assert.Greater(t, ref.To50ftM, ref.GroundRollM)
 	assert.Empty(t, ref.Warning, "%.3f g", ref.MeanAccelG)
+}
+
+// A card template assuming a QNH above the standard 1013.25 hPa (ICAO Doc 7488) is
+// warned about: its figures are too short on any day with a lower QNH.
+func TestTemplateHighQNHWarns(t *testing.T) {
+	data, err := fs.ReadFile(templates.FS, "cards/a5.yaml")
+	require.NoError(t, err)
+	doc, err := Parse("t.yaml", data)
+	require.NoError(t, err)
+	assert.Empty(t, doc.Warnings, "the a5 preset assumes 1000 hPa")
+	doc, err = Parse("t.yaml", []byte(strings.Replace(string(data), "qnh: 1000 hPa", "qnh: 1030 hPa", 1)))
+	require.NoError(t, err)
+	require.Len(t, doc.Warnings, 1)
+	assert.Contains(t, doc.Warnings[0], "t.yaml:")
+	assert.Contains(t, doc.Warnings[0], "qnh: 1030 hPa is above the standard 1013.25 hPa")
 }

@@ -73,7 +73,15 @@ func (d *decoder) cardTemplate(m *mapping) *CardTemplate {
 		d.notef("temperature_unit not given: temperatures in C")
 	}
 	t.Policy = m.oneOf("policy", true, "uk-advisory", "eu-class-b")
-	t.QNHPa, _ = m.quantity("qnh", units.Pressure, true, 90000, 105000)
+	if q, ok := m.quantity("qnh", units.Pressure, true, 90000, 105000); ok {
+		t.QNHPa = q
+		// A card holds for its QNH and above: one assumed above the standard
+		// atmosphere's leaves out most days (a 1030 typed for 1003 puts the pressure
+		// altitude about 730 ft low: 27 ft per hPa, ICAO Doc 7488 near sea level).
+		if q > perf.ISASeaLevelPressurePa+1e-6 {
+			d.warnf(m.vals["qnh"], "qnh", "%s is above the standard 1013.25 hPa: the card's figures hold only at this QNH or above, so on a day with a lower QNH they are too short; a low QNH such as 1000 hPa covers most days", m.vals["qnh"].Value)
+		}
+	}
 	if v, ok := m.quantity("tight_margin", units.Percent, true, 0, 50); ok {
 		t.TightMargin = v / 100
 	}
