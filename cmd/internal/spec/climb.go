@@ -174,7 +174,7 @@ func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool, mtowNode *ya
 		t.RateMS = append(t.RateMS, b.rates)
 		allNodes = append(allNodes, b.nodes)
 	}
-	if !d.climbMonotone(t, allNodes) {
+	if !d.climbMonotone(t, allNodes, bs[0].index == typedtable.Single) {
 		return nil
 	}
 	if mtowOK && t.WeightKg[len(t.WeightKg)-1] < mtow-1e-9 {
@@ -241,14 +241,19 @@ func (d *decoder) rateRows(m *mapping, rows, cols int, factor float64, unit stri
 // climbMonotone refuses rates that rise with pressure altitude, temperature or
 // weight: a flight manual never prints that (thinner air and a heavier aircraft climb
 // worse: common practice), so it is a typing slip; kneeprint's use of the lowest
-// value below an axis is conservative only because of it.
-func (d *decoder) climbMonotone(t *perf.ClimbTable, nodes [][][]*yaml.Node) bool {
+// value below an axis is conservative only because of it. A block of several is
+// named by its weight (blocks are sorted by weight here); single, one table without
+// weights, by its own field path (climb.rate_of_climb[1][2]).
+func (d *decoder) climbMonotone(t *perf.ClimbTable, nodes [][][]*yaml.Node, single bool) bool {
 	ok := true
 	for w := range t.WeightKg {
 		for p := range t.PressureAltM {
 			for k := range t.TempK {
 				v, n := t.RateMS[w][p][k], nodes[w][p][k]
 				where := fmt.Sprintf("climb (%.0f kg).rate_of_climb[%d][%d]", t.WeightKg[w], p, k)
+				if single {
+					where = fmt.Sprintf("climb.rate_of_climb[%d][%d]", p, k)
+				}
 				switch {
 				case k > 0 && v > t.RateMS[w][p][k-1]+1e-9:
 					d.errorf(n, where, "rate of climb rises as temperature rises: check the typing")

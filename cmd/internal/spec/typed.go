@@ -148,3 +148,27 @@ func CheckTable(file string, n *yaml.Node) ([]*typedtable.Table, []string, error
 	d.outlierWarnings()
 	return d.typed, d.warns, d.result().Err()
 }
+
+// CheckLanding reads a profile's landing section given as a YAML mapping node (built
+// by a reader of another format, with that format's lines and columns) with exactly
+// the loader's checks, for a profile not known: the MTOW is taken as the largest
+// mass the loader accepts, so a mass is checked against the profile's own MTOW only
+// once the section is in a profile. It returns the landing tables as typed and the
+// outlier warnings; the error, when not nil, is an ErrorList.
+func CheckLanding(file string, n *yaml.Node) ([]*typedtable.Table, []string, error) {
+	d := &decoder{file: file}
+	d.landing(n, &perf.Aircraft{}, map[string]float64{}, maxMassKg, true)
+	d.checkPrinted(&yaml.Node{Kind: yaml.MappingNode, Content: []*yaml.Node{{Kind: yaml.ScalarNode, Value: "landing"}, n}}, KindAircraft)
+	d.outlierWarnings()
+	return d.typed, d.warns, d.result().Err()
+}
+
+// CheckClimb reads a profile's climb section given as a YAML mapping node, as
+// CheckLanding does (a table given without weights is taken as the MTOW's). It
+// returns the rate-of-climb table as typed and the outlier warnings.
+func CheckClimb(file string, n *yaml.Node) ([]*typedtable.Table, []string, error) {
+	d := &decoder{file: file}
+	d.climb(n, &perf.Aircraft{MTOWKg: maxMassKg}, false, true, nil)
+	d.outlierWarnings()
+	return d.typed, d.warns, d.result().Err()
+}
