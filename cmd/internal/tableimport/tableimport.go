@@ -36,6 +36,7 @@ import (
 	"io"
 	"strconv"
 	"strings"
+	"unicode"
 
 	"gopkg.in/yaml.v3"
 
@@ -442,6 +443,18 @@ func (b *builder) settingPath(key string) string {
 	return b.kind.section + "." + key
 }
 
+// comment is text as a YAML comment may hold it: as it is when every character is
+// printable, else quoted with Go's escapes (a YAML parser refuses a control character
+// even in a comment; the pressure-altitude parser takes a form feed for a space).
+func comment(s string) string {
+	for _, r := range s {
+		if !unicode.IsPrint(r) {
+			return strconv.QuoteToGraphic(s)
+		}
+	}
+	return s
+}
+
 // YAML trees carrying the CSV's lines and columns, for the loader's checks.
 
 var origin = cell{line: 1, col: 1}
@@ -621,7 +634,7 @@ func (b *builder) yaml(k Kind, name string) []byte {
 			for _, c := range r {
 				s = append(s, c.text)
 			}
-			fmt.Fprintf(&w, "%s- [%s]  # %s\n", indent, strings.Join(s, ", "), b.alts[i].text)
+			fmt.Fprintf(&w, "%s- [%s]  # %s\n", indent, strings.Join(s, ", "), comment(b.alts[i].text))
 		}
 	}
 	table := func(indent string) {
