@@ -21,13 +21,17 @@ type importOptions struct {
 func newImportCmd(e env) *cobra.Command {
 	opts := &importOptions{}
 	cmd := &cobra.Command{
-		Use:   "import table FILE.csv [-o FILE] [--force]",
-		Short: "Turn a takeoff table typed in a spreadsheet (CSV) into a profile's table section",
-		Long: `import table reads a flight manual's takeoff table typed in a spreadsheet and saved as
-CSV, checks it exactly as validate checks a profile's table (each problem named with
-the CSV's line and column), lists the figures that break the smooth pattern of their
-neighbours, and prints the profile's table section as YAML to paste into the profile
-(or writes it to FILE with -o; an existing FILE is replaced only with --force).
+		Use:   "import table|landing|climb FILE.csv [-o FILE] [--force]",
+		Short: "Turn a takeoff, landing or rate-of-climb table typed in a spreadsheet (CSV) into a profile's section",
+		Long: `import reads a flight manual's table typed in a spreadsheet and saved as CSV, checks it
+exactly as validate checks that section of a profile (each problem named with the
+CSV's line and column), lists the figures that break the smooth pattern of their
+neighbours, and prints the profile's section as YAML to paste into the profile (or
+writes it to FILE with -o; an existing FILE is replaced only with --force):
+
+  import table FILE.csv     the takeoff table: the profile's table section
+  import landing FILE.csv   the landing table: the profile's landing section
+  import climb FILE.csv     the rate-of-climb table: the profile's climb section
 
 The CSV: settings first, then one block per weight, in the manual's unit:
 
@@ -43,19 +47,28 @@ The CSV: settings first, then one block per weight, in the manual's unit:
   weight,900 kg
   ...
 
-The ground_roll and to_50ft lines carry the temperatures; each row begins with its
-pressure altitude; every block has the same temperatures and pressure altitudes.
-Figures are plain numbers (no thousands separator). Commas, semicolons or tabs
-separate cells. Without wind_factoring_included the YAML leaves it for you to answer.
+The quantity lines carry the temperatures; each row begins with its pressure
+altitude; every block has the same temperatures and pressure altitudes. A landing
+table has ground_roll and from_50ft (and may give flap,30° among its settings); a
+climb table has rate_unit (ft/min or m/s) and speed (the climb speed, e.g. 70 kt)
+as settings and rate_of_climb rows, and may leave out the weight lines (one table,
+for the MTOW). Figures are plain numbers (no thousands separator). Commas,
+semicolons or tabs separate cells. Without wind_factoring_included, flap or speed,
+the YAML leaves them for you to answer.
 
 ` + caution,
 		Example: `  kneeprint import table trainer-takeoff.csv > table.yaml
-  kneeprint import table trainer-takeoff.csv -o table.yaml`,
+  kneeprint import landing trainer-landing.csv -o landing.yaml
+  kneeprint import climb trainer-climb.csv`,
 		Args: cobra.ExactArgs(2),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			opts.what, opts.file = args[0], args[1]
-			if opts.what != "table" {
-				return fmt.Errorf("import: %q: only a takeoff table can be imported (import table FILE.csv)", opts.what)
+			known := false
+			for _, k := range tableimport.Kinds {
+				known = known || string(k) == opts.what
+			}
+			if !known {
+				return fmt.Errorf("import: %q: import table (the takeoff table), landing or climb, then the CSV file", opts.what)
 			}
 			return importRun(e, opts)
 		},
@@ -75,7 +88,7 @@ func importRun(e env, opts *importOptions) error {
 	if err != nil {
 		return dataError{err}
 	}
-	res, err := tableimport.Import(opts.file, data)
+	res, err := tableimport.Import(tableimport.Kind(opts.what), opts.file, data)
 	if err != nil {
 		var list spec.ErrorList
 		if errors.As(err, &list) {
@@ -89,8 +102,8 @@ func importRun(e env, opts *importOptions) error {
 	for _, w := range res.Warnings {
 		fmt.Fprintf(e.stderr, "warning: %s\n", w)
 	}
-	if !res.WindFactoringGiven {
-		fmt.Fprintln(e.stderr, "note: answer table.wind_factoring_included (true or false) in the YAML: the CSV does not say")
+	for _, field := range res.Unanswered {
+		fmt.Fprintf(e.stderr, "note: answer %s in the YAML: the CSV does not say\n", field)
 	}
 	if opts.out == "" {
 		_, err := e.stdout.Write(res.YAML)

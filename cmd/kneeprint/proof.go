@@ -38,18 +38,21 @@ func newProofCmd(e env) *cobra.Command {
 		Long: `proof writes one PDF per file into the folder DIR (NAME-proof.pdf), to print and hold
 beside the flight manual or the aerodrome chart:
 
-  aircraft profile: its table re-printed exactly as typed, laid out like a manual's page
-  (rows pressure altitude, columns temperature, one block per weight, in the table's
-  unit) with a box to tick per figure and the file lines of each row; a plot of every
-  row (distance against temperature, one curve per pressure altitude, one panel per
-  weight and per ground roll / 50 ft); every figure that breaks the smooth pattern of
-  its neighbours circled and listed with its file:line (the rule is on the sheet and in
-  the README); the correction notes in words; the physics description, fitted values
-  and residuals when the profile has them; the reference figures of validate.
+  aircraft profile: its tables (takeoff, rate of climb, landing) re-printed exactly as
+  typed, laid out like a manual's page (rows pressure altitude, columns temperature,
+  one block per weight, in the table's unit) with a box to tick per figure and the
+  file lines of each row; a plot of every row (figure against temperature, one curve
+  per pressure altitude, one panel per weight and per quantity); every figure that
+  breaks the smooth pattern of its neighbours circled and listed with its file:line
+  (the rule is on the sheet and in the README); the correction notes in words; the
+  climb speed and where the rates come from; the landing flap, approach speed and
+  maximum landing mass; the physics descriptions, fitted values and residuals (takeoff
+  and landing) when the profile has them; the reference figures of validate.
 
-  airfield: the data as typed, and a to-scale drawing of each runway: its ends and
-  headings, TORA, TODA, ASDA and LDA as bars, clearway and stopway, displaced starts
-  and thresholds, the slope.
+  airfield: the data and the obstacles as typed, and a to-scale drawing of each
+  runway: its ends and headings, TORA, TODA, ASDA and LDA as bars, clearway and
+  stopway, displaced starts and thresholds, the slope, and each obstacle past the end
+  of the TORA where it stands.
 
 A file with errors gets no sheet: its errors are listed as validate lists them, the
 other files are still proofed, and proof exits 1. Each PDF is written whole or not at

@@ -16,6 +16,10 @@ import (
 
 const plantedFile = "../internal/proof/testdata/planted.yaml"
 
+// plantedClimbFile has a slip in its climb table (one table for the MTOW): 360 typed
+// 306 on the row "- [306, 280, 200, 120]".
+const plantedClimbFile = "../internal/proof/testdata/planted-climb.yaml"
+
 // plantedLine is the line of the planted transposition (1580 typed for 1850).
 func plantedLine(t *testing.T) (line, col int) {
 	data, err := os.ReadFile(plantedFile)
@@ -30,17 +34,23 @@ func plantedLine(t *testing.T) (line, col int) {
 }
 
 // proof end to end: a sheet per file, valid PDFs, byte-identical for the same
-// --date, the planted slip counted and named with its line.
+// --date, the planted slips (in a takeoff table and in a climb table) counted and
+// named with their lines.
 func TestProofCommand(t *testing.T) {
 	dir := t.TempDir()
-	code, out, errOut := runCLI(t, "proof", "demo:sedgefin-sf2", "demo:quillwing-qt6", "demo:wrenmoor", "demo:saltpan", plantedFile, "-o", dir, "--date", "2027-03-01")
+	code, out, errOut := runCLI(t, "proof", "demo:sedgefin-sf2", "demo:quillwing-qt6", "demo:wrenmoor", "demo:saltpan", plantedFile, plantedClimbFile, "-o", dir, "--date", "2027-03-01")
 	require.Equal(t, exitOK, code, "stdout %s\nstderr %s", out, errOut)
 	assert.Contains(t, out, "sedgefin-sf2-proof.pdf (0 figure(s) off the smooth pattern of their neighbours)")
 	assert.Contains(t, out, "planted-proof.pdf (1 figure(s) off the smooth pattern of their neighbours)")
 	line, col := plantedLine(t)
 	assert.Contains(t, out, "  ! "+plantedFile+":"+strconv.Itoa(line)+":"+strconv.Itoa(col)+": table.weights[2].to_50ft[2][2]: distance to 50 ft 1580")
+	assert.Contains(t, out, "planted-climb-proof.pdf (1 figure(s) off the smooth pattern of their neighbours)")
+	climb, err := os.ReadFile(plantedClimbFile)
+	require.NoError(t, err)
+	climbLine := 1 + strings.Count(string(climb[:bytes.Index(climb, []byte("- [306,"))]), "\n")
+	assert.Contains(t, out, "  ! "+plantedClimbFile+":"+strconv.Itoa(climbLine)+":8: climb.rate_of_climb[3][0]: rate of climb 306 (MTOW 1000 kg, 6000 ft, -20 C) breaks the smooth pattern")
 	conf := model.NewDefaultConfiguration()
-	for _, name := range []string{"sedgefin-sf2", "quillwing-qt6", "wrenmoor", "saltpan", "planted"} {
+	for _, name := range []string{"sedgefin-sf2", "quillwing-qt6", "wrenmoor", "saltpan", "planted", "planted-climb"} {
 		data, err := os.ReadFile(filepath.Join(dir, name+"-proof.pdf"))
 		require.NoError(t, err, name)
 		require.NoError(t, api.Validate(bytes.NewReader(data), conf), name)
@@ -54,7 +64,7 @@ func TestProofCommand(t *testing.T) {
 	assert.True(t, bytes.Equal(first, second), "same file and --date: same bytes")
 	entries, err := os.ReadDir(dir)
 	require.NoError(t, err)
-	assert.Len(t, entries, 5, "nothing but the sheets (no temporaries left)")
+	assert.Len(t, entries, 6, "nothing but the sheets (no temporaries left)")
 }
 
 // A file with errors gets no sheet, its errors are listed with their lines, the other

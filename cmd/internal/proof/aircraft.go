@@ -32,10 +32,7 @@ func writeAircraft(w io.Writer, src Source, doc *spec.Document, opt Options) err
 
 	if len(doc.Tables) > 0 {
 		s.heading("Cells that break the smooth pattern of their neighbours")
-		s.para(fmt.Sprintf("Rule: each figure is predicted from its neighbours along each axis with 3 or more values (temperature, "+
-			"pressure altitude, weight), on a straight line through the logarithms of its two neighbours (the two nearest at the "+
-			"end of an axis). A figure is listed when it is more than %g %% off every such prediction, beyond what rounding to the "+
-			"table's step (%g %s) explains. A listed figure may be right: check it against the manual.", typedtable.OutlierThresholdPct, typedtable.Step(doc.Tables[0]), doc.Tables[0].Unit))
+		s.para(outlierRule(doc.Tables))
 		if len(order) == 0 {
 			s.para(fmt.Sprintf("None. The largest deviation of any figure from its neighbours' prediction is %.1f %%.", largestDeviation(doc.Tables)))
 		} else {
@@ -45,7 +42,7 @@ func writeAircraft(w io.Writer, src Source, doc *spec.Document, opt Options) err
 	}
 
 	if t := a.Table; t != nil {
-		s.heading("The manual's correction notes, in words")
+		s.heading("The manual's takeoff correction notes, in words")
 		for _, n := range correctionNotes(t) {
 			s.para(n)
 		}
@@ -64,6 +61,8 @@ func writeAircraft(w io.Writer, src Source, doc *spec.Document, opt Options) err
 			s.pdf.Ln(1)
 		}
 	}
+	s.climbSection(doc)
+	s.landingSection(doc)
 	if len(doc.Warnings) > 0 {
 		s.heading("Warnings of the loader (validate)")
 		for _, w := range doc.Warnings {
@@ -72,11 +71,16 @@ func writeAircraft(w io.Writer, src Source, doc *spec.Document, opt Options) err
 	}
 
 	for _, g := range groupByAxes(doc.Tables) {
+		name := sectionName(g[0].Section)
 		s.pdf.AddPage()
-		s.heading(fmt.Sprintf("The table as typed (%s), one block per weight", g[0].Section))
+		per := "one block per weight"
+		if len(g[0].Blocks) == 1 && g[0].Blocks[0].Index == typedtable.Single {
+			per = "one table for the MTOW"
+		}
+		s.heading(fmt.Sprintf("The %s as typed (%s), %s", name, g[0].Section, per))
 		s.manualTables(g, flagged)
 		s.pdf.AddPage()
-		s.heading(fmt.Sprintf("Every row of the table (%s) plotted", g[0].Section))
+		s.heading(fmt.Sprintf("Every row of the %s (%s) plotted", name, g[0].Section))
 		if err := s.rowPlots(g, flagged); err != nil {
 			return err
 		}
@@ -85,7 +89,55 @@ func writeAircraft(w io.Writer, src Source, doc *spec.Document, opt Options) err
 		s.pdf.AddPage()
 		s.physics(doc)
 	}
+	if a.Landing != nil && a.Landing.Physics != nil {
+		s.pdf.AddPage()
+		s.landingPhysics(doc)
+	}
 	return s.finish(w)
+}
+
+// sectionName names a typed table's section in words.
+func sectionName(section string) string {
+	switch section {
+	case "table":
+		return "takeoff table"
+	case "landing.table":
+		return "landing table"
+	case "climb":
+		return "rate-of-climb table"
+	}
+	return "table"
+}
+
+// outlierRule states the outlier rule as it applies to the profile's tables, with
+// each table's rounding step.
+func outlierRule(tables []*typedtable.Table) string {
+	var steps []string
+	linear := false
+	for _, g := range groupByAxes(tables) {
+		same := true
+		for _, t := range g {
+			same = same && typedtable.Step(t) == typedtable.Step(g[0])
+			linear = linear || t.Linear
+		}
+		for _, t := range g {
+			if same {
+				steps = append(steps, fmt.Sprintf("%s %g %s", sectionName(t.Section), typedtable.Step(t), t.Unit))
+				break
+			}
+			steps = append(steps, fmt.Sprintf("%s %s %g %s", sectionName(t.Section), t.Quantity, typedtable.Step(t), t.Unit))
+		}
+	}
+	rule := fmt.Sprintf("Rule: each figure is predicted from its neighbours along each axis with 3 or more values (temperature, "+
+		"pressure altitude, weight), on a straight line through the logarithms of its two neighbours (the two nearest at the "+
+		"end of an axis). A figure is listed when it is more than %g %% off every such prediction, beyond what rounding to the "+
+		"table's step (%s) explains.", typedtable.OutlierThresholdPct, strings.Join(steps, "; "))
+	if linear {
+		rule += fmt.Sprintf(" A rate of climb falls about linearly with altitude and temperature and may be zero or negative near the "+
+			"ceiling: it is predicted on the straight line through its neighbours themselves, not their logarithms, and its deviation "+
+			"is measured in per cent of the larger of the prediction and %g %% of the table's largest rate.", typedtable.LinearFloorFraction*100)
+	}
+	return rule + " A listed figure may be right: check it against the manual."
 }
 
 func up(x float64) float64 { return math.Ceil(x - 1e-6) }
@@ -208,8 +260,14 @@ func (s *sheet) physics(doc *spec.Document) {
 		{"propeller efficiency", fmt.Sprintf("%.3f (the fit started from %.2f; physical bounds %.2f to %.2f)", c.Eta, c.StartEta, perf.MinPropEfficiency, perf.MaxPropEfficiency)},
 		{"largest residual", fmt.Sprintf("%.1f %% (at most %.0f %% accepted)", c.LargestPct, perf.CalibrationTolerancePct)},
 	})
+	s.residualTable(doc.Residuals())
+}
+
+// residualTable lists the figures a physics model was fitted to, each with its
+// line, the manual's figure, the fitted model's and the residual.
+func (s *sheet) residualTable(res []spec.Residual) {
 	var rows [][]string
-	for _, r := range doc.Residuals() {
+	for _, r := range res {
 		fit, pct := fmt.Sprintf("%.0f", r.ModelM), fmt.Sprintf("%+.1f", r.Pct)
 		if r.Err != "" {
 			fit, pct = "none", r.Err

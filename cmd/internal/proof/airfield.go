@@ -18,28 +18,93 @@ import (
 )
 
 // obstacle is something to clear beyond the end of a runway, as the schematic draws
-// it: DistanceM past the end of the runway in the direction of takeoff.
+// it: DistanceM past the end of the TORA (the far end of the runway in the direction
+// of takeoff), HeightM above the ground there (perf.Obstacle, as the loader resolved
+// it), and the file line it is typed on.
 type obstacle struct {
 	DistanceM float64
 	HeightM   float64
+	LateralM  float64 // right of the extended centre line as seen taking off, positive
 	Note      string
+	Line      int // 0 when unknown
 }
 
-// endView is a runway end as the schematic draws it. Obstacles are drawn when an end
-// has them; the airfield file does not describe them yet (endViews leaves them
-// empty): reading them is the one addition a file with obstacles needs here.
+// at is where the schematic draws o, in metres along the drawing: the first end
+// takes off to the right, the end of its TORA at x = length; the second to the left,
+// the end of its TORA at x = 0 (as declared draws the bars).
+func (o obstacle) at(length float64, first bool) float64 {
+	if first {
+		return length + o.DistanceM
+	}
+	return -o.DistanceM
+}
+
+// endView is a runway end as the schematic draws it, with its obstacles.
 type endView struct {
 	perf.RunwayEnd
 	Obstacles []obstacle
 }
 
-// endViews is a runway's ends as the schematic draws them.
-func endViews(r perf.Runway) []endView {
+// endViews is the ends of runway ri of the airfield doc as the schematic draws them.
+func endViews(doc *spec.Document, ri int, r perf.Runway) []endView {
 	out := make([]endView, len(r.Ends))
 	for i, e := range r.Ends {
 		out[i] = endView{RunwayEnd: e}
+		for k, o := range e.Obstacles {
+			out[i].Obstacles = append(out[i].Obstacles, obstacle{DistanceM: o.PastEndM, HeightM: o.HeightM, LateralM: o.LateralM, Note: o.Note,
+				Line: firstLine(doc, fmt.Sprintf("runways[%d].ends[%d].obstacles[%d].", ri, i, k))})
+		}
 	}
 	return out
+}
+
+// firstLine is the first line of the file holding a value under the field path
+// prefix (runways[0].ends[1].obstacles[0].), 0 when none does.
+func firstLine(doc *spec.Document, prefix string) int {
+	line := 0
+	for f, v := range doc.Scalars {
+		if strings.HasPrefix(f, prefix) && (line == 0 || v.Line < line) {
+			line = v.Line
+		}
+	}
+	return line
+}
+
+// obstacleRows lists every obstacle of the airfield as typed (height or elevation,
+// distance past the end of the TORA or from the start of the run, lateral offset)
+// beside what the loader made of it, with its file line.
+func obstacleRows(doc *spec.Document) [][]string {
+	var rows [][]string
+	for ri, r := range doc.Airfield.Runways {
+		for ei, e := range r.Ends {
+			for k, o := range e.Obstacles {
+				path := fmt.Sprintf("runways[%d].ends[%d].obstacles[%d].", ri, ei, k)
+				typed := func(keys ...string) string {
+					for _, key := range keys {
+						if v, ok := doc.Scalars[path+key]; ok {
+							return fmt.Sprintf("%s: %s", key, v.Text)
+						}
+					}
+					return "-"
+				}
+				lateral := "not given"
+				if v, ok := doc.Scalars[path+"lateral"]; ok {
+					lateral = v.Text
+				}
+				line := ""
+				if l := firstLine(doc, path); l > 0 {
+					line = fmt.Sprint(l)
+				}
+				rows = append(rows, []string{
+					e.Designator, line, o.Note,
+					typed("height", "elevation"), fmt.Sprintf("%.0f ft (%.1f m)", units.Feet(o.HeightM), o.HeightM),
+					typed("past_end", "from_start"), fmt.Sprintf("%.0f m", o.PastEndM),
+					lateral,
+				})
+			}
+		}
+	}
+	return rows
 }
 
 // writeAirfield writes an airfield's proof sheet: the data as typed, then a to-scale
@@ -100,6 +165,14 @@ func writeAirfield(w io.Writer, src Source, doc *spec.Document, opt Options) err
 	}
 	s.table([]column{{"end", 9, "L"}, {"line", 9, "R"}, {"heading", 17, "L"}, {"TORA", 14, "R"}, {"TODA", 14, "R"}, {"ASDA", 14, "R"},
 		{"LDA", 14, "R"}, {"threshold elevation", 17, "R"}, {"slope", 13, "R"}, {"surface", 17, "L"}, {"notes", 0, "L"}}, rows, nil)
+	if rows := obstacleRows(doc); len(rows) > 0 {
+		s.heading("Obstacles past the runway ends, as typed")
+		s.para("Each obstacle as the file gives it, and as kneeprint takes it: its top above the ground at the end of the TORA (an elevation less the " +
+			"other end's threshold elevation) and its distance past the end of the TORA (a distance from the start of the run less the TORA). " +
+			"Compare them with the obstacle data of the aerodrome chart. The cards count every obstacle listed, whatever its lateral offset.")
+		s.table([]column{{"end", 9, "L"}, {"line", 9, "R"}, {"obstacle", 0, "L"}, {"top, as typed", 27, "L"}, {"above the end of the TORA", 24, "R"},
+			{"distance, as typed", 29, "L"}, {"past the end of the TORA", 20, "R"}, {"lateral", 20, "L"}}, rows, nil)
+	}
 	if len(doc.Warnings) > 0 {
 		s.heading("Warnings of the loader (validate)")
 		for _, w := range doc.Warnings {
@@ -108,13 +181,14 @@ func writeAirfield(w io.Writer, src Source, doc *spec.Document, opt Options) err
 	}
 	for i, r := range a.Runways {
 		length := runwayLength(doc, i, r)
-		views := endViews(r)
-		s.heading(runwayHeading(doc, i, r, length))
+		views := endViews(doc, i, r)
 		p, err := s.schematic(views, length)
 		if err != nil {
 			return err
 		}
 		h := 22 + 9*float64(lanes(pick(views, 0), length)+lanes(pick(views, 1), length)-1)
+		s.ensure(h + 10) // the heading stays with its drawing
+		s.heading(runwayHeading(doc, i, r, length))
 		s.ensure(h)
 		y := s.pdf.GetY()
 		p.Draw(draw.New(newCanvas(s.pdf, s.margin, y, s.width(), h)))
@@ -286,15 +360,33 @@ func (s *sheet) schematic(views []endView, length float64) (*plot.Plot, error) {
 			}
 			lane++
 		}
-		if len(v.Obstacles) > 0 {
+		// Each obstacle on a lane of its own: a dotted ground line from the end of
+		// the TORA (the far end of the runway) to where it stands, to scale, and a
+		// mark there, its words above the line.
+		for _, o := range v.Obstacles {
 			y := lane * sign
-			ticks = append(ticks, plot.Tick{Value: y, Label: v.Designator + " obstacles"})
-			for _, o := range v.Obstacles {
-				x := far + dir*o.DistanceM
-				lo, hi = math.Min(lo, x), math.Max(hi, x)
-				poly(plotter.XYs{{X: x - length*0.012, Y: y - 0.3}, {X: x + length*0.012, Y: y - 0.3}, {X: x, Y: y + 0.3}}, color.Black, 0, false)
-				labels = append(labels, labelAt{x - dir*length*0.02, y, joinNonEmpty(", ", fmt.Sprintf("%.0f ft, %.0f m past the end", units.Feet(o.HeightM), o.DistanceM), o.Note), back, false, color.Black})
+			x := o.at(length, i == 0)
+			lo, hi = math.Min(lo, x), math.Max(hi, x)
+			var reach *plotter.Line
+			if reach, err = plotter.NewLine(plotter.XYs{{X: far, Y: y - 0.3}, {X: x, Y: y - 0.3}}); err != nil {
+				return nil, err
 			}
+			reach.LineStyle = draw.LineStyle{Color: color.Black, Width: vg.Points(0.7), Dashes: []vg.Length{vg.Points(1), vg.Points(1.5)}}
+			p.Add(reach)
+			poly(plotter.XYs{{X: x - length*0.012, Y: y - 0.3}, {X: x + length*0.012, Y: y - 0.3}, {X: x, Y: y + 0.3}}, color.Black, 0, false)
+			ticks = append(ticks, plot.Tick{Value: y, Label: fmt.Sprintf("%s obstacle: %s", v.Designator, o.Note)})
+			what := fmt.Sprintf("%.0f ft, %.0f m past the end of the TORA", units.Feet(o.HeightM), o.DistanceM)
+			switch {
+			case o.LateralM < 0:
+				what += fmt.Sprintf(", %.0f m left", -o.LateralM)
+			case o.LateralM > 0:
+				what += fmt.Sprintf(", %.0f m right", o.LateralM)
+			}
+			if o.Line > 0 {
+				what += fmt.Sprintf(" (line %d)", o.Line)
+			}
+			labels = append(labels, labelAt{x - dir*length*0.02, y + 0.05, what, back, false, color.Black})
+			lane++
 		}
 	}
 	// The slope: an arrow pointing uphill, in the middle of the strip.
@@ -320,11 +412,7 @@ func (s *sheet) schematic(views []endView, length float64) (*plot.Plot, error) {
 
 // lanes is the number of lanes an end's bars and obstacles take, plus one.
 func lanes(v endView, length float64) int {
-	n := len(declared(v, length, true)) + 1
-	if len(v.Obstacles) > 0 {
-		n++
-	}
-	return n
+	return len(declared(v, length, true)) + len(v.Obstacles) + 1
 }
 
 func pick(vs []endView, i int) endView {

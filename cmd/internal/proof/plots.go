@@ -74,7 +74,11 @@ func temperatureAxis(ls []typedtable.Label) ([]float64, string) {
 func (s *sheet) rowPlot(t *typedtable.Table, b int, xs []float64, tUnit string, flagged map[cellKey]typedtable.Outlier) (*plot.Plot, error) {
 	bl := t.Blocks[b]
 	p := s.fonts.newPlot(fmt.Sprintf("%s, %s", t.Quantity, bl.Weight.Text), fmt.Sprintf("temperature (%s)", tUnit), fmt.Sprintf("%s (%s)", t.Quantity, t.Unit))
-	p.Legend.Top, p.Legend.Left = true, true
+	// The legend in a corner the curves leave empty: distances rise with
+	// temperature (top left); rates of climb fall, and may fall to zero and below,
+	// so their temperature axis runs on past the last column to leave room at the
+	// right (see below).
+	p.Legend.Top, p.Legend.Left = true, !t.Linear
 	p.Legend.Padding = vg.Points(2)
 	p.Legend.ThumbnailWidth = vg.Points(16)
 	// The columns of the table are the ticks of the temperature axis.
@@ -106,6 +110,18 @@ func (s *sheet) rowPlot(t *typedtable.Table, b int, xs []float64, tUnit string, 
 		scatter.GlyphStyle = draw.GlyphStyle{Color: line.Color, Radius: vg.Points(2), Shape: glyphs[r%len(glyphs)]}
 		p.Add(line, scatter)
 		p.Legend.Add(pa.Text, line, scatter)
+	}
+	if t.Linear && len(xs) > 1 {
+		// The rate axis from zero (the ceiling a rate falls toward) or the lowest
+		// rate below it; the temperature axis 40 % past the last column, for the legend.
+		lo := 0.0
+		for _, row := range bl.Rows {
+			for _, c := range row {
+				lo = min(lo, c.Value)
+			}
+		}
+		p.Y.Min = lo
+		p.X.Min, p.X.Max = xs[0], xs[len(xs)-1]+0.4*(xs[len(xs)-1]-xs[0])
 	}
 	if len(rings) > 0 {
 		ring, err := plotter.NewScatter(rings)

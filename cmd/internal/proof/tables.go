@@ -103,7 +103,14 @@ func (s *sheet) manualTables(group []*typedtable.Table, flagged map[cellKey]type
 			if nt > perChunk {
 				part = fmt.Sprintf(" (temperatures %d to %d of %d)", c0+1, c0+cols, nt)
 			}
-			s.pdf.MultiCell(s.width(), 5, fmt.Sprintf("%s: %s, %s%s (weights[%d], line %d)", bl.Weight.Text, what, t0.Unit, part, bl.Index, bl.Weight.Line), "", "L", false)
+			where := fmt.Sprintf("%s, line %d", t0.BlockField(b), bl.Weight.Line)
+			switch {
+			case bl.Index == typedtable.Single && bl.Weight.Line > 0:
+				where = fmt.Sprintf("%s.%s, the MTOW on line %d", t0.Section, t0.Key, bl.Weight.Line)
+			case bl.Index == typedtable.Single:
+				where = fmt.Sprintf("%s.%s", t0.Section, t0.Key)
+			}
+			s.pdf.MultiCell(s.width(), 5, fmt.Sprintf("%s: %s, %s%s (%s)", bl.Weight.Text, what, t0.Unit, part, where), "", "L", false)
 			x0, y := s.margin, s.pdf.GetY()+0.5
 			s.pdf.SetLineWidth(0.2)
 			// Header: temperatures over their quantity columns.

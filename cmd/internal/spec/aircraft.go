@@ -133,7 +133,7 @@ func (d *decoder) aircraft(m *mapping) *perf.Aircraft {
 	}
 	if cn := m.get("climb", false); cn != nil {
 		// The all-engines climb for obstacle clearance (issue 12): climb.go.
-		a.Climb = d.climb(cn, a, physNode != nil, mtowOK)
+		a.Climb = d.climb(cn, a, physNode != nil, mtowOK, m.vals["mtow"])
 	}
 	model := m.oneOf("model", tableNode != nil && physNode != nil, string(perf.ModelTable), string(perf.ModelPhysics))
 	switch {

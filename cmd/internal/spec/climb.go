@@ -7,6 +7,7 @@ import (
 
 	"gopkg.in/yaml.v3"
 
+	"kneeprint/cmd/internal/typedtable"
 	"kneeprint/cmd/internal/units"
 	"kneeprint/perf"
 )
@@ -48,7 +49,10 @@ var climbTableKeys = []string{"rate_unit", "pressure_altitudes", "temperatures",
 //	  # or, one block per weight:
 //	  # weights:
 //	  #   - {weight: 1000 kg, rate_of_climb: [[720, 640], [560, 480]]}
-func (d *decoder) climb(n *yaml.Node, a *perf.Aircraft, hasPhysics bool, mtowOK bool) *perf.Climb {
+//
+// mtowNode is the profile's mtow as typed (nil when unknown), which names the one
+// block of a table given without weights in the table as typed.
+func (d *decoder) climb(n *yaml.Node, a *perf.Aircraft, hasPhysics bool, mtowOK bool, mtowNode *yaml.Node) *perf.Climb {
 	m := d.mapping(n, "climb")
 	c := &perf.Climb{}
 	c.SpeedIASMS, _ = m.quantity("speed", units.Speed, true, minClimbSpeedKt*units.MetresPerSecPerKnot, maxClimbSpeedKt*units.MetresPerSecPerKnot)
@@ -58,7 +62,7 @@ func (d *decoder) climb(n *yaml.Node, a *perf.Aircraft, hasPhysics bool, mtowOK 
 	}
 	switch {
 	case isTable:
-		c.Table = d.climbTable(m, a.MTOWKg, mtowOK)
+		c.Table = d.climbTable(m, a.MTOWKg, mtowOK, mtowNode)
 	case !hasPhysics && n.Kind == yaml.MappingNode:
 		for _, k := range climbTableKeys {
 			m.get(k, false)
@@ -75,7 +79,9 @@ func (d *decoder) climb(n *yaml.Node, a *perf.Aircraft, hasPhysics bool, mtowOK 
 }
 
 // climbTable reads the rate-of-climb table of a climb section; nil after an error.
-func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool) *perf.ClimbTable {
+// When its blocks could be read it also keeps the table as typed (d.typed), for the
+// proof sheet and the outlier check.
+func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool, mtowNode *yaml.Node) *perf.ClimbTable {
 	t := &perf.ClimbTable{}
 	unit := m.oneOf("rate_unit", true, "ft/min", "m/s")
 	factor := rateUnits[unit]
@@ -95,6 +101,8 @@ func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool) *perf.ClimbT
 		rates [][]float64
 		nodes [][]*yaml.Node
 		node  *yaml.Node
+		index int              // position in the file's list of weights, or typedtable.Single
+		label typedtable.Label // the weight as typed
 	}
 	var bs []block
 	ok := true
@@ -129,7 +137,7 @@ func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool) *perf.ClimbT
 				ok = false
 				continue
 			}
-			bs = append(bs, block{w, rates, rn, bn})
+			bs = append(bs, block{w, rates, rn, bn, i, typedLabel(bm.vals["weight"], w)})
 		}
 	default:
 		if axesOK && len(t.PressureAltM)*len(t.TempK) > maxTableCells {
@@ -141,11 +149,20 @@ func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool) *perf.ClimbT
 			return nil
 		}
 		d.notef("climb: one rate-of-climb table, taken as the MTOW's (%.0f kg) and used at every lighter weight (conservative)", mtow)
-		bs = append(bs, block{mtow, rates, rn, m.vals["rate_of_climb"]})
+		label := typedtable.Label{Text: "MTOW", SI: mtow}
+		if mtowNode != nil {
+			label = typedtable.Label{Text: "MTOW " + mtowNode.Value, SI: mtow, Line: mtowNode.Line, Column: mtowNode.Column}
+		}
+		bs = append(bs, block{mtow, rates, rn, m.vals["rate_of_climb"], typedtable.Single, label})
 	}
 	if !ok || !axesOK || !unitOK || len(bs) == 0 {
 		return nil
 	}
+	typed := make([]typedtable.Block, len(bs)) // in file order: bs is sorted below
+	for i, b := range bs {
+		typed[i] = typedtable.Block{Index: b.index, Weight: b.label, Rows: typedCells(b.nodes)}
+	}
+	d.typedClimb(m, unit, t, typed)
 	sort.SliceStable(bs, func(i, j int) bool { return bs[i].w < bs[j].w })
 	var allNodes [][][]*yaml.Node
 	for i, b := range bs {
@@ -157,13 +174,24 @@ func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool) *perf.ClimbT
 		t.RateMS = append(t.RateMS, b.rates)
 		allNodes = append(allNodes, b.nodes)
 	}
-	if !d.climbMonotone(t, allNodes) {
+	if !d.climbMonotone(t, allNodes, bs[0].index == typedtable.Single) {
 		return nil
 	}
 	if mtowOK && t.WeightKg[len(t.WeightKg)-1] < mtow-1e-9 {
 		d.notef("climb: heaviest block %.0f kg is below the MTOW %.0f kg: heavier weights have no climb data", t.WeightKg[len(t.WeightKg)-1], mtow)
 	}
 	return t
+}
+
+// typedClimb keeps a climb section's rate-of-climb table as typed, its blocks in
+// file order, for the proof sheet and the outlier check: Section "climb", Key
+// "rate_of_climb", judged in its figures themselves (typedtable.Table.Linear: a rate
+// falls about linearly and may be zero or negative).
+func (d *decoder) typedClimb(m *mapping, unit string, t *perf.ClimbTable, blocks []typedtable.Block) {
+	d.typed = append(d.typed, &typedtable.Table{File: d.file, Quantity: "rate of climb", Short: "rate", Section: "climb", Key: "rate_of_climb", Unit: unit, Linear: true,
+		PressureAltitudes: typedLabels(m.vals["pressure_altitudes"], t.PressureAltM),
+		Temperatures:      typedLabels(m.vals["temperatures"], t.TempK),
+		Blocks:            blocks})
 }
 
 // rateRows reads rate_of_climb: rows (one per pressure altitude) of columns (one per
@@ -213,14 +241,19 @@ func (d *decoder) rateRows(m *mapping, rows, cols int, factor float64, unit stri
 // climbMonotone refuses rates that rise with pressure altitude, temperature or
 // weight: a flight manual never prints that (thinner air and a heavier aircraft climb
 // worse: common practice), so it is a typing slip; kneeprint's use of the lowest
-// value below an axis is conservative only because of it.
-func (d *decoder) climbMonotone(t *perf.ClimbTable, nodes [][][]*yaml.Node) bool {
+// value below an axis is conservative only because of it. A block of several is
+// named by its weight (blocks are sorted by weight here); single, one table without
+// weights, by its own field path (climb.rate_of_climb[1][2]).
+func (d *decoder) climbMonotone(t *perf.ClimbTable, nodes [][][]*yaml.Node, single bool) bool {
 	ok := true
 	for w := range t.WeightKg {
 		for p := range t.PressureAltM {
 			for k := range t.TempK {
 				v, n := t.RateMS[w][p][k], nodes[w][p][k]
 				where := fmt.Sprintf("climb (%.0f kg).rate_of_climb[%d][%d]", t.WeightKg[w], p, k)
+				if single {
+					where = fmt.Sprintf("climb.rate_of_climb[%d][%d]", p, k)
+				}
 				switch {
 				case k > 0 && v > t.RateMS[w][p][k-1]+1e-9:
 					d.errorf(n, where, "rate of climb rises as temperature rises: check the typing")

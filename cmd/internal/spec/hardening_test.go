@@ -41,6 +41,8 @@ func lineCases() []struct{ name, data, want string } {
 		{"line break in a printed note", strings.Replace(withNotes, "NOTE", "\"first line\\nsecond line\"", 1), `x.yaml:10:16: runways[0].ends[0].notes: a card cannot print U+000A (a line break)`},
 		{"cjk aircraft name", strings.Replace(okAircraft, "Test trainer", "練習機", 1), `x.yaml:2:7: name: a card cannot print "練" (U+7DF4)`},
 		{"emoji flap", strings.Replace(okAircraft, `"0"`, `"0 👍"`, 1), `x.yaml:7:15: takeoff_flap: a card cannot print "👍" (U+1F44D)`},
+		{"emoji landing flap", okAircraft + "landing:\n  flap: \"30 👍\"\n  table:\n    wind_factoring_included: true\n    distance_unit: m\n    pressure_altitudes: [0 ft, 2000 ft]\n    temperatures: [0 C, 30 C]\n    weights:\n      - weight: 1000 kg\n        ground_roll: [[300, 330], [340, 370]]\n        from_50ft: [[500, 550], [560, 610]]\n",
+			`x.yaml:22:9: landing.flap: a card cannot print "👍" (U+1F44D)`},
 		{"bidi override in a plan's output", "kind: plan\nname: p\naircraft: [a.yaml]\nairfields: [b.yaml]\ndate: 2027-03-01\noutput: \"cards\u202e\"\n", "x.yaml:6:9: output: contains an invisible formatting character (U+202E)"},
 		{"junk after a plan", "kind: plan\nname: p\naircraft: [a.yaml]\nairfields: [b.yaml]\ndate: 2027-03-01\noutput: cards\n...\n- more.yaml\n", "x.yaml:8:1: text after the end of the document"},
 		{"control character", strings.Replace(okAirfield, "Test field", "\"Test\\u0007field\"", 1), "x.yaml:2:7: name: contains a control character"},

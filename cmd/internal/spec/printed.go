@@ -56,6 +56,8 @@ func (d *decoder) walkPrinted(n *yaml.Node, path []string, field string) {
 		}
 	case !each && len(path) == 1 && v.Kind == yaml.ScalarNode:
 		d.printable(v, key)
+	case !each && len(path) > 1 && v.Kind == yaml.MappingNode: // landing.flap
+		d.walkPrinted(v, path[1:], key)
 	}
 }
 

@@ -114,7 +114,7 @@ func TestBadFiles(t *testing.T) {
 		}},
 		{"af-obstacle-many.yaml", []string{"af-obstacle-many.yaml:11:11: runways[0].ends[0].obstacles: 7 obstacles, at most 6"}},
 		{"af-obstacle-unprintable.yaml", []string{`af-obstacle-unprintable.yaml:11:20: runways[0].ends[0].obstacles[0].note: a card cannot print "⚡" (U+26A1)`}},
-		{"ac-climb-rising.yaml", []string{"ac-climb-rising.yaml:27:13: climb (1000 kg).rate_of_climb[0][1]: rate of climb rises as temperature rises: check the typing"}},
+		{"ac-climb-rising.yaml", []string{"ac-climb-rising.yaml:27:13: climb.rate_of_climb[0][1]: rate of climb rises as temperature rises: check the typing"}},
 		{"ac-climb-no-table.yaml", []string{"ac-climb-no-table.yaml:22:3: climb: a climb needs the manual's rate-of-climb table"}},
 		{"ac-climb-shape.yaml", []string{
 			"ac-climb-shape.yaml:22:10: climb.speed: 250 kt is outside the accepted range 40 to 150 kt",

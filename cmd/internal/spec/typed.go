@@ -7,6 +7,7 @@ import (
 	"gopkg.in/yaml.v3"
 
 	"kneeprint/cmd/internal/typedtable"
+	"kneeprint/perf"
 )
 
 // typedLabels pairs the nodes of an axis list with their values in SI.
@@ -86,7 +87,7 @@ type Residual struct {
 	Line, Column int
 	Field        string  // where the figure was read: physics.calibration[0].ground_roll
 	Point        string  // the point's conditions in words
-	Figure       string  // "ground roll" or "to 50 ft"
+	Figure       string  // "ground roll", "to 50 ft" or (landing) "from 50 ft"
 	ManualM      float64 // the manual's figure
 	ModelM       float64 // the fitted model's (0 when it gives none)
 	Pct          float64 // (model - manual) / manual x 100
@@ -99,13 +100,28 @@ func (doc *Document) Residuals() []Residual {
 	if doc.Aircraft == nil || doc.Aircraft.Physics == nil || doc.Aircraft.Physics.Calibration == nil {
 		return nil
 	}
-	c := doc.Aircraft.Physics.Calibration
+	return residuals(doc.calib, doc.Aircraft.Physics.Calibration.Fits, "to 50 ft")
+}
+
+// LandingResiduals lists every landing figure the physics landing model was fitted
+// to, with the fitted model's answer, as validate prints them (Figure "ground roll"
+// or "from 50 ft"); nil when the profile has no calibrated physics landing model.
+func (doc *Document) LandingResiduals() []Residual {
+	a := doc.Aircraft
+	if a == nil || a.Landing == nil || a.Landing.Physics == nil || a.Landing.Physics.Calibration == nil {
+		return nil
+	}
+	return residuals(doc.landingCalib, a.Landing.Physics.Calibration.Fits, "from 50 ft")
+}
+
+// residuals pairs calibration points with their fits; total names the second figure.
+func residuals(calib []calibPoint, fits []perf.PointFit, total string) []Residual {
 	var out []Residual
-	for i, cp := range doc.calib {
-		if i >= len(c.Fits) {
+	for i, cp := range calib {
+		if i >= len(fits) {
 			break
 		}
-		f := c.Fits[i]
+		f := fits[i]
 		what := cp.label
 		if !cp.p.FromTable {
 			what = pointWords(cp)
@@ -117,7 +133,7 @@ func (doc *Document) Residuals() []Residual {
 			out = append(out, Residual{Line: at.Line, Column: at.Column, Field: fld, Point: what, Figure: name, ManualM: manual, ModelM: model, Pct: pct, Err: f.Err})
 		}
 		add(cp.grAt, cp.grFld, "ground roll", cp.p.GroundRollM, f.GroundRollM, f.GroundRollPct)
-		add(cp.toAt, cp.toFld, "to 50 ft", cp.p.To50ftM, f.To50ftM, f.To50ftPct)
+		add(cp.toAt, cp.toFld, total, cp.p.To50ftM, f.To50ftM, f.To50ftPct)
 	}
 	return out
 }
@@ -129,6 +145,30 @@ func (doc *Document) Residuals() []Residual {
 func CheckTable(file string, n *yaml.Node) ([]*typedtable.Table, []string, error) {
 	d := &decoder{file: file}
 	d.table(n, 0)
+	d.outlierWarnings()
+	return d.typed, d.warns, d.result().Err()
+}
+
+// CheckLanding reads a profile's landing section given as a YAML mapping node (built
+// by a reader of another format, with that format's lines and columns) with exactly
+// the loader's checks, for a profile not known: the MTOW is taken as the largest
+// mass the loader accepts, so a mass is checked against the profile's own MTOW only
+// once the section is in a profile. It returns the landing tables as typed and the
+// outlier warnings; the error, when not nil, is an ErrorList.
+func CheckLanding(file string, n *yaml.Node) ([]*typedtable.Table, []string, error) {
+	d := &decoder{file: file}
+	d.landing(n, &perf.Aircraft{}, map[string]float64{}, maxMassKg, true)
+	d.checkPrinted(&yaml.Node{Kind: yaml.MappingNode, Content: []*yaml.Node{{Kind: yaml.ScalarNode, Value: "landing"}, n}}, KindAircraft)
+	d.outlierWarnings()
+	return d.typed, d.warns, d.result().Err()
+}
+
+// CheckClimb reads a profile's climb section given as a YAML mapping node, as
+// CheckLanding does (a table given without weights is taken as the MTOW's). It
+// returns the rate-of-climb table as typed and the outlier warnings.
+func CheckClimb(file string, n *yaml.Node) ([]*typedtable.Table, []string, error) {
+	d := &decoder{file: file}
+	d.climb(n, &perf.Aircraft{MTOWKg: maxMassKg}, false, true, nil)
 	d.outlierWarnings()
 	return d.typed, d.warns, d.result().Err()
 }

@@ -1,6 +1,8 @@
-// Package tableimport turns a flight manual's takeoff table typed in a spreadsheet
-// and saved as CSV into the table section of an aircraft profile, with the loader's
-// own checks (spec.CheckTable) reported at the CSV's lines and columns.
+// Package tableimport turns a flight manual's table typed in a spreadsheet and saved
+// as CSV into a section of an aircraft profile, with the loader's own checks
+// (spec.CheckTable, spec.CheckLanding, spec.CheckClimb) reported at the CSV's lines
+// and columns. Three kinds of table are read (Kind): the takeoff table, the landing
+// table and the rate-of-climb table.
 //
 // The CSV layout: optional settings first, then one block per weight:
 //
@@ -16,11 +18,14 @@
 //	weight,900 kg
 //	...
 //
-// A `ground_roll` or `to_50ft` line heads its rows with the temperatures; each row
-// starts with its pressure altitude. Every block has the same temperatures and
-// pressure altitudes in the same order. Blank lines and lines starting with # are
-// skipped; commas, semicolons or tabs separate the cells (the first line decides);
-// empty cells at the end of a line (a spreadsheet pads rows) are ignored.
+// A quantity line (`ground_roll`, `to_50ft`; for a landing table `ground_roll`,
+// `from_50ft`; for a climb table `rate_of_climb`) heads its rows with the
+// temperatures; each row starts with its pressure altitude. Every block has the same
+// temperatures and pressure altitudes in the same order. A climb table may leave out
+// the weight lines: it is then one table, for the MTOW. Blank lines and lines
+// starting with # are skipped; commas, semicolons or tabs separate the cells (the
+// first line decides); empty cells at the end of a line (a spreadsheet pads rows) are
+// ignored.
 package tableimport
 
 import (
@@ -31,6 +36,7 @@ import (
 	"io"
 	"strconv"
 	"strings"
+	"unicode"
 
 	"gopkg.in/yaml.v3"
 
@@ -38,14 +44,69 @@ import (
 	"kneeprint/cmd/internal/typedtable"
 )
 
+// Kind is the kind of table a CSV holds, named as the import command names it.
+type Kind string
+
+// The kinds of table.
+const (
+	Takeoff Kind = "table"   // the takeoff table: the profile's table section
+	Landing Kind = "landing" // the landing table: the profile's landing section
+	Climb   Kind = "climb"   // the rate-of-climb table: the profile's climb section
+)
+
+// Kinds lists the kinds of table, in the order the command's help names them.
+var Kinds = []Kind{Takeoff, Landing, Climb}
+
+// setting is a line the CSV may give before its first block.
+type setting struct {
+	key string
+	// pending, when not empty, makes the setting one the pilot answers when the CSV
+	// does not: the YAML leaves it empty with this comment above it, and the check
+	// reads checkAs in its place (a value the loader accepts, which no check of the
+	// figures depends on).
+	pending []string
+	checkAs string
+	tag     string // the YAML tag checkAs is read with
+}
+
+// kindSpec is what a kind of table looks like in a CSV and in a profile.
+type kindSpec struct {
+	what       string   // in words: "takeoff table"
+	quantities []string // the keys of a block's rows, in the order written
+	settings   []setting
+	// noWeights allows a table without weight lines: one table for the MTOW.
+	noWeights bool
+	// section is the path of the table in a profile, as the loader's messages name
+	// it.
+	section string
+}
+
+var windPending = []string{
+	"Does the manual's wind correction already include the certification wind factors",
+	"(only part of a headwind credited, more than all of a tailwind charged)? The chart",
+	"or its notes say so. No default: answer true or false (false when in doubt).",
+}
+
+var kinds = map[Kind]kindSpec{
+	Takeoff: {what: "takeoff table", quantities: []string{"ground_roll", "to_50ft"}, section: "table",
+		settings: []setting{{key: "distance_unit"}, {key: "wind_factoring_included", pending: windPending, checkAs: "false", tag: "!!bool"}}},
+	Landing: {what: "landing table", quantities: []string{"ground_roll", "from_50ft"}, section: "landing.table",
+		settings: []setting{{key: "flap", pending: []string{"The landing flap, as the manual names it (\"30°\", \"full\"): no default, answer it."}, checkAs: "to answer", tag: "!!str"},
+			{key: "distance_unit"}, {key: "wind_factoring_included", pending: windPending, checkAs: "false", tag: "!!bool"}}},
+	Climb: {what: "rate-of-climb table", quantities: []string{"rate_of_climb"}, section: "climb", noWeights: true,
+		settings: []setting{{key: "speed", pending: []string{"The climb speed the manual's rates are for (IAS, e.g. 70 kt): no default, answer it."}, checkAs: "70 kt", tag: "!!str"},
+			{key: "rate_unit"}}},
+}
+
 // Result is an imported table.
 type Result struct {
-	YAML     []byte              // the table section, to paste into a profile
-	Tables   []*typedtable.Table // the table as read, ground roll and distance to 50 ft
+	YAML     []byte              // the profile's section, to paste into a profile
+	Tables   []*typedtable.Table // the table as read, one per quantity
 	Warnings []string            // cells that break the smooth pattern of their neighbours
-	// WindFactoringGiven is false when the CSV does not answer
-	// wind_factoring_included: the YAML then leaves it for the pilot to answer.
-	WindFactoringGiven bool
+	// Unanswered lists the settings the CSV does not give that the pilot must answer
+	// in the YAML, as the loader names them (table.wind_factoring_included,
+	// landing.flap, climb.speed); the YAML leaves them empty.
+	Unanswered []string
 }
 
 // MaxBytes bounds a CSV file, as spec.MaxFileBytes bounds a profile.
@@ -57,9 +118,13 @@ type cell struct {
 	line, col int
 }
 
-// Import reads a CSV table. name is used in messages. The error, when not nil, is a
-// spec.ErrorList with every problem found.
-func Import(name string, data []byte) (*Result, error) {
+// Import reads a CSV table of kind k. name is used in messages. The error, when not
+// nil, is a spec.ErrorList with every problem found.
+func Import(k Kind, name string, data []byte) (*Result, error) {
+	ks, ok := kinds[k]
+	if !ok {
+		return nil, fmt.Errorf("tableimport: unknown kind of table %q", k)
+	}
 	if len(data) > MaxBytes {
 		return nil, spec.ErrorList{{File: name, Msg: fmt.Sprintf("file is %d bytes, more than the %d bytes accepted", len(data), MaxBytes)}}
 	}
@@ -68,17 +133,25 @@ func Import(name string, data []byte) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	b := &builder{file: name}
+	b := &builder{file: name, kind: ks, settings: map[string]*cell{}}
 	b.parse(lines)
 	if len(b.errs) > 0 {
 		return nil, b.errs
 	}
-	node, windGiven := b.node()
-	tables, warns, err := spec.CheckTable(name, node)
+	var tables []*typedtable.Table
+	var warns []string
+	switch k {
+	case Takeoff:
+		tables, warns, err = spec.CheckTable(name, b.tableNode())
+	case Landing:
+		tables, warns, err = spec.CheckLanding(name, b.landingNode())
+	case Climb:
+		tables, warns, err = spec.CheckClimb(name, b.climbNode())
+	}
 	if err != nil {
 		return nil, err
 	}
-	return &Result{YAML: b.yaml(name, windGiven), Tables: tables, Warnings: warns, WindFactoringGiven: windGiven}, nil
+	return &Result{YAML: b.yaml(k, name), Tables: tables, Warnings: warns, Unanswered: b.unanswered()}, nil
 }
 
 // readCSV splits the file into lines of trimmed cells with their places, skipping
@@ -131,23 +204,90 @@ func readCSV(name string, data []byte) ([][]cell, error) {
 
 // builder collects the CSV's settings and blocks.
 type builder struct {
-	file          string
-	errs          spec.ErrorList
-	distanceUnit  *cell
-	windFactoring *cell
-	alts          []cell // from the first block's first rows
-	firstKey      string // the quantity whose rows came first
-	temps         []cell // from the first block's first header
-	blocks        []block
+	file     string
+	kind     kindSpec
+	errs     spec.ErrorList
+	settings map[string]*cell // by key, as given
+	alts     []cell           // from the first block's first rows
+	firstKey string           // the quantity whose rows came first
+	temps    []cell           // from the first block's first header
+	blocks   []block
+	single   bool // a climb table without weight lines: one block, for the MTOW
 }
 
 type block struct {
-	weight cell
-	rows   map[string][][]cell // "ground_roll", "to_50ft": rows of figures
+	weight cell                // its weight line's value; empty in a single table
+	rows   map[string][][]cell // by quantity key: rows of figures
 }
 
 func (b *builder) errorf(c cell, field, format string, args ...any) {
 	b.errs = append(b.errs, &spec.FieldError{File: b.file, Line: c.line, Column: c.col, Field: field, Msg: fmt.Sprintf(format, args...)})
+}
+
+func (b *builder) isSetting(key string) bool {
+	for _, s := range b.kind.settings {
+		if s.key == key {
+			return true
+		}
+	}
+	return false
+}
+
+func (b *builder) isQuantity(key string) bool {
+	for _, q := range b.kind.quantities {
+		if q == key {
+			return true
+		}
+	}
+	return false
+}
+
+// otherKind reports, as an error at c, a line that heads the rows or gives a setting
+// of another kind of table (to_50ft in a landing table): the wrong command, or a
+// slip. It returns false for any other line.
+func (b *builder) otherKind(c cell, head string) bool {
+	for _, k := range Kinds {
+		o := kinds[k]
+		if o.section == b.kind.section {
+			continue
+		}
+		for _, q := range o.quantities {
+			if q == head {
+				b.errorf(c, head, "the rows of a %s (kneeprint import %s): a %s has %s rows", o.what, k, b.kind.what, andList(b.kind.quantities))
+				return true
+			}
+		}
+		for _, s := range o.settings {
+			if s.key == head {
+				var own []string
+				for _, s := range b.kind.settings {
+					own = append(own, s.key)
+				}
+				b.errorf(c, head, "a setting of a %s (kneeprint import %s): a %s's settings are %s", o.what, k, b.kind.what, andList(own))
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// andList joins words as a sentence lists them: "a, b and c".
+func andList(ws []string) string {
+	if len(ws) < 2 {
+		return strings.Join(ws, "")
+	}
+	return strings.Join(ws[:len(ws)-1], ", ") + " and " + ws[len(ws)-1]
+}
+
+// expected lists the first cells a line may have, for messages.
+func (b *builder) expected() string {
+	var ks []string
+	for _, s := range b.kind.settings {
+		ks = append(ks, s.key)
+	}
+	ks = append(ks, "weight")
+	ks = append(ks, b.kind.quantities...)
+	return strings.Join(ks[:len(ks)-1], ", ") + " or " + ks[len(ks)-1]
 }
 
 func (b *builder) parse(lines [][]cell) {
@@ -157,8 +297,8 @@ func (b *builder) parse(lines [][]cell) {
 	row := 0       // rows read under the current header
 	for _, l := range lines {
 		head := strings.ToLower(l[0].text)
-		switch head {
-		case "distance_unit", "wind_factoring_included":
+		switch {
+		case b.isSetting(head):
 			if cur != nil {
 				b.errorf(l[0], head, "settings come before the first weight block")
 				continue
@@ -167,20 +307,28 @@ func (b *builder) parse(lines [][]cell) {
 				b.errorf(l[0], head, "write %s and its value in the next cell, nothing more", head)
 				continue
 			}
-			if head == "distance_unit" {
-				b.distanceUnit = &l[1]
-			} else {
-				b.windFactoring = &l[1]
+			if _, dup := b.settings[head]; dup {
+				b.errorf(l[0], head, "given twice")
+				continue
 			}
-		case "weight":
+			b.settings[head] = &l[1]
+		case head == "weight":
 			if len(l) != 2 {
 				b.errorf(l[0], "weight", "write weight and its value with its unit in the next cell, e.g. weight,1000 kg")
+				continue
+			}
+			if b.single {
+				b.errorf(l[0], "weight", "the rows above have no weight line: a table without weight lines is one table, for the MTOW; give every block its weight line, or none")
 				continue
 			}
 			b.endBlock(cur, key, keyAt, row)
 			b.blocks = append(b.blocks, block{weight: l[1], rows: map[string][][]cell{}})
 			cur, key, row = &b.blocks[len(b.blocks)-1], "", 0
-		case "ground_roll", "to_50ft":
+		case b.isQuantity(head):
+			if cur == nil && b.kind.noWeights && len(b.blocks) == 0 {
+				b.blocks = append(b.blocks, block{weight: cell{line: l[0].line, col: l[0].col}, rows: map[string][][]cell{}})
+				cur, b.single = &b.blocks[0], true
+			}
 			if cur == nil {
 				b.errorf(l[0], head, "a weight line (weight,1000 kg) comes before the figures of its block")
 				continue
@@ -204,9 +352,10 @@ func (b *builder) parse(lines [][]cell) {
 			if b.firstKey == "" {
 				b.firstKey = head
 			}
+		case b.otherKind(l[0], head):
 		default:
 			if cur == nil || key == "" {
-				b.errorf(l[0], "", "%q: expected distance_unit, wind_factoring_included, weight, ground_roll or to_50ft here", l[0].text)
+				b.errorf(l[0], "", "%q: expected %s here", l[0].text, b.expected())
 				continue
 			}
 			if len(b.blocks) == 1 && key == b.firstKey {
@@ -224,7 +373,11 @@ func (b *builder) parse(lines [][]cell) {
 	}
 	b.endBlock(cur, key, keyAt, row)
 	if len(b.blocks) == 0 && len(b.errs) == 0 {
-		b.errs = append(b.errs, &spec.FieldError{File: b.file, Msg: "no weight block found: a block starts with a line weight,1000 kg"})
+		msg := "no weight block found: a block starts with a line weight,1000 kg"
+		if b.kind.noWeights {
+			msg += fmt.Sprintf(" (or, for one table for the MTOW, with its %s line)", b.kind.quantities[0])
+		}
+		b.errs = append(b.errs, &spec.FieldError{File: b.file, Msg: msg})
 	}
 }
 
@@ -243,7 +396,7 @@ func (b *builder) endBlock(cur *block, key string, keyAt cell, row int) {
 		return
 	}
 	b.endRows(cur, key, keyAt, row)
-	for _, k := range []string{"ground_roll", "to_50ft"} {
+	for _, k := range b.kind.quantities {
 		if _, ok := cur.rows[k]; !ok {
 			b.errorf(cur.weight, k, "the block of %s has no %s rows", cur.weight.text, k)
 		}
@@ -270,49 +423,98 @@ func texts(cs []cell) string {
 	return strings.Join(s, ", ")
 }
 
-// node builds the table section as a YAML tree carrying the CSV's lines and columns,
-// for the loader's checks. An unanswered wind factoring question is checked as false
-// (the conservative answer) and left for the pilot in the YAML.
-func (b *builder) node() (*yaml.Node, bool) {
-	scalar := func(c cell, tag string) *yaml.Node {
-		return &yaml.Node{Kind: yaml.ScalarNode, Tag: tag, Value: c.text, Line: c.line, Column: c.col}
-	}
-	str := func(c cell) *yaml.Node { return scalar(c, "!!str") }
-	num := func(c cell) *yaml.Node {
-		if _, err := strconv.ParseFloat(c.text, 64); err != nil || c.text == "" {
-			return str(c) // the loader says it is not a plain number, at its place
+// unanswered lists the pending settings the CSV does not give, as field paths.
+func (b *builder) unanswered() []string {
+	var out []string
+	for _, s := range b.kind.settings {
+		if _, given := b.settings[s.key]; !given && len(s.pending) > 0 {
+			out = append(out, b.settingPath(s.key))
 		}
-		if _, err := strconv.ParseInt(c.text, 10, 64); err == nil {
-			return scalar(c, "!!int")
+	}
+	return out
+}
+
+// settingPath names a setting as the loader does: table.wind_factoring_included,
+// landing.flap, landing.table.wind_factoring_included, climb.speed.
+func (b *builder) settingPath(key string) string {
+	if b.kind.section == "landing.table" && key == "flap" {
+		return "landing.flap"
+	}
+	return b.kind.section + "." + key
+}
+
+// comment is text as a YAML comment may hold it: as it is when every character is
+// printable, else quoted with Go's escapes (a YAML parser refuses a control character
+// even in a comment; the pressure-altitude parser takes a form feed for a space).
+func comment(s string) string {
+	for _, r := range s {
+		if !unicode.IsPrint(r) {
+			return strconv.QuoteToGraphic(s)
 		}
-		return scalar(c, "!!float")
 	}
-	seq := func(items []*yaml.Node, at cell) *yaml.Node {
-		return &yaml.Node{Kind: yaml.SequenceNode, Content: items, Line: at.line, Column: at.col}
+	return s
+}
+
+// YAML trees carrying the CSV's lines and columns, for the loader's checks.
+
+var origin = cell{line: 1, col: 1}
+
+func scalar(c cell, tag string) *yaml.Node {
+	return &yaml.Node{Kind: yaml.ScalarNode, Tag: tag, Value: c.text, Line: c.line, Column: c.col}
+}
+
+func str(c cell) *yaml.Node { return scalar(c, "!!str") }
+
+// num is a figure: a plain number, or text the loader says is not one, at its place.
+func num(c cell) *yaml.Node {
+	if _, err := strconv.ParseFloat(c.text, 64); err != nil || c.text == "" {
+		return str(c)
 	}
-	mapping := func(at cell, kv ...any) *yaml.Node {
-		n := &yaml.Node{Kind: yaml.MappingNode, Line: at.line, Column: at.col}
-		for i := 0; i+1 < len(kv); i += 2 {
-			n.Content = append(n.Content, &yaml.Node{Kind: yaml.ScalarNode, Tag: "!!str", Value: kv[i].(string), Line: at.line, Column: at.col}, kv[i+1].(*yaml.Node))
-		}
-		return n
+	if _, err := strconv.ParseInt(c.text, 10, 64); err == nil {
+		return scalar(c, "!!int")
 	}
-	origin := cell{line: 1, col: 1}
+	return scalar(c, "!!float")
+}
+
+func seq(items []*yaml.Node, at cell) *yaml.Node {
+	return &yaml.Node{Kind: yaml.SequenceNode, Content: items, Line: at.line, Column: at.col}
+}
+
+func mapping(at cell, kv ...any) *yaml.Node {
+	n := &yaml.Node{Kind: yaml.MappingNode, Line: at.line, Column: at.col}
+	for i := 0; i+1 < len(kv); i += 2 {
+		n.Content = append(n.Content, &yaml.Node{Kind: yaml.ScalarNode, Tag: "!!str", Value: kv[i].(string), Line: at.line, Column: at.col}, kv[i+1].(*yaml.Node))
+	}
+	return n
+}
+
+// settingNodes are the given settings among keys, and the pending ones the CSV does
+// not give read as their checkAs value (left for the pilot in the YAML).
+func (b *builder) settingNodes(keys ...string) []any {
 	var kv []any
-	windGiven := b.windFactoring != nil
-	if windGiven {
-		c := *b.windFactoring
-		tag := "!!str"
-		if c.text == "true" || c.text == "false" {
-			tag = "!!bool"
+	for _, s := range b.kind.settings {
+		want := false
+		for _, k := range keys {
+			want = want || k == s.key
 		}
-		kv = append(kv, "wind_factoring_included", scalar(c, tag))
-	} else {
-		kv = append(kv, "wind_factoring_included", scalar(cell{text: "false", line: 1, col: 1}, "!!bool"))
+		if !want {
+			continue
+		}
+		c, given := b.settings[s.key]
+		switch {
+		case given && s.tag == "!!bool" && (c.text == "true" || c.text == "false"):
+			kv = append(kv, s.key, scalar(*c, "!!bool"))
+		case given:
+			kv = append(kv, s.key, str(*c))
+		case len(s.pending) > 0:
+			kv = append(kv, s.key, scalar(cell{text: s.checkAs, line: origin.line, col: origin.col}, s.tag))
+		}
 	}
-	if b.distanceUnit != nil {
-		kv = append(kv, "distance_unit", str(*b.distanceUnit))
-	}
+	return kv
+}
+
+// axesNodes are the pressure altitudes and the temperatures.
+func (b *builder) axesNodes() []any {
 	var alts, temps []*yaml.Node
 	for _, c := range b.alts {
 		alts = append(alts, str(c))
@@ -320,44 +522,77 @@ func (b *builder) node() (*yaml.Node, bool) {
 	for _, c := range b.temps {
 		temps = append(temps, str(c))
 	}
-	at := origin
+	altAt, tempAt := origin, origin
 	if len(b.alts) > 0 {
-		at = b.alts[0]
+		altAt = b.alts[0]
 	}
-	kv = append(kv, "pressure_altitudes", seq(alts, at))
-	at = origin
 	if len(b.temps) > 0 {
-		at = b.temps[0]
+		tempAt = b.temps[0]
 	}
-	kv = append(kv, "temperatures", seq(temps, at))
+	return []any{"pressure_altitudes", seq(alts, altAt), "temperatures", seq(temps, tempAt)}
+}
+
+// rowsNode is one quantity's rows of a block.
+func rowsNode(bl block, key string) *yaml.Node {
+	var rows []*yaml.Node
+	for _, r := range bl.rows[key] {
+		var cs []*yaml.Node
+		for _, c := range r {
+			cs = append(cs, num(c))
+		}
+		rowAt := bl.weight
+		if len(r) > 0 {
+			rowAt = r[0]
+		}
+		rows = append(rows, seq(cs, rowAt))
+	}
+	return seq(rows, bl.weight)
+}
+
+// weightsNode is the list of blocks: weight and each quantity's rows.
+func (b *builder) weightsNode() *yaml.Node {
 	var blocks []*yaml.Node
 	for _, bl := range b.blocks {
-		var parts []any
-		parts = append(parts, "weight", str(bl.weight))
-		for _, k := range []string{"ground_roll", "to_50ft"} {
-			var rows []*yaml.Node
-			for _, r := range bl.rows[k] {
-				var cs []*yaml.Node
-				for _, c := range r {
-					cs = append(cs, num(c))
-				}
-				rowAt := bl.weight
-				if len(r) > 0 {
-					rowAt = r[0]
-				}
-				rows = append(rows, seq(cs, rowAt))
-			}
-			parts = append(parts, k, seq(rows, bl.weight))
+		parts := []any{"weight", str(bl.weight)}
+		for _, k := range b.kind.quantities {
+			parts = append(parts, k, rowsNode(bl, k))
 		}
 		blocks = append(blocks, mapping(bl.weight, parts...))
 	}
-	kv = append(kv, "weights", seq(blocks, origin))
-	return mapping(origin, kv...), windGiven
+	return seq(blocks, origin)
 }
 
-// yaml writes the table section as a profile holds it, one row per line with its
-// pressure altitude as a comment, ready to paste.
-func (b *builder) yaml(name string, windGiven bool) []byte {
+// tableNode is a takeoff or landing table section.
+func (b *builder) tableNode() *yaml.Node {
+	kv := b.settingNodes("wind_factoring_included", "distance_unit")
+	kv = append(kv, b.axesNodes()...)
+	kv = append(kv, "weights", b.weightsNode())
+	return mapping(origin, kv...)
+}
+
+// landingNode is a landing section: its flap and its table.
+func (b *builder) landingNode() *yaml.Node {
+	kv := b.settingNodes("flap")
+	kv = append(kv, "table", b.tableNode())
+	return mapping(origin, kv...)
+}
+
+// climbNode is a climb section: its speed and its rate-of-climb table, one block per
+// weight or one table for the MTOW.
+func (b *builder) climbNode() *yaml.Node {
+	kv := b.settingNodes("speed", "rate_unit")
+	kv = append(kv, b.axesNodes()...)
+	if b.single {
+		kv = append(kv, "rate_of_climb", rowsNode(b.blocks[0], "rate_of_climb"))
+	} else {
+		kv = append(kv, "weights", b.weightsNode())
+	}
+	return mapping(origin, kv...)
+}
+
+// yaml writes the profile's section, one row per line with its pressure altitude as
+// a comment, ready to paste.
+func (b *builder) yaml(k Kind, name string) []byte {
 	var w bytes.Buffer
 	q := func(s string) string {
 		out, err := yaml.Marshal(s)
@@ -373,34 +608,86 @@ func (b *builder) yaml(name string, windGiven bool) []byte {
 		}
 		return "[" + strings.Join(s, ", ") + "]"
 	}
-	fmt.Fprintf(&w, "# The takeoff table imported from %s by kneeprint import table:\n", name)
-	fmt.Fprintf(&w, "# paste it at the top level of the aircraft profile, then run kneeprint validate.\n")
-	fmt.Fprintf(&w, "table:\n")
-	if windGiven {
-		fmt.Fprintf(&w, "  wind_factoring_included: %s\n", b.windFactoring.text)
-	} else {
-		fmt.Fprintf(&w, "  # Does the manual's wind correction already include the certification wind factors\n")
-		fmt.Fprintf(&w, "  # (only part of a headwind credited, more than all of a tailwind charged)? The chart\n")
-		fmt.Fprintf(&w, "  # or its notes say so. No default: answer true or false (false when in doubt).\n")
-		fmt.Fprintf(&w, "  wind_factoring_included:\n")
-	}
-	fmt.Fprintf(&w, "  distance_unit: %s\n", q(b.distanceUnit.text))
-	fmt.Fprintf(&w, "  pressure_altitudes: %s\n", list(b.alts))
-	fmt.Fprintf(&w, "  temperatures: %s\n", list(b.temps))
-	fmt.Fprintf(&w, "  weights:\n")
-	for _, bl := range b.blocks {
-		fmt.Fprintf(&w, "    - weight: %s\n", q(bl.weight.text))
-		for _, k := range []string{"ground_roll", "to_50ft"} {
-			fmt.Fprintf(&w, "      %s:\n", k)
-			for i, r := range bl.rows[k] {
-				var s []string
-				for _, c := range r {
-					s = append(s, c.text)
+	// put writes a setting as given, or empty under its question for the pilot.
+	put := func(indent, key string) {
+		for _, s := range b.kind.settings {
+			if s.key != key {
+				continue
+			}
+			c, given := b.settings[key]
+			switch {
+			case given && s.tag == "!!bool" && (c.text == "true" || c.text == "false"):
+				fmt.Fprintf(&w, "%s%s: %s\n", indent, key, c.text)
+			case given:
+				fmt.Fprintf(&w, "%s%s: %s\n", indent, key, q(c.text))
+			case len(s.pending) > 0:
+				for _, l := range s.pending {
+					fmt.Fprintf(&w, "%s# %s\n", indent, l)
 				}
-				fmt.Fprintf(&w, "        - [%s]  # %s\n", strings.Join(s, ", "), b.alts[i].text)
+				fmt.Fprintf(&w, "%s%s:\n", indent, key)
 			}
 		}
 	}
-	fmt.Fprintf(&w, "  # corrections: the manual's notes (headwind, tailwind, grass), as kneeprint init aircraft shows\n")
+	rows := func(indent string, bl block, key string) {
+		for i, r := range bl.rows[key] {
+			var s []string
+			for _, c := range r {
+				s = append(s, c.text)
+			}
+			fmt.Fprintf(&w, "%s- [%s]  # %s\n", indent, strings.Join(s, ", "), comment(b.alts[i].text))
+		}
+	}
+	table := func(indent string) {
+		put(indent, "wind_factoring_included")
+		put(indent, "distance_unit")
+		fmt.Fprintf(&w, "%spressure_altitudes: %s\n", indent, list(b.alts))
+		fmt.Fprintf(&w, "%stemperatures: %s\n", indent, list(b.temps))
+		fmt.Fprintf(&w, "%sweights:\n", indent)
+		for _, bl := range b.blocks {
+			fmt.Fprintf(&w, "%s  - weight: %s\n", indent, q(bl.weight.text))
+			for _, key := range b.kind.quantities {
+				fmt.Fprintf(&w, "%s    %s:\n", indent, key)
+				rows(indent+"      ", bl, key)
+			}
+		}
+		fmt.Fprintf(&w, "%s# corrections: the manual's notes (headwind, tailwind, grass), as kneeprint init aircraft shows\n", indent)
+	}
+	switch k {
+	case Takeoff:
+		fmt.Fprintf(&w, "# The takeoff table imported from %s by kneeprint import table:\n", name)
+		fmt.Fprintf(&w, "# paste it at the top level of the aircraft profile, then run kneeprint validate.\n")
+		fmt.Fprintf(&w, "table:\n")
+		table("  ")
+	case Landing:
+		fmt.Fprintf(&w, "# The landing table imported from %s by kneeprint import landing:\n", name)
+		fmt.Fprintf(&w, "# paste it at the top level of the aircraft profile (a profile with a landing section\n")
+		fmt.Fprintf(&w, "# already: put its table: part there instead), then run kneeprint validate.\n")
+		fmt.Fprintf(&w, "landing:\n")
+		put("  ", "flap")
+		fmt.Fprintf(&w, "  # approach_speed and max_landing_mass (default the MTOW): as kneeprint init aircraft shows\n")
+		fmt.Fprintf(&w, "  table:\n")
+		table("    ")
+	case Climb:
+		fmt.Fprintf(&w, "# The rate-of-climb table imported from %s by kneeprint import climb:\n", name)
+		fmt.Fprintf(&w, "# paste it at the top level of the aircraft profile, then run kneeprint validate\n")
+		fmt.Fprintf(&w, "# (it checks every weight against the profile's MTOW).\n")
+		fmt.Fprintf(&w, "climb:\n")
+		put("  ", "speed")
+		put("  ", "rate_unit")
+		fmt.Fprintf(&w, "  pressure_altitudes: %s\n", list(b.alts))
+		fmt.Fprintf(&w, "  temperatures: %s\n", list(b.temps))
+		if b.single {
+			fmt.Fprintf(&w, "  # One table without weights: taken as the MTOW's and used at every lighter weight.\n")
+			fmt.Fprintf(&w, "  rate_of_climb:\n")
+			rows("    ", b.blocks[0], "rate_of_climb")
+			break
+		}
+		fmt.Fprintf(&w, "  weights:\n")
+		for _, bl := range b.blocks {
+			fmt.Fprintf(&w, "    - weight: %s\n", q(bl.weight.text))
+			fmt.Fprintf(&w, "      rate_of_climb:\n")
+			rows("        ", bl, "rate_of_climb")
+		}
+	}
 	return w.Bytes()
 }

@@ -4,7 +4,9 @@ import (
 	"bytes"
 	"fmt"
 	"io/fs"
+	"os"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -71,7 +73,7 @@ func TestRoundTripThroughTheLoader(t *testing.T) {
 		{"tabs and comments", "# typed from the manual, page 5-12\n" + csvOf(demo.Tables, "ft", "true", "\t")},
 	} {
 		t.Run(variant.name, func(t *testing.T) {
-			res, err := Import("demo.csv", []byte(variant.csv))
+			res, err := Import(Takeoff, "demo.csv", []byte(variant.csv))
 			require.NoError(t, err)
 			assert.Empty(t, res.Warnings)
 			doc, err := spec.Parse("imported.yaml", profileWith(t, res.YAML))
@@ -91,9 +93,9 @@ func TestRoundTripThroughTheLoader(t *testing.T) {
 func TestWindFactoringLeftToThePilot(t *testing.T) {
 	demo, err := spec.Load(templates.FS, "aircraft/sedgefin-sf2.yaml")
 	require.NoError(t, err)
-	res, err := Import("demo.csv", []byte(csvOf(demo.Tables, "ft", "", ",")))
+	res, err := Import(Takeoff, "demo.csv", []byte(csvOf(demo.Tables, "ft", "", ",")))
 	require.NoError(t, err)
-	assert.False(t, res.WindFactoringGiven)
+	assert.Equal(t, []string{"table.wind_factoring_included"}, res.Unanswered)
 	assert.Contains(t, string(res.YAML), "  wind_factoring_included:\n")
 	_, err = spec.Parse("imported.yaml", profileWith(t, res.YAML))
 	require.Error(t, err)
@@ -115,7 +117,7 @@ to_50ft,-10 C,0 C,10 C
 0 ft,755,820,885
 2000 ft,900,975,1050
 `
-	_, err := Import("t.csv", []byte(good))
+	_, err := Import(Takeoff, "t.csv", []byte(good))
 	require.NoError(t, err)
 	for _, tc := range []struct {
 		name, from, to string
@@ -142,7 +144,7 @@ to_50ft,-10 C,0 C,10 C
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			require.Contains(t, good, tc.from)
-			_, err := Import("t.csv", []byte(strings.ReplaceAll(good, tc.from, tc.to)))
+			_, err := Import(Takeoff, "t.csv", []byte(strings.ReplaceAll(good, tc.from, tc.to)))
 			require.Error(t, err)
 			for _, w := range tc.want {
 				found := false
@@ -153,10 +155,10 @@ to_50ft,-10 C,0 C,10 C
 			}
 		})
 	}
-	_, err = Import("empty.csv", []byte("\n# nothing\n"))
+	_, err = Import(Takeoff, "empty.csv", []byte("\n# nothing\n"))
 	require.Error(t, err)
 	assert.Contains(t, err.Error(), "no weight block found")
-	_, err = Import("big.csv", bytes.Repeat([]byte("x"), MaxBytes+1))
+	_, err = Import(Takeoff, "big.csv", bytes.Repeat([]byte("x"), MaxBytes+1))
 	require.Error(t, err)
 }
 
@@ -168,7 +170,7 @@ func TestOutlierAtCSVPlace(t *testing.T) {
 	// A slip that breaks the rise with temperature is the loader's error.
 	text = strings.Replace(text, "4000 ft,1750,1890,2040", "4000 ft,1750,1620,2040", 1)
 	require.Contains(t, text, "1620")
-	_, err = Import("slip.csv", []byte(text))
+	_, err = Import(Takeoff, "slip.csv", []byte(text))
 	require.Error(t, err)
 
 	// One the rise does not catch: the 800 kg ground roll at 8000 ft, 40 C (1120)
@@ -177,7 +179,7 @@ func TestOutlierAtCSVPlace(t *testing.T) {
 	text = csvOf(demo.Tables, "ft", "true", ",")
 	require.Contains(t, text, row)
 	text = strings.Replace(text, row, "8000 ft,775,840,905,975,1045,1210", 1)
-	res, err := Import("slip.csv", []byte(text))
+	res, err := Import(Takeoff, "slip.csv", []byte(text))
 	require.NoError(t, err)
 	require.Len(t, res.Warnings, 1, "%v", res.Warnings)
 	line := 0
@@ -187,4 +189,266 @@ func TestOutlierAtCSVPlace(t *testing.T) {
 		}
 	}
 	assert.Regexp(t, regexp.MustCompile(fmt.Sprintf(`^slip\.csv:%d:\d+: table\.weights\[0\]\.ground_roll\[4\]\[5\]: ground roll 1210 \(800 kg, 8000 ft, 40 C\) breaks the smooth pattern`, line)), res.Warnings[0])
+}
+
+// csvFor writes typed tables (one per quantity, same axes) in the documented CSV
+// layout after the settings lines; without weight lines when single.
+func csvFor(settings []string, tables []*typedtable.Table, single bool) string {
+	var b strings.Builder
+	for _, s := range settings {
+		b.WriteString(s + "\n")
+	}
+	for i, bl := range tables[0].Blocks {
+		if !single {
+			fmt.Fprintf(&b, "weight,%s\n", bl.Weight.Text)
+		}
+		for _, t := range tables {
+			b.WriteString(t.Key)
+			for _, c := range t.Temperatures {
+				b.WriteString("," + c.Text)
+			}
+			b.WriteString("\n")
+			for p, pa := range t.PressureAltitudes {
+				b.WriteString(pa.Text)
+				for _, c := range t.Blocks[i].Rows[p] {
+					b.WriteString("," + c.Text)
+				}
+				b.WriteString("\n")
+			}
+		}
+	}
+	return b.String()
+}
+
+// tablesOf returns the demo profile's typed tables of one section.
+func tablesOf(t *testing.T, doc *spec.Document, section string) []*typedtable.Table {
+	t.Helper()
+	var out []*typedtable.Table
+	for _, tab := range doc.Tables {
+		if tab.Section == section {
+			out = append(out, tab)
+		}
+	}
+	require.NotEmpty(t, out, section)
+	return out
+}
+
+// replaceSection replaces the top-level section key of a profile (from its line to
+// the next top-level key or the end) by text.
+func replaceSection(t *testing.T, profile, key, text string) string {
+	t.Helper()
+	lines := strings.SplitAfter(profile, "\n")
+	start, end := -1, len(lines)
+	for i, l := range lines {
+		top := l != "" && l[0] != ' ' && l[0] != '#' && l[0] != '\n'
+		switch {
+		case start < 0 && strings.HasPrefix(l, key+":"):
+			start = i
+		case start >= 0 && top:
+			end = i
+		}
+		if start >= 0 && end < len(lines) {
+			break
+		}
+	}
+	require.GreaterOrEqual(t, start, 0, key)
+	return strings.Join(lines[:start], "") + text + strings.Join(lines[end:], "")
+}
+
+func demoProfile(t *testing.T) (string, *spec.Document) {
+	t.Helper()
+	data, err := fs.ReadFile(templates.FS, "aircraft/sedgefin-sf2.yaml")
+	require.NoError(t, err)
+	doc, err := spec.Parse("sedgefin-sf2.yaml", data)
+	require.NoError(t, err)
+	return string(data), doc
+}
+
+// The demo's landing table typed as CSV comes back as the landing section: pasted in
+// place of the demo's, the loader reads the same table figure for figure, the flap
+// and the wind factoring as given.
+func TestLandingRoundTripThroughTheLoader(t *testing.T) {
+	text, demo := demoProfile(t)
+	csv := csvFor([]string{"flap,30°", "distance_unit,ft", "wind_factoring_included,true"}, tablesOf(t, demo, "landing.table"), false)
+	res, err := Import(Landing, "landing.csv", []byte(csv))
+	require.NoError(t, err)
+	assert.Empty(t, res.Warnings)
+	assert.Empty(t, res.Unanswered)
+	require.Len(t, res.Tables, 2)
+	assert.Equal(t, "landing.table.weights[2].from_50ft[4][5]", res.Tables[1].Field(2, 4, 5))
+	assert.Contains(t, string(res.YAML), "landing:\n  flap: 30°\n")
+	doc, err := spec.Parse("imported.yaml", []byte(replaceSection(t, text, "landing", string(res.YAML))))
+	require.NoError(t, err, "%s", res.YAML)
+	got, want := doc.Aircraft.Landing, demo.Aircraft.Landing
+	assert.Equal(t, want.Table.GroundRollM, got.Table.GroundRollM)
+	assert.Equal(t, want.Table.To50ftM, got.Table.To50ftM)
+	assert.Equal(t, want.Table.PressureAltM, got.Table.PressureAltM)
+	assert.Equal(t, want.Table.TempK, got.Table.TempK)
+	assert.Equal(t, want.Table.WeightKg, got.Table.WeightKg)
+	assert.True(t, got.Table.WindInData)
+	assert.Equal(t, "30°", got.Flap)
+
+	// Without flap and wind factoring the YAML leaves both to answer; the loader
+	// refuses it until they are.
+	csv = csvFor([]string{"distance_unit,ft"}, tablesOf(t, demo, "landing.table"), false)
+	res, err = Import(Landing, "landing.csv", []byte(csv))
+	require.NoError(t, err)
+	assert.Equal(t, []string{"landing.flap", "landing.table.wind_factoring_included"}, res.Unanswered)
+	_, err = spec.Parse("imported.yaml", []byte(replaceSection(t, text, "landing", string(res.YAML))))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "landing.flap")
+	assert.Contains(t, err.Error(), "landing.table.wind_factoring_included")
+	answered := strings.Replace(strings.Replace(string(res.YAML), "  flap:\n", "  flap: \"30°\"\n", 1), "    wind_factoring_included:\n", "    wind_factoring_included: true\n", 1)
+	_, err = spec.Parse("imported.yaml", []byte(replaceSection(t, text, "landing", answered)))
+	require.NoError(t, err, "%s", answered)
+}
+
+// The demo's rate-of-climb table typed as CSV comes back as the climb section, in
+// both forms: one block per weight, and one table without weight lines (the MTOW's).
+func TestClimbRoundTripThroughTheLoader(t *testing.T) {
+	text, demo := demoProfile(t)
+	climb := tablesOf(t, demo, "climb")
+	res, err := Import(Climb, "climb.csv", []byte(csvFor([]string{"speed,65 kt", "rate_unit,ft/min"}, climb, false)))
+	require.NoError(t, err)
+	assert.Empty(t, res.Warnings)
+	assert.Empty(t, res.Unanswered)
+	require.Len(t, res.Tables, 1)
+	assert.True(t, res.Tables[0].Linear)
+	doc, err := spec.Parse("imported.yaml", []byte(replaceSection(t, text, "climb", string(res.YAML))))
+	require.NoError(t, err, "%s", res.YAML)
+	assert.Equal(t, demo.Aircraft.Climb, doc.Aircraft.Climb, "speed and table, figure for figure")
+
+	// One table, the 1000 kg block's figures, without weight lines, semicolons.
+	one := &typedtable.Table{Key: climb[0].Key, PressureAltitudes: climb[0].PressureAltitudes, Temperatures: climb[0].Temperatures, Blocks: climb[0].Blocks[1:]}
+	csv := strings.ReplaceAll(csvFor([]string{"speed,65 kt", "rate_unit,ft/min"}, []*typedtable.Table{one}, true), ",", ";")
+	res, err = Import(Climb, "climb.csv", []byte(csv))
+	require.NoError(t, err)
+	assert.Contains(t, string(res.YAML), "\n  rate_of_climb:\n    - [760, 730, 700, 670, 640, 610]  # 0 ft\n")
+	assert.NotContains(t, string(res.YAML), "\n  weights:")
+	assert.Equal(t, "climb.rate_of_climb[4][5]", res.Tables[0].Field(0, 4, 5))
+	doc, err = spec.Parse("imported.yaml", []byte(replaceSection(t, text, "climb", string(res.YAML))))
+	require.NoError(t, err, "%s", res.YAML)
+	got := doc.Aircraft.Climb.Table
+	assert.Equal(t, []float64{1000}, got.WeightKg, "taken as the MTOW's")
+	assert.Equal(t, demo.Aircraft.Climb.Table.RateMS[1], got.RateMS[0])
+
+	// Without the speed the YAML leaves it to answer.
+	res, err = Import(Climb, "climb.csv", []byte(csvFor([]string{"rate_unit,ft/min"}, climb, false)))
+	require.NoError(t, err)
+	assert.Equal(t, []string{"climb.speed"}, res.Unanswered)
+	_, err = spec.Parse("imported.yaml", []byte(replaceSection(t, text, "climb", string(res.YAML))))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "climb.speed")
+}
+
+// The loader's checks of a landing or climb section, at the CSV's lines and columns;
+// and the layout's own.
+func TestLandingAndClimbErrorsAtCSVPlaces(t *testing.T) {
+	landing := `flap,30°
+distance_unit,ft
+wind_factoring_included,true
+weight,800 kg
+ground_roll,-10 C,0 C,10 C
+0 ft,410,425,440
+2000 ft,440,455,470
+from_50ft,-10 C,0 C,10 C
+0 ft,980,1020,1055
+2000 ft,1055,1095,1130
+`
+	climb := `speed,65 kt
+rate_unit,ft/min
+weight,800 kg
+rate_of_climb,-10 C,0 C,10 C
+0 ft,960,930,900
+2000 ft,830,800,770
+weight,1000 kg
+rate_of_climb,-10 C,0 C,10 C
+0 ft,760,730,700
+2000 ft,640,610,580
+`
+	for _, good := range []struct {
+		k    Kind
+		text string
+	}{{Landing, landing}, {Climb, climb}} {
+		_, err := Import(good.k, "t.csv", []byte(good.text))
+		require.NoError(t, err, good.k)
+	}
+	for _, tc := range []struct {
+		name     string
+		k        Kind
+		csv      string
+		from, to string
+		want     string
+	}{
+		{"landing distance falls", Landing, landing, "2000 ft,1055,1095,1130", "2000 ft,1055,995,1130",
+			"t.csv:10:14: landing.table.weights (800 kg).from_50ft[1][1]: distance falls as temperature rises"},
+		{"landing takeoff key", Landing, landing, "from_50ft,", "to_50ft,",
+			`t.csv:8:1: to_50ft: the rows of a takeoff table (kneeprint import table): a landing table has ground_roll and from_50ft rows`},
+		{"climb setting in a landing table", Landing, landing, "flap,30°", "speed,65 kt",
+			`t.csv:1:1: speed: a setting of a rate-of-climb table (kneeprint import climb): a landing table's settings are flap, distance_unit and wind_factoring_included`},
+		{"unknown line", Landing, landing, "flap,30°", "flaps,30°",
+			`t.csv:1:1: "flaps": expected flap, distance_unit, wind_factoring_included, weight, ground_roll or from_50ft here`},
+		{"flap a card cannot print", Landing, landing, "flap,30°", "flap,30° 字",
+			"t.csv:1:6: landing.flap: a card cannot print"},
+		{"rate rises with temperature", Climb, climb, "0 ft,760,730,700", "0 ft,760,780,700",
+			"t.csv:9:10: climb (1000 kg).rate_of_climb[0][1]: rate of climb rises as temperature rises"},
+		{"rate not a number", Climb, climb, "0 ft,960,930,900", "0 ft,960,9 30,900",
+			`t.csv:5:10: climb.weights[0].rate_of_climb[0][1]: expected a plain number, found "9 30"`},
+		{"rate unit", Climb, climb, "rate_unit,ft/min", "rate_unit,fpm",
+			`t.csv:2:11: climb.rate_unit: "fpm" is not one of: ft/min, m/s`},
+		{"speed out of range", Climb, climb, "speed,65 kt", "speed,650 kt",
+			"t.csv:1:7: climb.speed:"},
+		{"weight above the heaviest MTOW", Climb, climb, "weight,1000 kg", "weight,9000 kg",
+			"t.csv:7:8: climb.weights[1].weight:"},
+		{"a weight after a table without weights", Climb, strings.Replace(climb, "weight,800 kg\n", "", 1), "", "",
+			"t.csv:6:1: weight: the rows above have no weight line"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			text := tc.csv
+			if tc.from != "" {
+				require.Contains(t, text, tc.from)
+				text = strings.Replace(text, tc.from, tc.to, 1)
+			}
+			_, err := Import(tc.k, "t.csv", []byte(text))
+			require.Error(t, err)
+			found := false
+			for _, l := range strings.Split(err.Error(), "\n") {
+				found = found || strings.HasPrefix(l, tc.want)
+			}
+			assert.True(t, found, "got\n%v\nwant a line starting %q", err, tc.want)
+		})
+	}
+}
+
+// A planted transposition in a climb CSV (the demo's 285 typed 258, which the loader
+// accepts: the rates still fall) is a warning at its CSV line and column.
+func TestClimbOutlierAtCSVPlace(t *testing.T) {
+	_, demo := demoProfile(t)
+	text := csvFor([]string{"speed,65 kt", "rate_unit,ft/min"}, tablesOf(t, demo, "climb"), false)
+	const row = "8000 ft,285,255,225,195,165,135"
+	require.Contains(t, text, row)
+	text = strings.Replace(text, row, "8000 ft,258,255,225,195,165,135", 1)
+	res, err := Import(Climb, "slip.csv", []byte(text))
+	require.NoError(t, err)
+	require.Len(t, res.Warnings, 1, "%v", res.Warnings)
+	line := 1 + strings.Count(text[:strings.Index(text, "8000 ft,258")], "\n")
+	assert.True(t, strings.HasPrefix(res.Warnings[0], fmt.Sprintf("slip.csv:%d:9: climb.weights[1].rate_of_climb[4][0]: rate of climb 258 (1000 kg, 8000 ft, -10 C) breaks the smooth pattern", line)), res.Warnings[0])
+}
+
+// The fuzz seeds of the landing and climb layouts import as they stand (so that the
+// fuzzer starts from files that reach the loader).
+func TestFuzzSeedsImport(t *testing.T) {
+	for _, tc := range []struct {
+		k    Kind
+		seed string
+	}{{Landing, "seed-landing"}, {Climb, "seed-climb-weights"}, {Climb, "seed-climb-single"}, {Takeoff, "seed-commas"}} {
+		data, err := os.ReadFile("testdata/fuzz/FuzzImport/" + tc.seed)
+		require.NoError(t, err)
+		lines := strings.SplitN(string(data), "\n", 3)
+		require.Len(t, lines, 3)
+		body, err := strconv.Unquote(strings.TrimSuffix(strings.TrimPrefix(strings.TrimSpace(lines[1]), "[]byte("), ")"))
+		require.NoError(t, err, tc.seed)
+		_, err = Import(tc.k, tc.seed, []byte(body))
+		assert.NoError(t, err, tc.seed)
+	}
 }

@@ -19,6 +19,13 @@ import (
 // 2000.
 const OutlierThresholdPct = 5.0
 
+// LinearFloorFraction is the share of a Linear table's largest figure (in size) that
+// its deviations are at least measured against (see Outliers): a tenth. A threshold
+// of its own choosing (no published figure): a rate of climb a tenth of the table's
+// best is near the ceiling the table ends at, where the figure's own size is no
+// longer a fair yardstick.
+const LinearFloorFraction = 0.1
+
 // The axes a cell is predicted along.
 const (
 	AxisTemperature      = "temperature"
@@ -30,7 +37,9 @@ const (
 type Deviation struct {
 	Axis     string
 	Expected float64 // in the table's unit
-	Pct      float64 // (typed - expected) / expected x 100
+	// Pct is (typed - expected) / expected x 100; in a Linear table, per cent of the
+	// larger of |expected| and the table's floor (see Outliers).
+	Pct float64
 	// RoundingPct is the most that rounding the cell and its neighbours to the
 	// table's step could move Pct (see Outliers).
 	RoundingPct float64
@@ -70,8 +79,25 @@ type Outlier struct {
 // own cell against all of its neighbours, so it shows along every axis alike; the
 // neighbours of a slip see it along one axis only (the line through it), and a
 // genuine steepening at the hot, high and heavy corner of a table (where a real
-// aircraft's distances grow faster than exponentially) seldom along all. Figures that
-// are not positive give no prediction.
+// aircraft's distances grow faster than exponentially) seldom along all. In this
+// logarithmic form, figures that are not positive give no prediction and are not
+// judged.
+//
+// A table marked Linear (a rate of climb) is judged in its figures themselves, on
+// the straight line between the two neighbours
+//
+//	v_k ~ v_(k-1) + (v_(k+1) - v_(k-1)) (x_k - x_(k-1)) / (x_(k+1) - x_(k-1))
+//
+// since a rate of climb falls about linearly with pressure altitude (the straight
+// line a plot of the best rate of climb is extended along to the absolute ceiling:
+// Anderson, Introduction to Flight, the chapter on airplane performance, absolute
+// and service ceilings; from memory) and with temperature, and a manual
+// may print a zero or negative rate at the top of its table: every figure is then
+// judged, zero and negative ones too. The deviation is taken in per cent of the
+// larger of the predicted figure's size and LinearFloorFraction of the table's
+// largest figure (in size), so that a rate near zero is judged against the table's
+// scale, not against its own small size; rounding is allowed for in the same per
+// cent.
 func Outliers(t *Table) []Outlier {
 	var out []Outlier
 	for b, rows := range Deviations(t) {
@@ -101,8 +127,10 @@ func Deviations(t *Table) [][][][]Deviation {
 	if nb == 0 || np == 0 || nt == 0 {
 		return nil
 	}
-	// logs[b][p][k], NaN where a figure is not usable.
+	// logs[b][p][k]: the figure as judged (its logarithm, or itself in a Linear
+	// table), NaN where a figure is not usable.
 	logs := make([][][]float64, nb)
+	largest := 0.0 // in size, for a Linear table's floor
 	for b, bl := range t.Blocks {
 		if len(bl.Rows) != np {
 			return nil // a ragged table is the loader's error, not ours
@@ -115,12 +143,18 @@ func Deviations(t *Table) [][][][]Deviation {
 			logs[b][p] = make([]float64, nt)
 			for k, c := range row {
 				logs[b][p][k] = math.NaN()
-				if c.Value > 0 && !math.IsInf(c.Value, 0) {
+				switch {
+				case math.IsInf(c.Value, 0) || math.IsNaN(c.Value):
+				case t.Linear:
+					logs[b][p][k] = c.Value
+					largest = math.Max(largest, math.Abs(c.Value))
+				case c.Value > 0:
 					logs[b][p][k] = math.Log(c.Value)
 				}
 			}
 		}
 	}
+	floor := LinearFloorFraction * largest
 	half := Step(t) / 2
 	temps := axisSI(t.Temperatures)
 	alts := axisSI(t.PressureAltitudes)
@@ -155,6 +189,17 @@ func Deviations(t *Table) [][][][]Deviation {
 				add := func(axis string, xs, ys []float64, at int) {
 					pred, w, idx, ok := predict(xs, ys, at)
 					if !ok {
+						return
+					}
+					if t.Linear {
+						// Half a step on the cell and on each neighbour, in the
+						// same yardstick as the deviation.
+						ref := math.Max(math.Abs(pred), floor)
+						if ref == 0 {
+							return // a table of zeros: nothing to judge against
+						}
+						r := half * (1 + math.Abs(w[0]) + math.Abs(w[1]))
+						devs = append(devs, Deviation{Axis: axis, Expected: pred, Pct: (v - pred) / ref * 100, RoundingPct: r / ref * 100})
 						return
 					}
 					exp := math.Exp(pred)

@@ -2,6 +2,7 @@ package typedtable_test
 
 import (
 	"fmt"
+	"io/fs"
 	"math"
 	"strings"
 	"testing"
@@ -109,19 +110,29 @@ func TestPlantedTranspositionFlagged(t *testing.T) {
 	assert.Contains(t, flagged[0], "about 18", "the neighbours predict about 1850")
 }
 
-// Property: a 15 % slip up or down planted in any cell of the demo tables (takeoff and
-// landing) is flagged at that cell and at no other, corners and edges included.
+// Property: a 15 % slip up or down planted in any cell of the demo tables (takeoff,
+// climb and landing) is flagged at that cell and at no other, corners and edges
+// included. In the rate-of-climb table the slip is at least 25 ft/min (five of its
+// 5 ft/min steps): at its 135 ft/min corner, rounding three figures to 5 ft/min can
+// move a prediction extrapolated to the end of an axis by 10 ft/min, 7.7 % of the
+// 130 ft/min predicted there, so a 20 ft/min slip (15 %) lies within what rounding
+// and the threshold explain (the rule, as Outliers states it).
 func TestAnySlipFlaggedAtItsCell(t *testing.T) {
 	doc, err := spec.Load(templates.FS, "aircraft/sedgefin-sf2.yaml")
 	require.NoError(t, err)
-	require.Len(t, doc.Tables, 4, "ground roll and distance, takeoff and landing")
+	require.Len(t, doc.Tables, 5, "ground roll and distance, takeoff and landing, and the rate of climb")
 	for _, tab := range doc.Tables {
 		for b := range tab.Blocks {
 			for p := range tab.PressureAltitudes {
 				for k := range tab.Temperatures {
 					for _, f := range []float64{0.85, 1.15} {
 						planted := clone(tab)
-						planted.Blocks[b].Rows[p][k].Value *= f
+						v := tab.Blocks[b].Rows[p][k].Value
+						slip := v * (f - 1)
+						if tab.Linear && math.Abs(slip) < 25 {
+							slip = math.Copysign(25, slip)
+						}
+						planted.Blocks[b].Rows[p][k].Value = v + slip
 						got := typedtable.Outliers(planted)
 						require.Len(t, got, 1, "%s %s x%.2f: got %v", tab.Quantity, tab.Where(b, p, k), f, got)
 						assert.Equal(t, [3]int{b, p, k}, [3]int{got[0].Block, got[0].Row, got[0].Col}, "%s x%.2f", tab.Where(b, p, k), f)
@@ -145,9 +156,12 @@ func clone(t *typedtable.Table) *typedtable.Table {
 	return &c
 }
 
-// The clean demo table raises nothing, and no cell is within half the threshold of
-// it: the largest deviation along any axis stays under 1.5 % (the figure quoted in
-// OutlierThresholdPct's comment).
+// The clean demo tables raise nothing, and no cell is near the threshold: the
+// largest deviation of a distance along any axis stays under 1.5 % (the figure quoted
+// in OutlierThresholdPct's comment); the rate of climb's under 4 % (its top row bends
+// 5 ft/min off the straight line through the rows below, a rate of climb of 130
+// ft/min or so: a real table's curvature near its ceiling, judged in per cent of a
+// small figure).
 func TestDemoTablesClean(t *testing.T) {
 	doc, err := spec.Load(templates.FS, "aircraft/sedgefin-sf2.yaml")
 	require.NoError(t, err)
@@ -156,7 +170,11 @@ func TestDemoTablesClean(t *testing.T) {
 	}
 	for _, tab := range doc.Tables {
 		assert.Empty(t, typedtable.Outliers(tab))
-		assert.Less(t, largest(tab), 1.5, tab.Quantity)
+		limit := 1.5
+		if tab.Linear {
+			limit = 4
+		}
+		assert.Less(t, largest(tab), limit, tab.Quantity)
 	}
 }
 
@@ -270,4 +288,172 @@ func TestStep(t *testing.T) {
 	} {
 		assert.InDelta(t, tc.want, typedtable.Step(mk(tc.texts...)), 1e-12, "%v", tc.texts)
 	}
+}
+
+// linearTable is a rate-of-climb table over pressure altitude x temperature that
+// falls on a plane (invented, no aircraft's: rate = 880 - 0.1 PA/ft - 4 T/C, in
+// ft/min, rounded to 5 as a manual prints), down to zero and below at the top: a
+// table a manual may print up to its ceiling.
+func linearTable() *typedtable.Table {
+	tab := &typedtable.Table{File: "climb.yaml", Quantity: "rate of climb", Short: "rate", Section: "climb", Key: "rate_of_climb", Unit: "ft/min", Linear: true}
+	pas := []float64{0, 2000, 4000, 6000, 8000, 10000}
+	temps := []float64{-20, 0, 20, 40}
+	for _, pa := range pas {
+		tab.PressureAltitudes = append(tab.PressureAltitudes, typedtable.Label{Text: fmt.Sprintf("%.0f ft", pa), SI: pa * units.MetresPerFoot})
+	}
+	for _, tc := range temps {
+		tab.Temperatures = append(tab.Temperatures, typedtable.Label{Text: fmt.Sprintf("%.0f C", tc), SI: tc + units.KelvinAtZeroCelsius})
+	}
+	bl := typedtable.Block{Index: typedtable.Single, Weight: typedtable.Label{Text: "MTOW 1000 kg", SI: 1000}}
+	for _, pa := range pas {
+		var row []typedtable.Cell
+		for _, tc := range temps {
+			v := math.Round((880-0.1*pa-4*tc)/5) * 5
+			row = append(row, typedtable.Cell{Text: fmt.Sprintf("%.0f", v), Value: v})
+		}
+		bl.Rows = append(bl.Rows, row)
+	}
+	tab.Blocks = []typedtable.Block{bl}
+	return tab
+}
+
+// A rate of climb falls about linearly with altitude and temperature, and a manual
+// may print a zero or negative rate at the top of its table: a Linear table is judged
+// in its figures themselves, zero and negative ones included. The clean table raises
+// nothing; a slip near its ceiling (-80 typed 80: a lost minus sign) and one of the
+// hundreds digit in the middle are flagged at their cells; judged in logarithms, as
+// distances are, the zero and negative rates would never be judged and the lost
+// minus sign would go unseen: why a climb table is Linear.
+func TestLinearTableToItsCeiling(t *testing.T) {
+	tab := linearTable()
+	require.Equal(t, "0", tab.Blocks[0].Rows[4][2].Text, "zero at 8000 ft, 20 C: 880 - 800 - 80")
+	require.Equal(t, "-280", tab.Blocks[0].Rows[5][3].Text, "below zero at 10000 ft, 40 C: 880 - 1000 - 160")
+	assert.Empty(t, typedtable.Outliers(tab), "a clean table raises nothing")
+	assert.Less(t, largest(tab), 1e-9, "a plane is predicted exactly")
+	assert.Equal(t, "climb.rate_of_climb[5][3]", tab.Field(0, 5, 3), "one table, no weights list")
+	assert.Equal(t, "MTOW 1000 kg, 10000 ft, 40 C", tab.Where(0, 5, 3))
+
+	for _, tc := range []struct {
+		name   string
+		p, k   int
+		typed  float64
+		wantAt [2]int
+	}{
+		{"lost minus sign near the ceiling", 4, 3, 80, [2]int{4, 3}}, // -80 typed 80
+		{"hundreds digit in the middle", 2, 1, 400, [2]int{2, 1}},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			planted := clone(tab)
+			planted.Blocks[0].Rows[tc.p][tc.k].Value = tc.typed
+			got := typedtable.Outliers(planted)
+			require.Len(t, got, 1, "%v", got)
+			assert.Equal(t, tc.wantAt, [2]int{got[0].Row, got[0].Col})
+		})
+	}
+
+	// Judged in logarithms, as distances are, the zero and negative rates are not
+	// judged at all, and the lost minus sign goes unseen.
+	asLogs := clone(tab)
+	asLogs.Linear = false
+	assert.Empty(t, typedtable.Deviations(asLogs)[0][5][3], "a negative rate has no logarithm")
+	assert.NotEmpty(t, typedtable.Deviations(tab)[0][5][3], "the Linear form judges it")
+	asLogs.Blocks[0].Rows[4][3].Value = 80
+	assert.Empty(t, typedtable.Outliers(asLogs), "in logarithms the slip is missed")
+}
+
+// The climb table of a profile, given as one table for the MTOW or as one block per
+// weight, is kept as typed with the loader's field paths, and a slip planted in it
+// (the demo's 285 typed 258, a transposition the loader accepts: the rates still fall
+// with altitude, temperature and weight) is a validate warning at its line and column.
+func TestClimbSlipFlaggedAtItsLine(t *testing.T) {
+	demo, err := fs.ReadFile(templates.FS, "aircraft/sedgefin-sf2.yaml")
+	require.NoError(t, err)
+	const row = "[285, 255, 225, 195, 165, 135]"
+	require.Contains(t, string(demo), row)
+	text := strings.Replace(string(demo), row, "[258, 255, 225, 195, 165, 135]", 1)
+	doc, err := spec.Parse("slip.yaml", []byte(text))
+	require.NoError(t, err, "the loader accepts the slip")
+	var flagged []string
+	for _, w := range doc.Warnings {
+		if strings.Contains(w, "smooth pattern") {
+			flagged = append(flagged, w)
+		}
+	}
+	require.Len(t, flagged, 1, "%v", flagged)
+	line, col := 0, 0
+	for i, l := range strings.Split(text, "\n") {
+		if j := strings.Index(l, "[258,"); j >= 0 {
+			line, col = i+1, j+2
+		}
+	}
+	want := fmt.Sprintf("slip.yaml:%d:%d: climb.weights[1].rate_of_climb[4][0]: rate of climb 258 (1000 kg, 8000 ft, -10 C) breaks the smooth pattern", line, col)
+	assert.True(t, strings.HasPrefix(flagged[0], want), "got %s\nwant it to start %s", flagged[0], want)
+
+	// One table for the MTOW (no weights list): the loader's path climb.rate_of_climb.
+	i := strings.Index(text, "  weights:\n    - weight: 800 kg\n      rate_of_climb:")
+	require.Positive(t, i)
+	j := strings.Index(text[i:], "    - weight: 1000 kg\n")
+	require.Positive(t, j)
+	single := text[:i] + strings.ReplaceAll(strings.Replace(text[i+j:], "    - weight: 1000 kg\n", "", 1), "\n        - [", "\n    - [")
+	single = strings.Replace(single, "      rate_of_climb:\n", "  rate_of_climb:\n", 1)
+	doc, err = spec.Parse("single.yaml", []byte(single))
+	require.NoError(t, err, "%s", single)
+	var climb *typedtable.Table
+	for _, tab := range doc.Tables {
+		if tab.Section == "climb" {
+			climb = tab
+		}
+	}
+	require.NotNil(t, climb)
+	require.Len(t, climb.Blocks, 1)
+	assert.Equal(t, typedtable.Single, climb.Blocks[0].Index)
+	assert.Equal(t, "MTOW 1000 kg", climb.Blocks[0].Weight.Text)
+	assert.Equal(t, "climb", climb.BlockField(0))
+	flagged = nil
+	for _, w := range doc.Warnings {
+		if strings.Contains(w, "smooth pattern") {
+			flagged = append(flagged, w)
+		}
+	}
+	require.Len(t, flagged, 1, "%v", flagged)
+	for i, l := range strings.Split(single, "\n") {
+		if j := strings.Index(l, "[258,"); j >= 0 {
+			line, col = i+1, j+2
+		}
+	}
+	want = fmt.Sprintf("single.yaml:%d:%d: climb.rate_of_climb[4][0]: rate of climb 258 (MTOW 1000 kg, 8000 ft, -10 C) breaks the smooth pattern", line, col)
+	assert.True(t, strings.HasPrefix(flagged[0], want), "got %s\nwant it to start %s", flagged[0], want)
+}
+
+// A rate-of-climb table computed by the demo tourer's physics (excess power at its
+// climb speed, with the propeller figures its takeoff calibration fitted: thrust
+// lapse and induced drag give a curvature no plane has), rounded to 5 ft/min, raises
+// nothing in the Linear form.
+func TestPhysicsClimbTableClean(t *testing.T) {
+	doc, err := spec.Load(templates.FS, "aircraft/quillwing-qt6.yaml")
+	require.NoError(t, err)
+	cm, err := perf.ClimbFor(doc.Aircraft)
+	require.NoError(t, err)
+	tab := &typedtable.Table{File: "physics", Quantity: "rate of climb", Section: "climb", Key: "rate_of_climb", Unit: "ft/min", Linear: true}
+	for _, pa := range []float64{0, 2000, 4000, 6000, 8000} {
+		tab.PressureAltitudes = append(tab.PressureAltitudes, typedtable.Label{Text: fmt.Sprintf("%.0f ft", pa), SI: pa * units.MetresPerFoot})
+	}
+	for _, tc := range []float64{-20, 0, 20, 40} {
+		tab.Temperatures = append(tab.Temperatures, typedtable.Label{Text: fmt.Sprintf("%.0f C", tc), SI: tc + units.KelvinAtZeroCelsius})
+	}
+	for i, w := range []float64{950, 1100, 1250} {
+		bl := typedtable.Block{Index: i, Weight: typedtable.Label{Text: fmt.Sprintf("%.0f kg", w), SI: w}}
+		for _, pa := range tab.PressureAltitudes {
+			var row []typedtable.Cell
+			for _, tc := range tab.Temperatures {
+				r, err := cm.Climb(perf.Conditions{PressureAltM: pa.SI, TempK: tc.SI, MassKg: w})
+				require.NoError(t, err)
+				v := math.Round(units.Feet(r.RateMS)*60/5) * 5
+				row = append(row, typedtable.Cell{Text: fmt.Sprintf("%.0f", v), Value: v})
+			}
+			bl.Rows = append(bl.Rows, row)
+		}
+		tab.Blocks = append(tab.Blocks, bl)
+	}
+	assert.Empty(t, typedtable.Outliers(tab))
 }

@@ -15,7 +15,11 @@ type Table struct {
 	Short    string // a column heading for them: "roll", "50 ft"
 	Section  string // the file's section holding the blocks, e.g. "table"
 	Key      string // the key of each block's rows, e.g. "ground_roll"
-	Unit     string // the unit the figures are typed in: "ft", "m"
+	Unit     string // the unit the figures are typed in: "ft", "m", "ft/min"
+	// Linear says the figures change about linearly along each axis and may be zero
+	// or negative (a rate of climb): Outliers then predicts them in themselves, not
+	// in their logarithm (see Outliers).
+	Linear bool
 
 	PressureAltitudes []Label // the rows, as typed, strictly increasing
 	Temperatures      []Label // the columns, as typed, strictly increasing
@@ -31,7 +35,10 @@ type Label struct {
 
 // Block is one weight's figures: Rows[pressure altitude][temperature].
 type Block struct {
-	Index  int // position in the file's list of blocks
+	// Index is the block's position in the file's list of blocks (Section.weights),
+	// or Single when the section holds one table without a list of weights (a climb
+	// table for the MTOW): its rows are then the section's own Key.
+	Index  int
 	Weight Label
 	Rows   [][]Cell
 }
@@ -43,9 +50,23 @@ type Cell struct {
 	Line, Column int
 }
 
-// Field names a cell as the loader's messages do: table.weights[1].to_50ft[2][3].
+// Single is the Index of a table's only block when the section gives no list of
+// weights.
+const Single = -1
+
+// Field names a cell as the loader's messages do: table.weights[1].to_50ft[2][3],
+// or climb.rate_of_climb[2][3] for a section without a list of weights.
 func (t *Table) Field(block, row, col int) string {
-	return fmt.Sprintf("%s.weights[%d].%s[%d][%d]", t.Section, t.Blocks[block].Index, t.Key, row, col)
+	return fmt.Sprintf("%s.%s[%d][%d]", t.BlockField(block), t.Key, row, col)
+}
+
+// BlockField names a block as the loader's messages do: table.weights[1], or the
+// section itself (climb) when it gives no list of weights.
+func (t *Table) BlockField(block int) string {
+	if i := t.Blocks[block].Index; i != Single {
+		return fmt.Sprintf("%s.weights[%d]", t.Section, i)
+	}
+	return t.Section
 }
 
 // Where names a cell's conditions in words: "1000 kg, 2000 ft, 20 C".
