@@ -253,6 +253,7 @@ var loaderOnly = map[string]string{
 	"af-heading-range.yaml":          "a range",
 	"ac-zero-crosswind-limit.yaml":   "a range",
 	"af-toda-short.yaml":             "one value against another (TODA below TORA)",
+	"af-tora-beyond-length.yaml":     "one value against another (TORA and LDA longer than the runway)",
 	"ac-weight-above-mtow.yaml":      "one value against another",
 	"ac-weight-below-min.yaml":       "one value against another",
 	"af-duplicate-end.yaml":          "one runway end against another",
