@@ -34,3 +34,20 @@ func TestTORABeyondRunwayLengthRefused(t *testing.T) {
 	require.Equal(t, exitOK, code, out)
 	assert.True(t, strings.Contains(out, g+":9: runways[0].ends[1].tora: TORA 5600 m of 33 is 9.2 times the 610 m of 15"), out)
 }
+
+// A maximum landing mass below the lowest flyable mass loaded cleanly; check then
+// exited 2 with a message naming no line, and cards failed. Now the loader refuses it.
+func TestLandingMassBelowLowestMassRefused(t *testing.T) {
+	const bad = "../internal/spec/testdata/bad/ac-landing-mlm-below-min.yaml"
+	want := "ac-landing-mlm-below-min.yaml:25:21: landing.max_landing_mass: 650 kg is below the lowest flyable mass 700 kg (min_mass)"
+	dir := t.TempDir()
+	for _, args := range [][]string{
+		{"check", "--aircraft", bad, "--airfield", "demo:wrenmoor", "--temp", "15C", "--qnh", "1013hPa"},
+		{"cards", "--aircraft", bad, "--airfield", "demo:wrenmoor", "-o", dir},
+		{"validate", bad},
+	} {
+		code, out, errOut := runCLI(t, args...)
+		assert.Equal(t, exitFailure, code, "%v: %s%s", args, out, errOut)
+		assert.Contains(t, out+errOut, want, args)
+	}
+}

@@ -267,6 +267,7 @@ var loaderOnly = map[string]string{
 	"ac-climb-rising.yaml":           "the climb table falling with temperature, altitude and weight",
 	"ac-landing-from50-short.yaml":   "the landing table rising with temperature, its distance from 50 ft against its ground roll",
 	"ac-landing-mlm-above-mtow.yaml": "one value against another (maximum landing mass above the MTOW)",
+	"ac-landing-mlm-below-min.yaml":  "one value against another (maximum landing mass below min_mass)",
 	"af-obstacle-elevation.yaml":     "an obstacle's elevation against the runway's threshold elevations",
 	"af-obstacle-unprintable.yaml":   "the characters the card's font can print",
 	"af-duplicate-key.yaml":          "a duplicate key: a YAML parser keeps one, the loader refuses both",

@@ -41,6 +41,8 @@ type decoder struct {
 	// The same for the landing section (landing.go).
 	landingCalib      []calibPoint
 	landingTableNodes [2][][][]*yaml.Node
+	// minMassWhy says where an aircraft's lowest flyable mass came from, for messages.
+	minMassWhy string
 }
 
 // result returns the errors, with a last line counting those not listed.

@@ -131,6 +131,9 @@ func TestBadFiles(t *testing.T) {
 		}},
 		// Issue 11: the landing section.
 		{"ac-landing-mlm-above-mtow.yaml", []string{"ac-landing-mlm-above-mtow.yaml:24:21: landing.max_landing_mass: 1100 kg is above the MTOW 1000 kg"}},
+		// A maximum landing mass below the lowest flyable mass loaded cleanly, then check
+		// exited 2 without a line and cards failed.
+		{"ac-landing-mlm-below-min.yaml", []string{"ac-landing-mlm-below-min.yaml:25:21: landing.max_landing_mass: 650 kg is below the lowest flyable mass 700 kg (min_mass)"}},
 		{"ac-landing-from50-short.yaml", []string{
 			"ac-landing-from50-short.yaml:35:19: landing.table.weights (1000 kg).from_50ft[0][1]: distance falls as temperature rises",
 			"ac-landing-from50-short.yaml:35:19: landing.table.weights (1000 kg).from_50ft[0][1]: distance from 50 ft is shorter than the ground roll",
