@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 )
 
 // State is the verdict of one grid cell.
@@ -127,6 +128,8 @@ const (
 	reasonTight
 	reasonObstacle       // a: clearance ft, b: margin ft, c: height m, d: distance past the end, s: note
 	reasonObstacleBefore // a: TOD, b: margin ft, c: height m, d: distance past the end, s: note
+	reasonNoClimb        // a: rate m/s, b: still-air gradient, c: pressure altitude m, d: temperature K, unit: climb speed kt
+	reasonClimbOutside   // a: pressure altitude m, b: temperature K, c: mass kg
 )
 
 func (r reason) String() string {
@@ -156,6 +159,11 @@ func (r reason) String() string {
 			return fmt.Sprintf("%s %s: %.0f ft below its top, %.0f ft clearance required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), -r.a, r.b)
 		}
 		return fmt.Sprintf("%s %s: %.0f ft clearance, %.0f ft required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), r.a, r.b)
+	case reasonNoClimb:
+		return fmt.Sprintf("no takeoff: the manual's rate of climb at %s kt is %.0f ft/min at %.0f ft, %.0f C, a still-air gradient of %.1f %%, under the %.1f %% counted as a climb",
+			r.unit, r.a/footM*60, r.c/footM, r.d-273.15, r.b*100, minClimbGradient*100)
+	case reasonClimbOutside:
+		return fmt.Sprintf("the climb table has no rate at %.0f ft, %.0f C, %.0f kg: the no-climb check does not apply here (kneeprint never extrapolates a table)", r.a/footM, r.b-273.15, r.c)
 	case reasonObstacleBefore:
 		return fmt.Sprintf("%s %s stands before the 50 ft point (takeoff distance %.0f %s from the start of the run): %.0f ft clearance required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), r.a, r.unit, r.b)
 	}
@@ -219,6 +227,16 @@ func Evaluate(k Case) Cell {
 		c.worsen(NoData, reason{s: err.Error()})
 		return c
 	}
+	// The manual's climb counts on every cell, obstacles or not: where its rate gives
+	// no climb (a still-air gradient under minClimbGradient, the physics model's own
+	// threshold) there is no takeoff. Outside the climb table's data the check does
+	// not apply, and a cell with a figure says so below.
+	rate, grad, climbInside := a.Climb.stillAirClimb(k.PressureAltM, k.TempK, k.MassKg)
+	if climbInside && grad < minClimbGradient {
+		c.CannotTakeOff = true
+		c.worsen(NoGo, reason{kind: reasonNoClimb, a: rate, b: grad, c: k.PressureAltM, d: k.TempK, unit: strconv.FormatFloat(math.Round(a.Climb.SpeedIASMS/knot), 'f', -1, 64)})
+		return c
+	}
 	c.CreditedWindMS = CreditedWindMS(along, WindFactoringIncluded(k.Model))
 	cond := Conditions{
 		PressureAltM: k.PressureAltM, TempK: k.TempK, MassKg: k.MassKg,
@@ -264,6 +282,9 @@ func Evaluate(k Case) Cell {
 	case c.ShownRequired*(1+k.TightMargin) > c.ShownAvailable+1e-9:
 		r.kind = reasonTight
 		c.worsen(Tight, r)
+	}
+	if !climbInside && a.Climb != nil && a.Climb.Table != nil {
+		c.reasons = append(c.reasons, reason{kind: reasonClimbOutside, a: k.PressureAltM, b: k.TempK, c: k.MassKg})
 	}
 	if len(k.End.Obstacles) > 0 {
 		c.obstacles(k, req.FactoredTODM, along)

@@ -57,8 +57,9 @@ what the model used.
 Obstacles: for a runway end that lists obstacles past its end, the climb at the
 profile's climb speed from 50 ft at the takeoff distance (before the safety factor)
 must pass each by --obstacle-margin (default 50 ft), or the end is no-go; the output
-gives the climb gradient and every obstacle's clearance. Exit 0 when computed,
-whatever the verdict.
+gives the climb gradient and every obstacle's clearance. A profile's rate-of-climb
+table counts on every runway end: where it gives no climb (a still-air gradient under
+0.5 %), there is no takeoff. Exit 0 when computed, whatever the verdict.
 
 Landing: when the profile has landing data the answer also gives, for every runway
 end, the landing distance from 50 ft, what the policy requires of the LDA (e.g.

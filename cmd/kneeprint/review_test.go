@@ -1,6 +1,7 @@
 package main
 
 import (
+	"os"
 	"strings"
 	"testing"
 
@@ -50,4 +51,37 @@ func TestLandingMassBelowLowestMassRefused(t *testing.T) {
 		assert.Equal(t, exitFailure, code, "%v: %s%s", args, out, errOut)
 		assert.Contains(t, out+errOut, want, args)
 	}
+}
+
+// trainerWithClimb is the demo trainer with its climb section replaced by climb.
+func trainerWithClimb(t *testing.T, climb string) string {
+	t.Helper()
+	data, err := os.ReadFile("../../templates/aircraft/sedgefin-sf2.yaml")
+	require.NoError(t, err)
+	s := string(data)
+	i := strings.Index(s, "\nclimb:\n")
+	j := strings.Index(s, "\n# The manual's landing table")
+	require.True(t, i > 0 && j > i, "the demo trainer's climb section")
+	return writeFile(t, "trainer.yaml", s[:i+1]+climb+s[j:])
+}
+
+// A climb table whose rates run out was ignored on runway ends without obstacles:
+// at 35 C the (test) table gives 25 ft/min at sea level, a still-air gradient of
+// about 0.4 % at 65 kt, under the 0.5 % the physics model counts as a climb (common
+// practice). Runway 25 (840 m, no obstacles) was GO; it is now no takeoff, without a
+// figure, and validate warns at the rate of zero or less with its line.
+func TestNoClimbOnEndWithoutObstacles(t *testing.T) {
+	ac := trainerWithClimb(t, "climb:\n  speed: 65 kt\n  rate_unit: ft/min\n  pressure_altitudes: [0 ft, 8000 ft]\n  temperatures: [-10 C, 40 C]\n  rate_of_climb:\n    - [700, -50]\n    - [300, -400]\n")
+	run := checkJSON(t, "--aircraft", ac, "--airfield", "demo:wrenmoor", "--temp", "35C", "--qnh", "1013hPa", "--takeoff")
+	e := endByDesignator(t, run, "25")
+	assert.Equal(t, "no-go", e["status"], e["reasons"])
+	assert.Nil(t, e["required_m"], "no figure")
+	assert.Contains(t, strings.Join(toStrings(e["reasons"]), "\n"), "no takeoff: the manual's rate of climb at 65 kt is ")
+	// At 15 C the same table climbs: 25 is as the demo trainer gives it.
+	cool := endByDesignator(t, checkJSON(t, "--aircraft", ac, "--airfield", "demo:wrenmoor", "--temp", "15C", "--qnh", "1013hPa", "--takeoff"), "25")
+	assert.Equal(t, "go", cool["status"], cool["reasons"])
+
+	code, out, _ := runCLI(t, "validate", ac)
+	require.Equal(t, exitOK, code, out)
+	assert.Contains(t, out, "climb (1000 kg).rate_of_climb[0][1]: -50 ft/min at 0 ft, 40 C: no climb")
 }

@@ -158,3 +158,47 @@ valid_days: 100
 	require.Error(t, err)
 	assert.Contains(t, err.Error(), "t.yaml:14:18: obstacle_margin: 0 ft is outside the accepted range")
 }
+
+// A climb table's rates of zero or less mean no climb: the loader accepts them (a
+// manual may print them), validate warns at each with its line, since every cell at
+// those conditions is "no takeoff" on every runway end (perf: the no-climb check).
+func TestClimbNoClimbWarned(t *testing.T) {
+	const ac = `kind: aircraft
+name: Test
+type: Test type
+mtow: 1000 kg
+speeds: {rotation: 55 kt}
+limits:
+  demonstrated_crosswind: 15 kt
+takeoff_flap: "0"
+table:
+  wind_factoring_included: true
+  distance_unit: m
+  pressure_altitudes: [0 ft, 4000 ft]
+  temperatures: [0 C, 30 C]
+  weights:
+    - weight: 1000 kg
+      ground_roll:
+        - [250, 300]
+        - [320, 380]
+      to_50ft:
+        - [450, 540]
+        - [580, 690]
+climb:
+  speed: 65 kt
+  rate_unit: ft/min
+  pressure_altitudes: [0 ft, 4000 ft]
+  temperatures: [0 C, 30 C]
+  rate_of_climb:
+    - [300, 0]
+    - [120, -40]
+`
+	doc, err := Parse("a.yaml", []byte(ac))
+	require.NoError(t, err)
+	w := strings.Join(doc.Warnings, "\n")
+	assert.Contains(t, w, "a.yaml:28: climb (1000 kg).rate_of_climb[0][1]: 0 ft/min at 0 ft, 30 C: no climb")
+	assert.Contains(t, w, "a.yaml:29: climb (1000 kg).rate_of_climb[1][1]: -40 ft/min at 4000 ft, 30 C: no climb")
+	assert.NotContains(t, w, "rate_of_climb[0][0]")
+	assert.NotContains(t, w, "rate_of_climb[1][0]")
+	assert.Len(t, doc.Warnings, 2)
+}
