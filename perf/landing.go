@@ -122,6 +122,11 @@ func (m *LandingTableModel) WindFactoringIncluded() bool { return m.Table.WindIn
 // then grass), exactly as the takeoff table does (Table.lookup, Table.applyNotes):
 // above the highest value of an axis ErrNoData, never an extrapolation; below the
 // lowest, the lowest value's figures with a note.
+//
+// As the takeoff table, the wind notes are never stretched: past a note's up_to, or,
+// with the manual's approach speed, past MaxWindFraction of the touchdown true
+// airspeed (touchdownStallRatio/approachStallRatio of the approach speed, as the
+// physics landing model flies it), the answer is ErrNoData.
 func (m *LandingTableModel) Land(c Conditions) (LandingResult, error) {
 	t := m.Table
 	r := LandingResult{ApproachIASMS: m.ApproachIASMS}
@@ -130,7 +135,15 @@ func (m *LandingTableModel) Land(c Conditions) (LandingResult, error) {
 	if err != nil {
 		return r, err
 	}
-	if gr, total, err = t.applyNotes(c, gr, total, &r.Covers, &r.Notes); err != nil {
+	if m.ApproachIASMS > 0 {
+		sigma := DensityKgM3(c.PressureAltM, c.TempK) / isaDensity0()
+		vTD := m.ApproachIASMS / math.Sqrt(sigma) * touchdownStallRatio / approachStallRatio
+		if math.Abs(c.HeadwindMS) > MaxWindFraction*vTD+1e-9 {
+			return r, fmt.Errorf("%w: credited wind %.1f kt is beyond half the touchdown speed (%.0f kt true): kneeprint never stretches the manual's wind notes that far",
+				ErrNoData, math.Abs(c.HeadwindMS)/knot, math.Floor(MaxWindFraction*vTD/knot+1e-9))
+		}
+	}
+	if gr, total, err = t.applyNotes(c, gr, total, &r.Covers, &r.Notes, m.ApproachIASMS > 0); err != nil {
 		return r, err
 	}
 	r.GroundRollM, r.From50ftM = gr, total

@@ -1,7 +1,9 @@
 package main
 
 import (
+	"encoding/json"
 	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -84,4 +86,84 @@ func TestNoClimbOnEndWithoutObstacles(t *testing.T) {
 	code, out, _ := runCLI(t, "validate", ac)
 	require.Equal(t, exitOK, code, out)
 	assert.Contains(t, out, "climb (1000 kg).rate_of_climb[0][1]: -50 ft/min at 0 ft, 40 C: no climb")
+}
+
+// The table model stretched the headwind note without limit: a 40 kt or a 99 kt
+// headwind gave GO at half the calm distance. The demo trainer's data include the
+// wind factoring (the reported wind is credited), its rotation speed is 55 kt: past
+// half the lift-off true airspeed (about 27 to 29 kt at Wrenmoor, by temperature;
+// V_TAS = V_IAS / sqrt(sigma), ICAO Doc 7488) there is no data, as in the physics
+// model. Runway 25 is 248 deg magnetic: 248/40 is a 40 kt headwind on it.
+func TestHeadwindBoundEndToEnd(t *testing.T) {
+	for _, wind := range []string{"248/40", "248/99"} {
+		e := endByDesignator(t, checkJSON(t, "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "--temp", "15C", "--qnh", "1013hPa", "--wind", wind, "--takeoff"), "25")
+		assert.Equal(t, "no-data", e["status"], "%s: %v", wind, e["reasons"])
+		assert.Nil(t, e["required_m"], wind)
+		assert.Contains(t, strings.Join(toStrings(e["reasons"]), "\n"), "beyond half the lift-off speed", wind)
+	}
+	// grid: the 30 and 40 kt rows have no data, the 20 kt row has figures.
+	code, out, errOut := runCLI(t, "grid", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "--runway", "25", "--winds=0kt,20kt,30kt,40kt", "--weights", "1000kg", "--csv")
+	require.Equal(t, exitOK, code, errOut)
+	lines := strings.Split(strings.TrimSpace(out), "\n")
+	cols := strings.Split(lines[0], ",")
+	col := func(name string) int {
+		for i, c := range cols {
+			if c == name {
+				return i
+			}
+		}
+		t.Fatalf("no column %s in %s", name, lines[0])
+		return -1
+	}
+	wi, si := col("headwind_kt"), col("status")
+	seen := map[string]int{}
+	for _, l := range lines[1:] {
+		f := strings.Split(l, ",")
+		switch f[wi] {
+		case "30", "40":
+			assert.Equal(t, "no-data", f[si], l)
+		case "20":
+			assert.NotEqual(t, "no-data", f[si], l)
+		}
+		seen[f[wi]]++
+	}
+	assert.Equal(t, 8, seen["40"], "every temperature of the 40 kt row")
+
+	// A card whose template reaches 40 kt prints those rows without a figure (n/d).
+	tpl, err := os.ReadFile("../../templates/cards/a5.yaml")
+	require.NoError(t, err)
+	tplFile := writeFile(t, "strong.yaml", strings.NewReplacer("winds: [-10 kt, -5 kt, 0 kt, 5 kt, 10 kt, 15 kt, 20 kt]", "winds: [-10 kt, 0 kt, 10 kt, 20 kt, 30 kt, 40 kt]", "name: a5", "name: strong").Replace(string(tpl)))
+	dir := t.TempDir()
+	code, out, errOut = runCLI(t, "cards", "--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "--template", tplFile, "--data", "-o", dir, "--date", "2026-12-01")
+	require.Equal(t, exitOK, code, out+errOut)
+	js, _ := filepath.Glob(filepath.Join(dir, "*.json"))
+	require.Len(t, js, 1, out)
+	data, err := os.ReadFile(js[0])
+	require.NoError(t, err)
+	var f struct {
+		Pages []struct {
+			Page   string `json:"page"`
+			Blocks []struct {
+				Cells []struct {
+					WindKt float64  `json:"wind_kt"`
+					Figure *float64 `json:"figure"`
+					State  string   `json:"state"`
+				} `json:"cells"`
+			} `json:"blocks"`
+		} `json:"pages"`
+	}
+	require.NoError(t, json.Unmarshal(data, &f))
+	strong := 0
+	for _, p := range f.Pages {
+		for _, b := range p.Blocks {
+			for _, c := range b.Cells {
+				if c.WindKt >= 30 {
+					strong++
+					assert.Equal(t, "no-data", c.State, "%s %g kt", p.Page, c.WindKt)
+					assert.Nil(t, c.Figure, "%s %g kt", p.Page, c.WindKt)
+				}
+			}
+		}
+	}
+	assert.Greater(t, strong, 0)
 }

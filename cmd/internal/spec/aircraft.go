@@ -452,6 +452,8 @@ func (d *decoder) corrections(n *yaml.Node, t *perf.Table, k tableKind) {
 		hm := d.mapping(hn, k.path+".corrections.headwind")
 		t.Corrections.HeadwindPct, _ = hm.quantity("decrease", units.Percent, true, 0, 50)
 		t.Corrections.HeadwindPerMS, _ = hm.quantity("per", units.Speed, true, 0.5*units.MetresPerSecPerKnot, 50*units.MetresPerSecPerKnot)
+		// Optional, as in "up to 20 kt": beyond it the note has no data (perf).
+		t.Corrections.HeadwindMaxMS, _ = hm.quantity("up_to", units.Speed, false, 1*units.MetresPerSecPerKnot, 60*units.MetresPerSecPerKnot)
 		hm.finish()
 	} else {
 		d.notef("%s.corrections.headwind not given: no credit for headwind", k.path)

@@ -1,6 +1,7 @@
 package spec
 
 import (
+	"io/fs"
 	"strings"
 	"testing"
 
@@ -8,6 +9,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"kneeprint/perf"
+	"kneeprint/templates"
 )
 
 // Obstacles as the loader reads them (issue 12 item 1): every form resolved to a
@@ -201,4 +203,28 @@ climb:
 	assert.NotContains(t, w, "rate_of_climb[0][0]")
 	assert.NotContains(t, w, "rate_of_climb[1][0]")
 	assert.Len(t, doc.Warnings, 2)
+}
+
+// The headwind note takes an optional up_to, as the tailwind note does: beyond it,
+// no data. validate prints it, or says what is assumed without it.
+func TestHeadwindNoteUpTo(t *testing.T) {
+	data, err := fs.ReadFile(templates.FS, "aircraft/sedgefin-sf2.yaml")
+	require.NoError(t, err)
+	s := strings.Replace(string(data), "headwind: {decrease: 6 %, per: 5 kt}", "headwind: {decrease: 6 %, per: 5 kt, up_to: 20 kt}", 1)
+	doc, err := Parse("a.yaml", []byte(s))
+	require.NoError(t, err)
+	assert.InDelta(t, 20*1852.0/3600, doc.Aircraft.Table.Corrections.HeadwindMaxMS, 1e-12)
+	var out strings.Builder
+	Summarize(&out, doc)
+	assert.Contains(t, out.String(), "headwind: -6 % per 5 kt up to 20 kt")
+
+	doc, err = Load(templates.FS, "aircraft/sedgefin-sf2.yaml")
+	require.NoError(t, err)
+	out.Reset()
+	Summarize(&out, doc)
+	assert.Contains(t, out.String(), "headwind: -6 % per 5 kt (no up_to: no data beyond half the lift-off speed, 55 kt IAS)")
+
+	_, err = Parse("a.yaml", []byte(strings.Replace(string(data), "per: 5 kt}", "per: 5 kt, up_to: 0 kt}", 1)))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "table.corrections.headwind.up_to: 0 kt is outside the accepted range 1 to 60 kt")
 }

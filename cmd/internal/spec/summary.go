@@ -103,7 +103,7 @@ func summarizeAircraft(w io.Writer, a *perf.Aircraft) {
 			len(t.WeightKg), first(t.WeightKg), last(t.WeightKg), t.WindInData)
 		c := t.Corrections
 		if c.HeadwindPerMS > 0 {
-			fmt.Fprintf(w, "    headwind: -%g %% per %.0f kt\n", c.HeadwindPct, units.Knots(c.HeadwindPerMS))
+			fmt.Fprintf(w, "    headwind: -%g %% per %.0f kt%s\n", c.HeadwindPct, units.Knots(c.HeadwindPerMS), headwindBound(c, a.RotateIASMS))
 		}
 		if c.TailwindPerMS > 0 {
 			fmt.Fprintf(w, "    tailwind: +%g %% per %.0f kt up to %.0f kt\n", c.TailwindPct, units.Knots(c.TailwindPerMS), units.Knots(c.TailwindMaxMS))
@@ -231,4 +231,17 @@ func limitsLine(a *perf.Aircraft) string {
 		parts = append(parts, "no operating temperature limits declared")
 	}
 	return strings.Join(parts, ", ")
+}
+
+// headwindBound says how far a takeoff table's headwind note is used
+// (perf.TableModel.Takeoff): up to its up_to; else, with the manual's rotation speed,
+// to half the lift-off speed; else only the floor of half the distance bounds it.
+func headwindBound(c perf.Corrections, rotateIASMS float64) string {
+	switch {
+	case c.HeadwindMaxMS > 0:
+		return fmt.Sprintf(" up to %.0f kt", units.Knots(c.HeadwindMaxMS))
+	case rotateIASMS > 0:
+		return fmt.Sprintf(" (no up_to: no data beyond half the lift-off speed, %.0f kt IAS)", units.Knots(rotateIASMS))
+	}
+	return " (no up_to and no rotation speed: the credit is only floored at half the distance; give up_to)"
 }
