@@ -64,6 +64,10 @@ func EvaluateLanding(k LandingCase) Cell {
 		return c
 	}
 	lp := k.Policy.Landing()
+	if err := lp.CheckSlope(k.End.SlopePct); err != nil { // eu-class-b past 2 %
+		c.worsen(NoData, reason{s: err.Error()})
+		return c
+	}
 	c.CreditedWindMS = CreditedWindMS(along, LandingWindFactoringIncluded(k.Model))
 	cond := Conditions{
 		PressureAltM: k.PressureAltM, TempK: k.TempK, MassKg: k.MassKg,

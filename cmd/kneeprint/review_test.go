@@ -167,3 +167,21 @@ func TestHeadwindBoundEndToEnd(t *testing.T) {
 	}
 	assert.Greater(t, strong, 0)
 }
+
+// eu-class-b gave no takeoff figure past a 2 % slope but a landing GO with a caution.
+// The takeoff's conservative reading now holds for the landing: no data, with the
+// reason naming the reading; uk-advisory keeps the figure and the caution.
+func TestLandingSteepSlopeEndToEnd(t *testing.T) {
+	f := fieldFile(t, "      - {designator: \"09\", tora: 1500 m, lda: 1500 m}\n      - {designator: \"27\", tora: 1500 m, lda: 1500 m}\n", "3 %")
+	base := []string{"--aircraft", "demo:sedgefin-sf2", "--airfield", f, "--temp", "15C", "--qnh", "1013hPa", "--landing"}
+	run := checkJSON(t, append(base, "--policy", "eu-class-b")...)
+	for _, des := range []string{"09", "27"} {
+		e := landingByDesignator(t, run, des)
+		assert.Equal(t, "no-data", e["status"], des)
+		assert.Nil(t, e["required_m"], des)
+		assert.Contains(t, strings.Join(toStrings(e["reasons"]), ""), "the limit AMC2 CAT.POL.A.305 sets on the takeoff's slope correction is applied to the landing too", des)
+	}
+	e := landingByDesignator(t, checkJSON(t, append(base, "--policy", "uk-advisory")...), "27")
+	assert.Equal(t, "go", e["status"], e["reasons"])
+	assert.Contains(t, e["policy_caution"], "caution: downslope 3.0 % is beyond the 2 %")
+}
