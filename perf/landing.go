@@ -290,6 +290,9 @@ func (m *LandingPhysicsModel) Land(c Conditions) (LandingResult, error) {
 	}
 	gr := l.FreeRollS*(vTD-w) + brake
 	total := air + gr
+	if cal := l.Calibration; cal != nil {
+		gr, total = applyFloor(cal.Floor, gr, total) // never shorter than the manual at its points
+	}
 	if !(gr > 0) || !(air > 0) || math.IsInf(total, 0) || math.IsNaN(total) {
 		return r, fmt.Errorf("%w: the model gave no usable distance here (ground roll %.1f m, air %.1f m)", ErrNoData, gr, air)
 	}
@@ -357,6 +360,9 @@ type LandingCalibration struct {
 	LargestPct                    float64    `json:"-"`
 	BoundHit                      bool       `json:"-"`
 	Evaluations                   int        `json:"-"`
+	// Floor multiplies the fitted model's distances so that it is never shorter than
+	// the manual at these points (floorFactor; LandingPhysicsModel.Land).
+	Floor float64
 }
 
 // ModelLine is how a card names the landing model.
@@ -368,7 +374,7 @@ func (c *LandingCalibration) ModelLine() string {
 	if len(c.Points) == 1 {
 		noun = "point"
 	}
-	return fmt.Sprintf("physics, calibrated to %d manual landing %s (largest residual %.1f %%)", len(c.Points), noun, c.LargestPct)
+	return fmt.Sprintf("physics, calibrated to %d manual landing %s (largest residual %.1f %%%s)", len(c.Points), noun, c.LargestPct, floorText(c.Floor))
 }
 
 // usable says why cards may not use the landing calibration c, or nil: it needs a
@@ -404,6 +410,7 @@ func CalibrateLanding(m LandingPhysicsModel, points []CalibrationPoint) (*Landin
 		return nil, fmt.Errorf("%d calibration points, at most %d", len(points), MaxCalibrationPoints)
 	}
 	m.Envelope = nil
+	m.L.Calibration = nil // the fit is of the bare model: no floor factors
 	cal := &LandingCalibration{Points: append([]CalibrationPoint(nil), points...), StartAngleDeg: m.L.ApproachAngleDeg, StartBraking: m.L.BrakingFraction}
 	params := []fitParam{
 		{"approach angle", m.L.ApproachAngleDeg, MinApproachAngleDeg, MaxApproachAngleDeg},
@@ -432,6 +439,7 @@ func CalibrateLanding(m LandingPhysicsModel, points []CalibrationPoint) (*Landin
 		},
 		func(i int) [2]float64 { return [2]float64{points[i].GroundRollM, points[i].To50ftM} },
 		[2]string{"ground_roll", "from_50ft"})
+	cal.Floor = floorFactor(cal.Fits, func(i int) [2]float64 { return [2]float64{points[i].GroundRollM, points[i].To50ftM} })
 	var bp []FitProblem
 	cal.BoundHit, bp = boundProblems(params, vals, "the description (landing flap CLmax, drag, approach speed) does not match the manual's landing figures")
 	fe.Problems = append(fe.Problems, bp...)

@@ -185,3 +185,35 @@ func TestLandingSteepSlopeEndToEnd(t *testing.T) {
 	assert.Equal(t, "go", e["status"], e["reasons"])
 	assert.Contains(t, e["policy_caution"], "caution: downslope 3.0 % is beyond the 2 %")
 }
+
+// A calibrated physics model may fit up to 5 % short of the manual's own figure (a
+// least-squares fit balances its residuals), and nothing floored it at the manual's
+// figures. Now the fitted distances carry a floor factor: at each of the demo
+// tourer's (invented) calibration points the answer is never shorter than the
+// manual's figure, for takeoff and landing, and validate and the model line say so.
+func TestCalibratedNeverShorterEndToEnd(t *testing.T) {
+	f := fieldFile(t, "      - {designator: \"09\", tora: 2000 m, lda: 2000 m}\n", "0 %")
+	for _, p := range []struct {
+		temp, weight, landingWeight string
+		roll, to50                  float64 // the manual's takeoff figures (the demo file)
+		landRoll, from50            float64 // the manual's landing figures
+	}{
+		{"15C", "1250kg", "1200kg", 295, 520, 265, 455},
+		{"30C", "1250kg", "1200kg", 330, 590, 275, 470},
+	} {
+		// Elevation 0 ft and QNH 1013.25 hPa: pressure altitude 0 ft (ICAO Doc 7488).
+		run := checkJSON(t, "--aircraft", "demo:quillwing-qt6", "--airfield", f, "--temp", p.temp, "--qnh", "1013.25hPa",
+			"--weight", p.weight, "--landing-weight", p.landingWeight)
+		e := endByDesignator(t, run, "09")
+		assert.GreaterOrEqual(t, e["ground_roll_m"], p.roll, p.temp)
+		assert.GreaterOrEqual(t, e["distance_50ft_m"], p.to50, p.temp)
+		l := landingByDesignator(t, run, "09")
+		assert.GreaterOrEqual(t, l["ground_roll_m"], p.landRoll, p.temp)
+		assert.GreaterOrEqual(t, l["landing_distance_m"], p.from50, p.temp)
+		assert.Regexp(t, `^physics, calibrated to 4 manual points \(largest residual [0-9.]+ %, floor ×1\.0[0-9]+\)$`, run["model_line"])
+	}
+	code, out, _ := runCLI(t, "validate", "demo:quillwing-qt6")
+	require.Equal(t, exitOK, code, out)
+	assert.Contains(t, out, "on every takeoff distance of the fitted model")
+	assert.Contains(t, out, "on every landing distance of the fitted model")
+}

@@ -213,6 +213,7 @@ func summarizeLanding(w io.Writer, doc *Document) {
 	fmt.Fprintf(w, "      approach angle   %.2f deg (fit started from %.1f; bounds %.0f to %.0f)\n", c.ApproachAngleDeg, c.StartAngleDeg, perf.MinApproachAngleDeg, perf.MaxApproachAngleDeg)
 	fmt.Fprintf(w, "      braking fraction %.3f (fit started from %.2f; bounds %.2f to %.2f)\n", c.BrakingFrac, c.StartBraking, perf.MinBrakingFraction, perf.MaxBrakingFraction)
 	fmt.Fprintf(w, "      largest residual %.1f %% (at most %.0f %% accepted); residuals, model against manual:\n", c.LargestPct, perf.CalibrationTolerancePct)
+	defer summarizeFloor(w, c.Floor, "landing", "      ")
 	for i, cp := range doc.landingCalib {
 		if i >= len(c.Fits) {
 			break

@@ -3,6 +3,7 @@ package spec
 import (
 	"fmt"
 	"io"
+	"strconv"
 	"strings"
 
 	"gopkg.in/yaml.v3"
@@ -138,6 +139,7 @@ func summarizeFit(w io.Writer, doc *Document) {
 	fmt.Fprintf(w, "    static thrust fraction %.3f (fit started from %.2f; bounds %.2f to %.2f)\n", c.Static, c.StartStatic, perf.MinStaticThrustFrac, perf.MaxStaticThrustFrac)
 	fmt.Fprintf(w, "    propeller efficiency   %.3f (fit started from %.2f; bounds %.2f to %.2f)\n", c.Eta, c.StartEta, perf.MinPropEfficiency, perf.MaxPropEfficiency)
 	fmt.Fprintf(w, "    largest residual %.1f %% (at most %.0f %% accepted); residuals, model against manual:\n", c.LargestPct, perf.CalibrationTolerancePct)
+	defer summarizeFloor(w, c.Floor, "takeoff", "    ")
 	for i, cp := range doc.calib {
 		if i >= len(c.Fits) {
 			break
@@ -244,4 +246,14 @@ func headwindBound(c perf.Corrections, rotateIASMS float64) string {
 		return fmt.Sprintf(" (no up_to: no data beyond half the lift-off speed, %.0f kt IAS)", units.Knots(rotateIASMS))
 	}
 	return " (no up_to and no rotation speed: the credit is only floored at half the distance; give up_to)"
+}
+
+// summarizeFloor says which floor factor a calibration applies (perf: the calibrated
+// model is never shorter than the manual at its own points).
+func summarizeFloor(w io.Writer, floor float64, what, indent string) {
+	if floor > 1 {
+		fmt.Fprintf(w, "%sfloor factor ×%s on every %s distance of the fitted model (ground roll and total): the largest manual/fit ratio above, rounded up, so that the calibrated model is never shorter than the manual at its own points\n", indent, strconv.FormatFloat(floor, 'f', -1, 64), what)
+		return
+	}
+	fmt.Fprintf(w, "%sno floor factor: the fit is nowhere shorter than the manual at its own points\n", indent)
 }
