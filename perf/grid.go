@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"strconv"
+	"strings"
 )
 
 // State is the verdict of one grid cell.
@@ -319,7 +320,7 @@ func (c *Cell) obstacles(k Case, todM, along float64) {
 		cr, g, err = ObstacleClimb(cm, k.End, k.PressureAltM, k.TempK, k.MassKg, along, margin)
 	}
 	if err != nil {
-		r := reason{s: "obstacle clearance: " + err.Error()}
+		r := reason{s: obstacleReasonPrefix + err.Error()}
 		switch {
 		case errors.Is(err, ErrCannotTakeOff):
 			c.worsen(NoGo, r)
@@ -355,6 +356,22 @@ func (c *Cell) obstacles(k Case, todM, along float64) {
 		c.ObstacleNoGo = fits
 	}
 }
+
+// ObstacleReasons are the reasons, in words, of the obstacles the cell does not clear
+// by the margin (and why the obstacle check had no figure, when it had none): empty
+// when no obstacle stops the cell.
+func (c *Cell) ObstacleReasons() []string {
+	var out []string
+	for _, r := range c.reasons {
+		if r.kind == reasonObstacle || r.kind == reasonObstacleBefore || (r.kind == reasonText && strings.HasPrefix(r.s, obstacleReasonPrefix)) {
+			out = append(out, r.String())
+		}
+	}
+	return out
+}
+
+// obstacleReasonPrefix starts the reason of an obstacle check that had no figure.
+const obstacleReasonPrefix = "obstacle clearance: "
 
 // takeoff asks the model for conditions cond (and, when the model covers surface or
 // slope, for the paved, dry, level reference) and applies the policy. A model's

@@ -217,3 +217,35 @@ func TestCalibratedNeverShorterEndToEnd(t *testing.T) {
 	assert.Contains(t, out, "on every takeoff distance of the fitted model")
 	assert.Contains(t, out, "on every landing distance of the fitted model")
 }
+
+// diff said "tight -> no-go (804 m required, 840 m available)" for a cell an obstacle
+// stops: now the cell change names the obstacle (text) and carries "obstacle": true
+// and "obstacle_reason" (JSON).
+func TestDiffObstacleReasonEndToEnd(t *testing.T) {
+	src, err := os.ReadFile("../../airfields/wrenmoor.yaml")
+	require.NoError(t, err)
+	oldF := writeFile(t, "old.yaml", string(src))
+	newF := writeFile(t, "new.yaml", strings.Replace(string(src), "height: 35 ft", "height: 200 ft", 1))
+	code, out, errOut := runCLI(t, "diff", "--aircraft", "demo:sedgefin-sf2", oldF, newF)
+	require.Equal(t, exitFailure, code, errOut)
+	assert.Regexp(t, `runway 07, .*: (go|tight) -> no-go \(\d+ m required, 840 m available; 200 ft powerline at 400 m past the runway end: -?\d+ ft (clearance|below its top)`, out)
+
+	code, out, errOut = runCLI(t, "diff", "--aircraft", "demo:sedgefin-sf2", oldF, newF, "--json")
+	require.Equal(t, exitFailure, code, errOut)
+	var rep struct {
+		Cells []struct {
+			Old, New       string
+			Obstacle       bool   `json:"obstacle"`
+			ObstacleReason string `json:"obstacle_reason"`
+		} `json:"cell_changes"`
+	}
+	require.NoError(t, json.Unmarshal([]byte(out), &rep))
+	n := 0
+	for _, c := range rep.Cells {
+		if c.Obstacle {
+			n++
+			assert.Contains(t, c.ObstacleReason, "200 ft powerline at 400 m past the runway end")
+		}
+	}
+	assert.Greater(t, n, 0)
+}
