@@ -88,21 +88,21 @@ type TableClimb struct {
 func (m *TableClimb) Climb(c Conditions) (ClimbResult, error) {
 	t := m.Table
 	var r ClimbResult
-	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "climb table weight", func(x float64) string { return fmt.Sprintf("%.0f kg", x) })
+	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "climb table weight", axisKg)
 	if err != nil {
 		return r, err
 	}
 	if note != "" {
 		r.Notes = append(r.Notes, fmt.Sprintf("weight %.0f kg is below the climb table's lightest block: the %.0f kg rates are used", c.MassKg, t.WeightKg[0]))
 	}
-	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "climb table pressure altitude", func(x float64) string { return fmt.Sprintf("%.0f ft", x/footM) })
+	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "climb table pressure altitude", axisFt)
 	if err != nil {
 		return r, err
 	}
 	if note != "" {
 		r.Notes = append(r.Notes, note)
 	}
-	ti, tf, note, err := axisPos(t.TempK, c.TempK, "climb table temperature", func(x float64) string { return fmt.Sprintf("%.0f C", x-273.15) })
+	ti, tf, note, err := axisPos(t.TempK, c.TempK, "climb table temperature", axisC)
 	if err != nil {
 		return r, err
 	}

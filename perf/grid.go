@@ -136,21 +136,26 @@ const (
 func (r reason) String() string {
 	switch r.kind {
 	case reasonMTOW:
-		return fmt.Sprintf("weight %.0f kg above MTOW %.0f kg", r.a, r.b)
+		return fmt.Sprintf("weight %s kg above MTOW %s kg", passedText(r.a, r.b), limitText(r.b))
 	case reasonTailwind:
-		return fmt.Sprintf("tailwind %.0f kt above the %.0f kt limit", r.a/knot, r.b/knot)
+		return fmt.Sprintf("tailwind %s kt above the %s kt limit", passedText(r.a/knot, r.b/knot), limitText(r.b/knot))
 	case reasonCrosswind:
-		return fmt.Sprintf("crosswind %.0f kt above the %.0f kt limit", r.a/knot, r.b/knot)
+		return fmt.Sprintf("crosswind %s kt above the %s kt limit", passedText(r.a/knot, r.b/knot), limitText(r.b/knot))
 	case reasonDemonstrated:
-		return fmt.Sprintf("crosswind %.0f kt above the demonstrated %.0f kt (advisory, not a limit of the profile)", r.a/knot, r.b/knot)
+		return fmt.Sprintf("crosswind %s kt above the demonstrated %s kt (advisory, not a limit of the profile)", passedText(r.a/knot, r.b/knot), limitText(r.b/knot))
 	case reasonTemperature:
+		t, lo, hi := r.a-273.15, r.b-273.15, r.c-273.15
 		switch {
 		case r.b == 0:
-			return fmt.Sprintf("temperature %.0f C above the declared limit %.0f C", r.a-273.15, r.c-273.15)
+			return fmt.Sprintf("temperature %s C above the declared limit %s C", passedText(t, hi), limitText(hi))
 		case r.c == 0:
-			return fmt.Sprintf("temperature %.0f C below the declared limit %.0f C", r.a-273.15, r.b-273.15)
+			return fmt.Sprintf("temperature %s C below the declared limit %s C", passedText(t, lo), limitText(lo))
 		}
-		return fmt.Sprintf("temperature %.0f C outside the declared limits %.0f to %.0f C", r.a-273.15, r.b-273.15, r.c-273.15)
+		lim := lo
+		if t > hi {
+			lim = hi
+		}
+		return fmt.Sprintf("temperature %s C outside the declared limits %s to %s C", passedText(t, lim), limitText(lo), limitText(hi))
 	case reasonNoGo:
 		return fmt.Sprintf("%s: %.0f %s required, %.0f %s available", r.s, r.a, r.unit, r.b, r.unit)
 	case reasonTight:
@@ -169,6 +174,27 @@ func (r reason) String() string {
 		return fmt.Sprintf("%s %s stands before the 50 ft point (takeoff distance %.0f %s from the start of the run): %.0f ft clearance required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), r.a, r.unit, r.b)
 	}
 	return r.s
+}
+
+// passedText prints a value v that lies beyond a limit lim (both in the printing
+// unit) in whole units, unless whole units would not show it beyond the limit (15.3 kt
+// printed "15" above a 15 kt limit): then with one decimal, rounded away from the
+// limit ("15.3", and "15.1" for 15.04). A reason never reads "15 kt above 15 kt".
+func passedText(v, lim float64) string {
+	if w := math.Round(v); (v > lim && w > lim) || (v < lim && w < lim) {
+		return strconv.FormatFloat(w, 'f', 0, 64)
+	}
+	if v > lim {
+		return strconv.FormatFloat(math.Ceil(v*10-1e-9)/10, 'f', 1, 64)
+	}
+	return strconv.FormatFloat(math.Floor(v*10+1e-9)/10, 'f', 1, 64)
+}
+
+// limitText prints a limit as written in a profile: whole units, or one decimal when
+// it has one (17.5 kt).
+func limitText(v float64) string {
+	s := strconv.FormatFloat(v, 'f', 1, 64)
+	return strings.TrimSuffix(s, ".0")
 }
 
 // Reasons says, in words, why the cell has its state: limits passed, the limiting

@@ -44,7 +44,7 @@ func EvaluateLanding(k LandingCase) Cell {
 		mlm = a.Landing.MaxMassKg
 	}
 	if k.MassKg > mlm+1e-9 {
-		c.worsen(BeyondLimits, reason{s: fmt.Sprintf("weight %.0f kg above the maximum landing mass %.0f kg", k.MassKg, mlm)})
+		c.worsen(BeyondLimits, reason{s: fmt.Sprintf("weight %s kg above the maximum landing mass %s kg", passedText(k.MassKg, mlm), limitText(mlm))})
 	}
 	along := k.Wind.ForDistanceMS()
 	if tail := -along; tail > a.MaxTailwindMS+1e-9 {

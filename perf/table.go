@@ -120,7 +120,7 @@ func (m *TableModel) Takeoff(c Conditions) (Result, error) {
 // highest value of an axis: ErrNoData, never an extrapolation; below the lowest, the
 // lowest value's figures with a note.
 func (t *Table) lookup(c Conditions) (gr, total float64, notes []string, err error) {
-	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "weight", func(x float64) string { return fmt.Sprintf("%.0f kg", x) })
+	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "weight", axisKg)
 	if err != nil {
 		return 0, 0, notes, err
 	}
@@ -130,14 +130,14 @@ func (t *Table) lookup(c Conditions) (gr, total float64, notes []string, err err
 		// the profile's lowest flyable mass is checked before a model is asked.
 		notes = append(notes, fmt.Sprintf("weight %.0f kg is below the table's lightest block: the %.0f kg figures are used", c.MassKg, t.WeightKg[0]))
 	}
-	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "pressure altitude", func(x float64) string { return fmt.Sprintf("%.0f ft", x/0.3048) })
+	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "pressure altitude", axisFt)
 	if err != nil {
 		return 0, 0, notes, err
 	}
 	if note != "" {
 		notes = append(notes, note)
 	}
-	ti, tf, note, err := axisPos(t.TempK, c.TempK, "temperature", func(x float64) string { return fmt.Sprintf("%.0f C", x-273.15) })
+	ti, tf, note, err := axisPos(t.TempK, c.TempK, "temperature", axisC)
 	if err != nil {
 		return 0, 0, notes, err
 	}
@@ -209,17 +209,39 @@ func (t *Table) applyNotes(c Conditions, gr, total float64, covers *Effects, not
 
 const knot = 1852.0 / 3600.0
 
+// axisUnit is how an axis is printed in a message: a conversion from SI and a unit.
+type axisUnit struct {
+	conv func(float64) float64
+	unit string
+}
+
+// The axes of the tables, as messages print them.
+var (
+	axisKg = axisUnit{func(x float64) float64 { return x }, "kg"}
+	axisFt = axisUnit{func(x float64) float64 { return x / footM }, "ft"}
+	axisC  = axisUnit{func(x float64) float64 { return x - 273.15 }, "C"}
+)
+
+// show prints an axis value in whole units.
+func (u axisUnit) show(x float64) string { return fmt.Sprintf("%.0f %s", u.conv(x), u.unit) }
+
+// passed prints x, which lies beyond the axis end lim, so that it never reads as lim
+// itself (passedText).
+func (u axisUnit) passed(x, lim float64) string {
+	return passedText(u.conv(x), u.conv(lim)) + " " + u.unit
+}
+
 // axisPos finds x on a strictly increasing axis: the index i and fraction f with
 // x = xs[i] + f (xs[i+1]-xs[i]). Below the first value it returns (0, 0) and a note
 // (conservative use of the lowest column); above the last, ErrNoData.
-func axisPos(xs []float64, x float64, name string, show func(float64) string) (int, float64, string, error) {
+func axisPos(xs []float64, x float64, name string, u axisUnit) (int, float64, string, error) {
 	n := len(xs)
 	const eps = 1e-9
 	if x > xs[n-1]+eps {
-		return 0, 0, "", fmt.Errorf("%w: %s %s above the table's highest, %s", ErrNoData, name, show(x), show(xs[n-1]))
+		return 0, 0, "", fmt.Errorf("%w: %s %s above the table's highest, %s", ErrNoData, name, u.passed(x, xs[n-1]), u.show(xs[n-1]))
 	}
 	if x < xs[0]-eps {
-		return 0, 0, fmt.Sprintf("%s %s below the table: figures for %s used (conservative)", name, show(x), show(xs[0])), nil
+		return 0, 0, fmt.Sprintf("%s %s below the table: figures for %s used (conservative)", name, u.passed(x, xs[0]), u.show(xs[0])), nil
 	}
 	if n == 1 || x <= xs[0] {
 		return 0, 0, "", nil

@@ -146,6 +146,7 @@ func checkRun(e env, opts *checkOptions) error {
 	// Temperature and QNH: the flag wins over the report and is named.
 	if rep != nil {
 		in.METAR = rep.Text
+		in.Warnings = rep.Warnings()
 	}
 	if opts.temp != "" {
 		if q.TempK, err = quantity("temp", opts.temp, units.Temperature); err != nil {

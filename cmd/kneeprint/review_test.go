@@ -249,3 +249,67 @@ func TestDiffObstacleReasonEndToEnd(t *testing.T) {
 	}
 	assert.Greater(t, n, 0)
 }
+
+// Messages a pilot reads (review, cosmetic): "1 weight blocks ... do not fit on a 5x8
+// card" read wrong. One block is one block, and the page is named without an article
+// that does not fit its name ("a a5").
+func TestCardTooFullMessage(t *testing.T) {
+	tpl, err := os.ReadFile("../../templates/cards/5x8.yaml")
+	require.NoError(t, err)
+	f := writeFile(t, "tight.yaml", strings.NewReplacer(
+		"winds: [-10 kt, -5 kt, 0 kt, 5 kt, 10 kt, 15 kt, 20 kt]", "winds: [-10 kt, -8 kt, -6 kt, -4 kt, -2 kt, 0 kt, 4 kt, 8 kt, 12 kt, 16 kt, 20 kt]",
+		"landing: back", "landing: same-page").Replace(string(tpl)))
+	code, out, errOut := runCLI(t, "cards", "--aircraft", "demo:quillwing-qt6", "--airfield", "demo:wrenmoor", "--template", f, "-o", t.TempDir())
+	require.Equal(t, exitFailure, code)
+	assert.Contains(t, out+errOut, "1 weight block of 11 rows does not fit on the 5x8 card")
+	assert.NotContains(t, out+errOut, "1 weight blocks")
+}
+
+// check --json printed factors rounded ("upslope 0.3 % x1.01" while 1.015 was used,
+// "LDA x1.429"): now each factor as applied, as the card prints it (+1.5 %, ×1.33).
+// 0.3 % upslope: +5 % per 1 % (AMC2 CAT.POL.A.305; SSL 7c: 2 % uphill x1.1), x1.015;
+// the landing on 25 runs down the same 0.3 %: +5 % per 1 % of downslope (AMC2
+// CAT.POL.A.330 as CAP 698 quotes it), x1.015; 70 % of the LDA is x1/0.7 =
+// 1.4285714... (CAT.POL.A.330(a)); SSL 7c's x1.43 and x1.33 (from memory).
+func TestCheckFactorsAsApplied(t *testing.T) {
+	base := []string{"--aircraft", "demo:sedgefin-sf2", "--airfield", "demo:wrenmoor", "--temp", "15C", "--qnh", "1013hPa"}
+	run := checkJSON(t, base...)
+	e07 := strings.Join(toStrings(endByDesignator(t, run, "07")["factors"]), "\n")
+	assert.Contains(t, e07, "upslope 0.3 % x1.015 (")
+	assert.Contains(t, e07, "TORA x1.33")
+	assert.NotContains(t, e07, "x1.01 (")
+	l25 := strings.Join(toStrings(landingByDesignator(t, run, "25")["factors"]), "\n")
+	assert.Contains(t, l25, "downslope 0.3 % x1.015 (")
+	assert.Contains(t, l25, "LDA x1.43")
+	eu := checkJSON(t, append(base, "--policy", "eu-class-b")...)
+	assert.Contains(t, strings.Join(toStrings(landingByDesignator(t, eu, "25")["factors"]), "\n"), "LDA x1.428571 (1/0.7)")
+	assert.Contains(t, strings.Join(toStrings(endByDesignator(t, eu, "07")["factors"]), "\n"), "TORA x1.25")
+}
+
+// A weight of 1e308 kg printed a 309-digit figure in a reason: a weight past 1.5 times
+// the MTOW is a slip (an extra digit, pounds written as kilograms), refused with the
+// range; one just over the MTOW is still answered (beyond limits).
+func TestCheckAbsurdWeightRefused(t *testing.T) {
+	for _, w := range []string{"1e308kg", "10000kg", "2205kg"} {
+		code, out, errOut := runCLI(t, append(append([]string{"check"}, trainerAtWrenmoor...), "--temp", "15C", "--qnh", "1013hPa", "--weight", w)...)
+		assert.Equal(t, exitUsage, code, w)
+		assert.Empty(t, out, w)
+		assert.Contains(t, errOut, "accepted: 800 to 1500 kg (the lowest flyable mass to 1.5 times the MTOW)", w)
+		assert.Less(t, len(errOut), 400, w)
+	}
+	e := endByDesignator(t, checkJSON(t, append(trainerAtWrenmoor, "--temp", "15C", "--qnh", "1013hPa", "--weight", "1100kg")...), "07")
+	assert.Equal(t, "beyond-limits", e["status"])
+}
+
+// A report whose dew point is above its temperature was accepted silently: the check
+// still answers (the temperature is the report's), and warns, in text and JSON.
+func TestCheckWarnsDewAboveTemperature(t *testing.T) {
+	const rep = "METAR ZZZZ 121250Z 24008KT 9999 FEW030 15/18 Q1013"
+	run := checkJSON(t, append(trainerAtWrenmoor, "--metar", rep)...)
+	assert.Contains(t, strings.Join(toStrings(run["warnings"]), "\n"), "the dew point 18 C (15/18) is above the temperature 15 C")
+	code, out, _ := runCLI(t, append(append([]string{"check"}, trainerAtWrenmoor...), "--metar", rep)...)
+	require.Equal(t, exitOK, code)
+	assert.Contains(t, out, "WARNING: the dew point 18 C (15/18) is above the temperature 15 C")
+	run = checkJSON(t, append(trainerAtWrenmoor, "--metar", "METAR ZZZZ 121250Z 24008KT 9999 FEW030 18/15 Q1013")...)
+	assert.Nil(t, run["warnings"])
+}

@@ -199,7 +199,11 @@ func abs(x float64) float64 {
 func summarizeTemplate(w io.Writer, t *CardTemplate) {
 	fmt.Fprintf(w, "  card template %q: page %s, unit %s, policy %s, QNH %.0f hPa, tight margin %.0f %%\n",
 		t.Name, t.Page, t.Unit, t.Policy, units.HPa(t.QNHPa), t.TightMargin*100)
-	fmt.Fprintf(w, "  %d temperatures x %d winds, up to %d weight blocks; valid %d days; obstacles cleared by %.0f ft\n", len(t.TempsK), len(t.WindsMS), t.MaxBlocks, t.ValidDays, units.Feet(t.ObstacleMarginM))
+	blocks := fmt.Sprintf("up to %d weight blocks", t.MaxBlocks)
+	if t.MaxBlocks == 1 {
+		blocks = "one weight block"
+	}
+	fmt.Fprintf(w, "  %d temperatures x %d winds, %s; valid %d days; obstacles cleared by %.0f ft\n", len(t.TempsK), len(t.WindsMS), blocks, t.ValidDays, units.Feet(t.ObstacleMarginM))
 	fmt.Fprintf(w, "  landing figures (for a profile with landing data): %s\n", t.Landing)
 }
 

@@ -328,11 +328,21 @@ func FormatRange(lo, hi float64, d Dimension, unit string) string {
 	return FormatNumberRange(a, b) + " " + unit
 }
 
-// FormatNumberRange prints the plain-number range lo to hi with each bound rounded
-// inwards to a sensible number of decimals: "1 to 19685", "0.01 to 0.15".
+// FormatNumberRange prints the plain-number range lo to hi with each bound as it is
+// when it has at most three decimals, else rounded inwards to a sensible number of
+// decimals: "1 to 19685", "0.01 to 0.15", "-10.16 to 25.4".
 func FormatNumberRange(lo, hi float64) string {
-	dl, dh := decimals(lo), decimals(hi)
-	return trimmed(roundTo(lo, dl, 1), dl) + " to " + trimmed(roundTo(hi, dh, -1), dh)
+	return bound(lo, 1) + " to " + bound(hi, -1)
+}
+
+// bound prints a range bound v, as it is when it has at most three decimals, else
+// rounded in the direction dir (+1 up, -1 down) to decimals(v).
+func bound(v float64, dir int) string {
+	if exact := roundTo(v, 3, 0); math.Abs(exact-v) < 1e-9*math.Max(1, math.Abs(v)) {
+		return trimmed(exact, 3)
+	}
+	d := decimals(v)
+	return trimmed(roundTo(v, d, dir), d)
 }
 
 // UnitOf is the canonical name of the unit text s is written in for dimension d, or
