@@ -160,7 +160,7 @@ func checkRun(e env, opts *checkOptions) error {
 		in.FromReport = append(in.FromReport, fmt.Sprintf("temperature %.0f C (%s)", units.Celsius(rep.TempK), rep.TempGroup))
 	}
 	if err := perf.CheckTemp(q.TempK); err != nil {
-		return fmt.Errorf("--temp: %w", err)
+		return fmt.Errorf("--temp: %w%s", err, inUnitWritten(opts.temp, units.Temperature, perf.MinPlausibleTempK, perf.MaxPlausibleTempK))
 	}
 	if opts.qnh != "" {
 		if q.QNHPa, err = quantity("qnh", opts.qnh, units.Pressure); err != nil {
@@ -174,14 +174,14 @@ func checkRun(e env, opts *checkOptions) error {
 		in.FromReport = append(in.FromReport, fmt.Sprintf("QNH %.1f hPa (%s)", units.HPa(rep.QNHPa), rep.QNHGroup))
 	}
 	if q.QNHPa < perf.MinQNHPa || q.QNHPa > perf.MaxQNHPa {
-		return errors.New("--qnh: outside 800 to 1100 hPa")
+		return fmt.Errorf("--qnh: outside 800 to 1100 hPa%s", inUnitWritten(opts.qnh, units.Pressure, perf.MinQNHPa, perf.MaxQNHPa))
 	}
 	if opts.weight != "" {
 		if q.MassKg, err = quantity("weight", opts.weight, units.Mass); err != nil {
 			return err
 		}
 		if err := perf.CheckMass(j.aircraft, q.MassKg); err != nil {
-			return fmt.Errorf("--weight: %w", err)
+			return fmt.Errorf("--weight: %w%s", err, inUnitWritten(opts.weight, units.Mass, j.aircraft.MinMassKg, perf.MaxMassOverMTOW*j.aircraft.MTOWKg))
 		}
 	}
 
@@ -235,7 +235,7 @@ func checkRun(e env, opts *checkOptions) error {
 				return err
 			}
 			if err := perf.CheckMass(j.aircraft, landingQ.MassKg); err != nil {
-				return fmt.Errorf("--landing-weight: %w", err)
+				return fmt.Errorf("--landing-weight: %w%s", err, inUnitWritten(opts.landingWeight, units.Mass, j.aircraft.MinMassKg, perf.MaxMassOverMTOW*j.aircraft.MTOWKg))
 			}
 		}
 	}
@@ -269,6 +269,17 @@ func checkRun(e env, opts *checkOptions) error {
 		return report.WriteCheckJSON(e.stdout, run)
 	}
 	return report.WriteCheckText(e.stdout, run)
+}
+
+// inUnitWritten repeats an accepted SI range lo to hi in the unit flag value v was
+// written in, when that is not the unit the message uses (" (in F: -130 to 140 F)");
+// "" otherwise.
+func inUnitWritten(v string, dim units.Dimension, lo, hi float64) string {
+	u := units.UnitOf(v, dim)
+	if u == units.Accepted(dim)[0] {
+		return ""
+	}
+	return fmt.Sprintf(" (in %s: %s)", u, units.FormatRange(lo, hi, dim, u))
 }
 
 func orMissing(g string) string {

@@ -313,3 +313,21 @@ func TestCheckWarnsDewAboveTemperature(t *testing.T) {
 	run = checkJSON(t, append(trainerAtWrenmoor, "--metar", "METAR ZZZZ 121250Z 24008KT 9999 FEW030 18/15 Q1013")...)
 	assert.Nil(t, run["warnings"])
 }
+
+// A flag out of range is answered in the unit it was written in too: 500 F against
+// -90 to 60 C is -130 to 140 F (ISO 80000-5); 35 inHg against 800 to 1100 hPa is
+// 23.63 to 32.48 inHg (1 inHg = 33.86389 hPa, NIST SP 811); 5000 lb against the demo
+// trainer's 800 to 1500 kg is 1764 to 3306 lb (1 lb = 0.45359237 kg), rounded inwards.
+func TestCheckFlagRangesInTheUnitWritten(t *testing.T) {
+	for _, tc := range []struct{ flag, value, want string }{
+		{"--temp", "500F", "-130 to 140 F"},
+		{"--qnh", "35inHg", "23.63 to 32.48 inHg"},
+		{"--weight", "5000lb", "1764 to 3306 lb"},
+	} {
+		args := append(append([]string{"check"}, trainerAtWrenmoor...), "--temp", "15C", "--qnh", "1013hPa")
+		args = append(args, tc.flag, tc.value)
+		code, _, errOut := runCLI(t, args...)
+		assert.Equal(t, exitUsage, code, tc.flag)
+		assert.Contains(t, errOut, tc.want, tc.flag)
+	}
+}

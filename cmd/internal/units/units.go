@@ -272,6 +272,18 @@ func decimals(v float64) int {
 	return 3
 }
 
+// unitDecimals are units read to finer steps than their magnitude suggests: an
+// altimeter setting in inches of mercury is read to the hundredth (29.92).
+var unitDecimals = map[string]int{"inHg": 2}
+
+// decimalsIn is decimals(v), at least what unit is read to.
+func decimalsIn(v float64, unit string) int {
+	if d := unitDecimals[unit]; d > decimals(v) {
+		return d
+	}
+	return decimals(v)
+}
+
 // trimmed prints v with dec decimals and no trailing zeros.
 func trimmed(v float64, dec int) string {
 	s := strconv.FormatFloat(v, 'f', dec, 64)
@@ -311,7 +323,8 @@ func Format(x float64, d Dimension, unit string) string {
 		unit = siName(d)
 		v, _ = FromSI(x, d, unit)
 	}
-	return trimmed(roundTo(v, decimals(v), 0), decimals(v)) + " " + unit
+	dec := decimalsIn(v, unit)
+	return trimmed(roundTo(v, dec, 0), dec) + " " + unit
 }
 
 // FormatRange prints the SI range lo to hi of dimension d in unit (the SI unit when
@@ -325,23 +338,23 @@ func FormatRange(lo, hi float64, d Dimension, unit string) string {
 		a, _ = FromSI(lo, d, unit)
 	}
 	b, _ := FromSI(hi, d, unit)
-	return FormatNumberRange(a, b) + " " + unit
+	return boundIn(a, 1, unit) + " to " + boundIn(b, -1, unit) + " " + unit
 }
 
 // FormatNumberRange prints the plain-number range lo to hi with each bound as it is
 // when it has at most three decimals, else rounded inwards to a sensible number of
 // decimals: "1 to 19685", "0.01 to 0.15", "-10.16 to 25.4".
 func FormatNumberRange(lo, hi float64) string {
-	return bound(lo, 1) + " to " + bound(hi, -1)
+	return boundIn(lo, 1, "") + " to " + boundIn(hi, -1, "")
 }
 
-// bound prints a range bound v, as it is when it has at most three decimals, else
-// rounded in the direction dir (+1 up, -1 down) to decimals(v).
-func bound(v float64, dir int) string {
+// boundIn prints a range bound v in unit, as it is when it has at most three
+// decimals, else rounded in the direction dir (+1 up, -1 down) to decimalsIn(v, unit).
+func boundIn(v float64, dir int, unit string) string {
 	if exact := roundTo(v, 3, 0); math.Abs(exact-v) < 1e-9*math.Max(1, math.Abs(v)) {
 		return trimmed(exact, 3)
 	}
-	d := decimals(v)
+	d := decimalsIn(v, unit)
 	return trimmed(roundTo(v, d, dir), d)
 }
 

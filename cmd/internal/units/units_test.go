@@ -115,6 +115,7 @@ func TestFormatInTheUnitWritten(t *testing.T) {
 		{"-60 to 60 C in F", FormatRange(-60+KelvinAtZeroCelsius, 60+KelvinAtZeroCelsius, Temperature, "F"), "-76 to 140 F"},
 		{"100 to 5670 kg in lb: inwards", FormatRange(100, 5670, Mass, "lb"), "221 to 12500 lb"},
 		{"unknown unit: SI", FormatRange(1, 2, Length, "furlong"), "1 to 2 m"},
+		{"inHg to the hundredth (NIST SP 811: 1 inHg = 3386.389 Pa)", FormatRange(80000, 110000, Pressure, "inHg"), "23.63 to 32.48 inHg"},
 		{"a length in ft", Format(610, Length, "ft"), "2001 ft"},
 		{"a mass in kg", Format(700, Mass, "kg"), "700 kg"},
 		{"a speed in km/h", Format(10, Speed, "km/h"), "36 km/h"},
