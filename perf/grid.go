@@ -180,14 +180,17 @@ func (r reason) String() string {
 // unit) in whole units, unless whole units would not show it beyond the limit (15.3 kt
 // printed "15" above a 15 kt limit): then with one decimal, rounded away from the
 // limit ("15.3", and "15.1" for 15.04). A reason never reads "15 kt above 15 kt".
-func passedText(v, lim float64) string {
+func passedText(v, lim float64) string { return string(appendPassed(nil, v, lim)) }
+
+// appendPassed appends passedText(v, lim) to b.
+func appendPassed(b []byte, v, lim float64) []byte {
 	if w := math.Round(v); (v > lim && w > lim) || (v < lim && w < lim) {
-		return strconv.FormatFloat(w, 'f', 0, 64)
+		return strconv.AppendFloat(b, w, 'f', 0, 64)
 	}
 	if v > lim {
-		return strconv.FormatFloat(math.Ceil(v*10-1e-9)/10, 'f', 1, 64)
+		return strconv.AppendFloat(b, math.Ceil(v*10-1e-9)/10, 'f', 1, 64)
 	}
-	return strconv.FormatFloat(math.Floor(v*10+1e-9)/10, 'f', 1, 64)
+	return strconv.AppendFloat(b, math.Floor(v*10+1e-9)/10, 'f', 1, 64)
 }
 
 // limitText prints a limit as written in a profile: whole units, or one decimal when

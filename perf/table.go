@@ -228,7 +228,9 @@ func (u axisUnit) show(x float64) string { return fmt.Sprintf("%.0f %s", u.conv(
 // passed prints x, which lies beyond the axis end lim, so that it never reads as lim
 // itself (passedText).
 func (u axisUnit) passed(x, lim float64) string {
-	return passedText(u.conv(x), u.conv(lim)) + " " + u.unit
+	var buf [24]byte
+	b := appendPassed(buf[:0], u.conv(x), u.conv(lim))
+	return string(append(append(b, ' '), u.unit...))
 }
 
 // axisPos finds x on a strictly increasing axis: the index i and fraction f with
