@@ -533,7 +533,7 @@ func (b *builder) columns(d CardData, w float64) (gridCols, error) {
 	const pad = 1.4
 	maxLabel := w - n*minCol
 	if need+pad > maxLabel {
-		return gridCols{}, fmt.Errorf("card %s %s: %d temperature columns of %.1f mm do not fit a %s card beside the row labels: use fewer temperatures or a larger page",
+		return gridCols{}, fmt.Errorf("card %s %s: %d temperature columns of %.1f mm do not fit the %s card beside the row labels: use fewer temperatures or a larger page",
 			d.Ident, d.Designator, len(d.Temps), minCol, b.card.Page.Name)
 	}
 	g := gridCols{labelW: math.Min(math.Max(one, need)+pad, math.Min(maxLabel, 26))}
@@ -617,8 +617,12 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	if numPt < MinNumberPt-1e-9 || rowH < MinNumberPt*ptMM {
 		minRow := (inkAboveEm+inkBelowEm)*MinNumberPt*ptMM + 2*cellPadMM
 		need := gaps + minRow*(top1+nB*nW) + nB*titleH(minRow)
-		return blk, 0, fmt.Errorf("card %s %s: %d weight blocks of %d rows do not fit on a %s card with figures of at least %.0f pt (%.0f mm left for the grid, %.0f mm needed): use fewer weights (max_blocks) or wind rows, or a larger page",
-			d.Ident, d.Designator, len(d.Blocks), len(d.WindsKt), b.card.Page.Name, MinNumberPt, h, need)
+		blocks := fmt.Sprintf("%d weight blocks of %d rows do not", len(d.Blocks), len(d.WindsKt))
+		if len(d.Blocks) == 1 {
+			blocks = fmt.Sprintf("1 weight block of %d rows does not", len(d.WindsKt))
+		}
+		return blk, 0, fmt.Errorf("card %s %s: %s fit on the %s card with figures of at least %.0f pt (%.0f mm left for the grid, %.0f mm needed): use fewer weights (max_blocks) or wind rows, or a larger page",
+			d.Ident, d.Designator, blocks, b.card.Page.Name, MinNumberPt, h, need)
 	}
 	th := titleH(rowH)
 	labPt := math.Min(MinTextPt+1, numPt)

@@ -76,6 +76,9 @@ type Calibration struct {
 	LargestPct            float64    `json:"-"` // largest |residual| over every figure
 	BoundHit              bool       `json:"-"`
 	Evaluations           int        `json:"-"` // model evaluations of the whole fit
+	// Floor multiplies the fitted model's distances so that it is never shorter than
+	// the manual at these points (floorFactor; PhysicsModel.Takeoff).
+	Floor float64
 }
 
 // ModelLine is how a card names the model: "physics, calibrated to 4 manual points
@@ -88,7 +91,7 @@ func (c *Calibration) ModelLine() string {
 	if len(c.Points) == 1 {
 		noun = "point"
 	}
-	return fmt.Sprintf("physics, calibrated to %d manual %s (largest residual %.1f %%)", len(c.Points), noun, c.LargestPct)
+	return fmt.Sprintf("physics, calibrated to %d manual %s (largest residual %.1f %%%s)", len(c.Points), noun, c.LargestPct, floorText(c.Floor))
 }
 
 // Figures is how many distances the fit was held against.
@@ -183,6 +186,9 @@ func logit(p, lo, hi float64) float64 {
 // run, eta the late run and the whole air segment, whose energy method has no other
 // unknown than the excess thrust eta P / V - D.
 //
+// The fitted model is then floored at the manual's own figures (Floor, floorFactor):
+// never shorter than the manual at any of its points.
+//
 // The returned Calibration is never nil when points are given; the error is a
 // *FitError when a residual exceeds CalibrationTolerancePct or a parameter ends on a
 // bound (the Calibration then shows the refused fit).
@@ -194,6 +200,7 @@ func Calibrate(m PhysicsModel, points []CalibrationPoint) (*Calibration, error) 
 		return nil, fmt.Errorf("%d calibration points, at most %d", len(points), MaxCalibrationPoints)
 	}
 	m.Envelope = nil
+	m.P.Calibration = nil // the fit is of the bare model: no floor factors
 	cal := &Calibration{Points: append([]CalibrationPoint(nil), points...), StartStatic: m.P.StaticThrustFac, StartEta: m.P.PropEfficiency}
 	params := []fitParam{
 		{"static thrust fraction", m.P.StaticThrustFac, MinStaticThrustFrac, MaxStaticThrustFrac},
@@ -223,6 +230,7 @@ func Calibrate(m PhysicsModel, points []CalibrationPoint) (*Calibration, error) 
 		},
 		func(i int) [2]float64 { return [2]float64{points[i].GroundRollM, points[i].To50ftM} },
 		[2]string{"ground_roll", "to_50ft"})
+	cal.Floor = floorFactor(cal.Fits, func(i int) [2]float64 { return [2]float64{points[i].GroundRollM, points[i].To50ftM} })
 	var bp []FitProblem
 	cal.BoundHit, bp = boundProblems(params, vals, "the description (power, propeller diameter, drag, speeds) does not match the manual's figures")
 	fe.Problems = append(fe.Problems, bp...)

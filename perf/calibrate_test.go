@@ -106,7 +106,8 @@ func TestCalibrateDeterministic(t *testing.T) {
 	assert.Equal(t, math.Float64bits(a.Static), math.Float64bits(b.Static))
 	assert.Equal(t, math.Float64bits(a.Eta), math.Float64bits(b.Eta))
 	assert.Equal(t, a.Fits, b.Fits)
-	assert.Equal(t, fmt.Sprintf("physics, calibrated to 6 manual points (largest residual %.1f %%)", a.LargestPct), a.ModelLine())
+	assert.Equal(t, a.Floor, b.Floor)
+	assert.Equal(t, fmt.Sprintf("physics, calibrated to 6 manual points (largest residual %.1f %%, floor ×%s)", a.LargestPct, trim3(a.Floor)), a.ModelLine())
 }
 
 // A typing slip in one figure: the fit refuses, naming that figure; the others fit.
@@ -227,4 +228,98 @@ func BenchmarkCalibrate10Points(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// A calibrated model is never shorter than the manual at its own points (review: a
+// fit 5 % inside the tolerance printed 452 m for the manual's 455 m). The fit's
+// figures are multiplied by a floor factor: the largest ratio manual/model over every
+// figure of the points, rounded up to a thousandth (so the factor printed is the
+// factor applied), never below 1.
+//
+// Hand values: a point the fit gives 452 m for the manual's 455 m asks
+// ceil(455/452 x 1000)/1000 = 1.007 (455/452 = 1.00664); a figure where the fit is
+// already longer asks nothing; the factor is the largest over figures and points.
+func TestFloorFactorByHand(t *testing.T) {
+	fits := []PointFit{{GroundRollM: 452, To50ftM: 800}, {GroundRollM: 300, To50ftM: 500}, {Err: "no figure"}}
+	manual := [][2]float64{{455, 790}, {290, 0}, {400, 700}}
+	f := floorFactor(fits, func(i int) [2]float64 { return manual[i] })
+	assert.Equal(t, 1.007, f)
+	gr, to := applyFloor(f, 452, 800)
+	assert.InDelta(t, 455.164, gr, 1e-9, "452 x 1.007")
+	assert.InDelta(t, 805.6, to, 1e-9, "800 x 1.007")
+	// An exact fit (here the model longer everywhere) asks nothing; zero (an old,
+	// unfloored calibration) changes nothing.
+	assert.Equal(t, 1.0, floorFactor([]PointFit{{GroundRollM: 460, To50ftM: 800}}, func(int) [2]float64 { return [2]float64{455, 790} }))
+	gr, to = applyFloor(0, 452, 800)
+	assert.Equal(t, [2]float64{452, 800}, [2]float64{gr, to})
+	assert.Equal(t, ", floor ×1.007", floorText(1.007))
+	assert.Equal(t, ", floor ×1.01", floorText(1.010))
+	assert.Equal(t, "", floorText(1))
+}
+
+// Property through the real fit: with manual figures the physics cannot meet exactly
+// (figures 3 % and 2 % longer and one 2 % shorter than the truth), every point's
+// calibrated figure is at least the manual's, both figures, and the model line says
+// what was applied.
+func TestCalibratedNeverShorterThanManual(t *testing.T) {
+	truth := demoPhysics()
+	truth.P.StaticThrustFac, truth.P.PropEfficiency = 0.6, 0.66
+	pts := pointsFrom(t, truth, syntheticConditions()[:8])
+	pts[1].To50ftM *= 1.03
+	pts[4].GroundRollM *= 1.02
+	pts[6].To50ftM *= 0.98
+	cal, err := Calibrate(*demoPhysics(), pts)
+	require.NoError(t, err)
+	assert.Greater(t, cal.Floor, 1.0)
+	assert.Less(t, cal.Floor, 1/(1-CalibrationTolerancePct/100)+0.001, "bounded by the fit's tolerance")
+
+	m := *demoPhysics()
+	m.P.StaticThrustFac, m.P.PropEfficiency, m.P.Calibration = cal.Static, cal.Eta, cal
+	bare := m
+	bare.P.Calibration = nil
+	for i, p := range pts {
+		r, err := m.Takeoff(p.Conditions)
+		require.NoError(t, err)
+		assert.GreaterOrEqual(t, r.GroundRollM, p.GroundRollM-1e-9, "point %d ground roll", i)
+		assert.GreaterOrEqual(t, r.To50ftM, p.To50ftM-1e-9, "point %d to 50 ft", i)
+		b, err := bare.Takeoff(p.Conditions)
+		require.NoError(t, err)
+		assert.InDelta(t, b.To50ftM*cal.Floor, r.To50ftM, 1e-9, "the factor applied is the factor printed")
+	}
+	assert.Contains(t, cal.ModelLine(), fmt.Sprintf("%%, floor ×%s)", trim3(cal.Floor)))
+
+	// Deterministic: the same points, the same factor, bit for bit.
+	again, err := Calibrate(*demoPhysics(), pts)
+	require.NoError(t, err)
+	assert.Equal(t, math.Float64bits(cal.Floor), math.Float64bits(again.Floor))
+}
+
+// The landing fit is floored the same way: never shorter than the manual's landing
+// figures at its own points.
+func TestCalibratedLandingNeverShorterThanManual(t *testing.T) {
+	truth := demoLandingPhysics()
+	truth.L.ApproachAngleDeg, truth.L.BrakingFraction = 6.5, 0.42
+	var pts []CalibrationPoint
+	for _, c := range []Conditions{
+		{TempK: 288.15, MassKg: 1200, Surface: Paved, Condition: Dry},
+		{PressureAltM: 4000 * ft, TempK: 280.2, MassKg: 1200, Surface: Paved, Condition: Dry},
+		{TempK: 303.15, MassKg: 1000, Surface: Paved, Condition: Dry},
+	} {
+		r := landingRef(truth, c)
+		pts = append(pts, CalibrationPoint{Conditions: c, GroundRollM: r.GroundRollM, To50ftM: r.From50ftM})
+	}
+	pts[0].To50ftM *= 1.03
+	pts[2].GroundRollM *= 1.025
+	cal, err := CalibrateLanding(*demoLandingPhysics(), pts)
+	require.NoError(t, err)
+	assert.Greater(t, cal.Floor, 1.0)
+	m := *demoLandingPhysics()
+	m.L.ApproachAngleDeg, m.L.BrakingFraction, m.L.Calibration = cal.ApproachAngleDeg, cal.BrakingFrac, cal
+	for i, p := range pts {
+		r, err := m.Land(p.Conditions)
+		require.NoError(t, err)
+		assert.GreaterOrEqual(t, r.GroundRollM, p.GroundRollM-1e-9, "point %d ground roll", i)
+		assert.GreaterOrEqual(t, r.From50ftM, p.To50ftM-1e-9, "point %d from 50 ft", i)
+	}
+	assert.Contains(t, cal.ModelLine(), fmt.Sprintf("%%, floor ×%s)", trim3(cal.Floor)))
 }

@@ -85,17 +85,39 @@ func showC(k float64) string {
 	return fmt.Sprintf("%.1f C", k-273.15)
 }
 
-// CheckMass refuses a takeoff mass that is not finite, not positive, or below the
+// MaxMassOverMTOW bounds the weight a question may ask for: 1.5 times the MTOW. A
+// weight above the MTOW is answered (beyond limits, which is worth knowing), but one
+// half as much again is a slip, not a loading: an extra digit, or pounds written as
+// kilograms (2.2 times); common practice.
+const MaxMassOverMTOW = 1.5
+
+// CheckMass refuses a takeoff mass that is not finite, not positive, below the
 // profile's lowest flyable mass (issue 14.2: "100 kg" for 1000 kg is a dropped zero,
-// not a light aircraft).
+// not a light aircraft), or above MaxMassOverMTOW times the MTOW, naming the range.
 func CheckMass(a *Aircraft, kg float64) error {
 	switch {
 	case !(kg > 0) || math.IsInf(kg, 0):
-		return fmt.Errorf("weight %g kg is not a mass an aircraft can have", kg)
+		return fmt.Errorf("weight %s kg is not a mass an aircraft can have", massText(kg))
 	case a.MinMassKg > 0 && kg < a.MinMassKg-1e-9:
-		return fmt.Errorf("weight %.0f kg is below the lowest flyable mass %.0f kg of %q (min_mass): check the figure", kg, a.MinMassKg, a.Name)
+		return fmt.Errorf("weight %s kg is below the lowest flyable mass %.0f kg of %q (min_mass): check the figure", massText(kg), a.MinMassKg, a.Name)
+	case a.MTOWKg > 0 && kg > MaxMassOverMTOW*a.MTOWKg+1e-9:
+		lo := "0"
+		if a.MinMassKg > 0 {
+			lo = fmt.Sprintf("%.0f", a.MinMassKg)
+		}
+		return fmt.Errorf("weight %s kg is no loading of %q: check the figure (an extra digit, pounds written as kilograms); accepted: %s to %.0f kg (the lowest flyable mass to %g times the MTOW)",
+			massText(kg), a.Name, lo, MaxMassOverMTOW*a.MTOWKg, MaxMassOverMTOW)
 	}
 	return nil
+}
+
+// massText prints a mass in a message: whole kilograms, or in short scientific form
+// when it is far beyond any aircraft (1e+308, never 309 digits).
+func massText(kg float64) string {
+	if math.IsNaN(kg) || math.IsInf(kg, 0) || math.Abs(kg) >= 1e7 {
+		return fmt.Sprintf("%.3g", kg)
+	}
+	return fmt.Sprintf("%.0f", kg)
 }
 
 // Check refuses a question kneeprint cannot answer honestly: an impossible weight or

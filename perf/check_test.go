@@ -26,22 +26,31 @@ func TestAskRefusesImpossibleQuestions(t *testing.T) {
 	_, err := Ask(a, m, uk, checkField(), good)
 	require.NoError(t, err)
 	for name, q := range map[string]Question{
-		"100 kg, a dropped zero":  {QNHPa: 101325, TempK: 288.15, MassKg: 100},
-		"zero mass":               {QNHPa: 101325, TempK: 288.15, MassKg: 0},
-		"negative mass":           {QNHPa: 101325, TempK: 288.15, MassKg: -1000},
-		"-300 C":                  {QNHPa: 101325, TempK: -300 + 273.15, MassKg: 900},
-		"1e308 C":                 {QNHPa: 101325, TempK: 1e308, MassKg: 900},
-		"NaN temperature":         {QNHPa: 101325, TempK: math.NaN(), MassKg: 900},
-		"QNH 10 hPa":              {QNHPa: 1000, TempK: 288.15, MassKg: 900},
-		"infinite wind":           {QNHPa: 101325, TempK: 288.15, MassKg: 900, Wind: Wind{FromDeg: 90, SpeedMS: math.Inf(1)}},
-		"NaN weight":              {QNHPa: 101325, TempK: 288.15, MassKg: math.NaN()},
-		"gust below steady speed": {QNHPa: 101325, TempK: 288.15, MassKg: 900, Wind: Wind{FromDeg: 90, SpeedMS: 10, GustMS: -5}},
+		"100 kg, a dropped zero":   {QNHPa: 101325, TempK: 288.15, MassKg: 100},
+		"zero mass":                {QNHPa: 101325, TempK: 288.15, MassKg: 0},
+		"negative mass":            {QNHPa: 101325, TempK: 288.15, MassKg: -1000},
+		"-300 C":                   {QNHPa: 101325, TempK: -300 + 273.15, MassKg: 900},
+		"1e308 C":                  {QNHPa: 101325, TempK: 1e308, MassKg: 900},
+		"NaN temperature":          {QNHPa: 101325, TempK: math.NaN(), MassKg: 900},
+		"QNH 10 hPa":               {QNHPa: 1000, TempK: 288.15, MassKg: 900},
+		"infinite wind":            {QNHPa: 101325, TempK: 288.15, MassKg: 900, Wind: Wind{FromDeg: 90, SpeedMS: math.Inf(1)}},
+		"NaN weight":               {QNHPa: 101325, TempK: 288.15, MassKg: math.NaN()},
+		"gust below steady speed":  {QNHPa: 101325, TempK: 288.15, MassKg: 900, Wind: Wind{FromDeg: 90, SpeedMS: 10, GustMS: -5}},
+		"1e308 kg":                 {QNHPa: 101325, TempK: 288.15, MassKg: 1e308},
+		"11000 kg, an extra digit": {QNHPa: 101325, TempK: 288.15, MassKg: 11000},
 	} {
 		_, err := Ask(a, m, uk, checkField(), q)
 		assert.Error(t, err, name)
 	}
 	_, err = Ask(a, m, uk, checkField(), Question{QNHPa: 101325, TempK: 288.15, MassKg: 100})
 	assert.ErrorContains(t, err, "below the lowest flyable mass 700 kg")
+	// The MTOW is 1100 kg: up to 1650 kg is answered (beyond limits), past it refused
+	// with the range; a huge figure is printed short.
+	_, err = Ask(a, m, uk, checkField(), Question{QNHPa: 101325, TempK: 288.15, MassKg: 1650})
+	assert.NoError(t, err)
+	_, err = Ask(a, m, uk, checkField(), Question{QNHPa: 101325, TempK: 288.15, MassKg: 1e308})
+	assert.ErrorContains(t, err, "weight 1e+308 kg is no loading of \"test\"")
+	assert.ErrorContains(t, err, "accepted: 700 to 1650 kg")
 }
 
 // Issue 9.7: each runway end answers at its own elevation, the highest of the

@@ -88,21 +88,21 @@ type TableClimb struct {
 func (m *TableClimb) Climb(c Conditions) (ClimbResult, error) {
 	t := m.Table
 	var r ClimbResult
-	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "climb table weight", func(x float64) string { return fmt.Sprintf("%.0f kg", x) })
+	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "climb table weight", axisKg)
 	if err != nil {
 		return r, err
 	}
 	if note != "" {
 		r.Notes = append(r.Notes, fmt.Sprintf("weight %.0f kg is below the climb table's lightest block: the %.0f kg rates are used", c.MassKg, t.WeightKg[0]))
 	}
-	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "climb table pressure altitude", func(x float64) string { return fmt.Sprintf("%.0f ft", x/footM) })
+	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "climb table pressure altitude", axisFt)
 	if err != nil {
 		return r, err
 	}
 	if note != "" {
 		r.Notes = append(r.Notes, note)
 	}
-	ti, tf, note, err := axisPos(t.TempK, c.TempK, "climb table temperature", func(x float64) string { return fmt.Sprintf("%.0f C", x-273.15) })
+	ti, tf, note, err := axisPos(t.TempK, c.TempK, "climb table temperature", axisC)
 	if err != nil {
 		return r, err
 	}
@@ -212,4 +212,52 @@ func (r ClimbResult) GroundGradient(creditedHeadwindMS float64) (float64, error)
 // takeoff data include.
 func ClimbCreditedWindMS(reportedHeadwindMS float64) float64 {
 	return CreditedWindMS(reportedHeadwindMS, false)
+}
+
+// axisFrac is axisPos without words: the index i and fraction f of x on the strictly
+// increasing axis xs, (0, 0) below the first value (the lowest is used, as axisPos
+// does), and above set when x lies past the last value. It allocates nothing: it runs
+// for every cell of every card (stillAirClimb).
+func axisFrac(xs []float64, x float64) (i int, f float64, above bool) {
+	n := len(xs)
+	const eps = 1e-9
+	if x > xs[n-1]+eps {
+		return 0, 0, true
+	}
+	if n == 1 || x <= xs[0] {
+		return 0, 0, false
+	}
+	for i := 0; i < n-1; i++ {
+		if x <= xs[i+1] {
+			return i, (x - xs[i]) / (xs[i+1] - xs[i]), false
+		}
+	}
+	return n - 1, 0, false
+}
+
+// stillAirClimb is the climb a profile's rate-of-climb table gives at the runway, for
+// the no-climb check of every cell (Evaluate): the rate at pressure altitude paM,
+// temperature tempK and mass massKg, interpolated as TableClimb.Climb does (the lowest
+// value of an axis below it), and the still-air gradient rate / V_TAS at the climb
+// speed. inside is false, with no figure, when a value lies above the table's highest
+// (no extrapolation: the check then does not apply), or when c has no table.
+func (c *Climb) stillAirClimb(paM, tempK, massKg float64) (rateMS, gradient float64, inside bool) {
+	if c == nil || c.Table == nil || !(c.SpeedIASMS > 0) {
+		return 0, 0, false
+	}
+	t := c.Table
+	wi, wf, above := axisFrac(t.WeightKg, massKg)
+	if above {
+		return 0, 0, false
+	}
+	pi, pf, above := axisFrac(t.PressureAltM, paM)
+	if above {
+		return 0, 0, false
+	}
+	ti, tf, above := axisFrac(t.TempK, tempK)
+	if above {
+		return 0, 0, false
+	}
+	rateMS = trilinear(t.RateMS, wi, wf, pi, pf, ti, tf)
+	return rateMS, rateMS / trueAirspeed(c.SpeedIASMS, paM, tempK), true
 }

@@ -2,6 +2,7 @@ package perf
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"testing"
 
@@ -182,4 +183,122 @@ func TestClimbFor(t *testing.T) {
 	require.NoError(t, err)
 	require.IsType(t, &PhysicsClimb{}, cm)
 	assert.NotNil(t, cm.(*PhysicsClimb).Envelope, "fitted to a table: never beyond it")
+}
+
+// noClimbAircraft is the small table aircraft with a climb table that runs out of
+// climb: -10 to 20 C (narrower than the takeoff table's 0 to 30 C), rates in ft/min
+// falling to zero and below at altitude and heat (invented test data).
+func noClimbAircraft() (*Aircraft, *TableModel) {
+	m := smallTable()
+	a := testAircraft(m)
+	fpm := footM / 60
+	a.Climb = &Climb{SpeedIASMS: 65 * knot, Table: &ClimbTable{
+		PressureAltM: []float64{0, 1000},
+		TempK:        []float64{263.15, 293.15},
+		WeightKg:     []float64{900, 1100},
+		RateMS: [][][]float64{
+			{{300 * fpm, 120 * fpm}, {150 * fpm, -30 * fpm}},
+			{{200 * fpm, 20 * fpm}, {60 * fpm, -100 * fpm}},
+		},
+	}}
+	return a, m
+}
+
+// A climb table that says "no climb" counts on every cell, not only on runway ends
+// with obstacles: where the manual's rate at the cell's pressure altitude,
+// temperature and weight gives a still-air gradient under 0.5 % (the physics model's
+// own threshold, common practice), the cell is the figure-less no-go "no takeoff".
+// Outside the climb table's data the rule does not apply, and the reason says so.
+//
+// Hand values: at sea level, 20 C, 1100 kg the table gives 20 ft/min = 0.1016 m/s;
+// the climb speed 65 kt IAS is 33.73 m/s true (sigma = 288.15/293.15 at ISA pressure,
+// ICAO Doc 7488: V_TAS = V_IAS / sqrt(sigma)), a gradient of 0.30 %: no climb.
+// At sea level, 0 C, 900 kg: 300 - 180/3 = 240 ft/min, 3.7 %: a climb.
+func TestNoClimbIsNoTakeoff(t *testing.T) {
+	a, m := noClimbAircraft()
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	end := RunwayEnd{Designator: "09", TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Paved, Condition: Dry}
+	cases := []struct {
+		name          string
+		pa, tk, mass  float64
+		wantNoTakeoff bool
+		wantReason    string
+	}{
+		{"negative rate", 1000, 293.15, 1100, true, "no takeoff: the manual's rate of climb at 65 kt is -100 ft/min at 3281 ft, 20 C"},
+		{"a rate under 0.5 %", 0, 293.15, 1100, true, "a still-air gradient of 0.3 %, under the 0.5 % counted as a climb"},
+		{"a climb", 0, 273.15, 900, false, ""},
+		{"hotter than the climb table", 0, 298.15, 900, false, "the climb table has no rate at 0 ft, 25 C, 900 kg: the no-climb check does not apply"},
+	}
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			c := Evaluate(Case{Aircraft: a, Model: m, Policy: uk, End: end, PressureAltM: tc.pa, TempK: tc.tk, MassKg: tc.mass, TightMargin: 0.1})
+			reasons := fmt.Sprint(c.Reasons())
+			if tc.wantNoTakeoff {
+				assert.Equal(t, NoGo, c.State, reasons)
+				assert.True(t, c.CannotTakeOff, "no takeoff is a no-go without a figure")
+				assert.False(t, c.HasDistance, "no figure")
+			} else {
+				assert.Equal(t, Go, c.State, reasons)
+				assert.True(t, c.HasDistance)
+			}
+			if tc.wantReason != "" {
+				assert.Contains(t, reasons, tc.wantReason)
+			}
+		})
+	}
+}
+
+// Property over a grid: no cell whose climb-table rate gives no climb is go or tight,
+// every such cell is "no takeoff", and a cell with a climb keeps the state the takeoff
+// alone gives (the check never improves a cell and never worsens one that climbs).
+func TestNoClimbGridProperty(t *testing.T) {
+	a, m := noClimbAircraft()
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	end := RunwayEnd{Designator: "09", TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Paved, Condition: Dry}
+	withoutClimb := *a
+	withoutClimb.Climb = nil
+	spec := GridSpec{TempsK: []float64{263.15, 268.15, 273.15, 278.15, 283.15, 288.15, 293.15}, HeadwindsMS: []float64{-5 * knot, 0, 10 * knot},
+		WeightsKg: []float64{1100, 1000, 900}, QNHPa: 100000, TightMargin: 0.1}
+	noClimbCells := 0
+	for _, elev := range []float64{0, 300, 600, 850} {
+		f := Airfield{ElevationM: elev}
+		g, err := ComputeGrid(a, m, uk, f, end, spec)
+		require.NoError(t, err)
+		ref, err := ComputeGrid(&withoutClimb, m, uk, f, end, spec)
+		require.NoError(t, err)
+		for wi := range g.Cells {
+			for hi := range g.Cells[wi] {
+				for ti, c := range g.Cells[wi][hi] {
+					rate, grad, inside := a.Climb.stillAirClimb(g.PressureAltM, spec.TempsK[ti], spec.WeightsKg[wi])
+					require.True(t, inside)
+					if grad < minClimbGradient {
+						noClimbCells++
+						assert.True(t, c.CannotTakeOff && c.State >= NoGo, "rate %.2f m/s: %v", rate, c.Reasons())
+						continue
+					}
+					assert.Equal(t, ref.Cells[wi][hi][ti].State, c.State)
+				}
+			}
+		}
+	}
+	assert.Greater(t, noClimbCells, 10, "the sweep reaches the no-climb corner")
+}
+
+// BenchmarkGridTableClimb is BenchmarkGridTable for a profile with a rate-of-climb
+// table: every cell also reads the climb table for the no-climb check (one
+// interpolation, no allocation), on a runway end without obstacles.
+func BenchmarkGridTableClimb(b *testing.B) {
+	m := smallTable()
+	a := testAircraft(m)
+	a.Climb = &Climb{SpeedIASMS: 65 * knot, Table: smallClimb()}
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	f := Airfield{ElevationM: 300}
+	end := RunwayEnd{TORAM: 700, TODAM: 700, ASDAM: 700, Surface: Grass, Condition: Dry, SlopePct: 1}
+	spec := DefaultGridSpec(a)
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		if _, err := ComputeGrid(a, m, uk, f, end, spec); err != nil {
+			b.Fatal(err)
+		}
+	}
 }

@@ -3,6 +3,8 @@ package perf
 import (
 	"fmt"
 	"math"
+	"strconv"
+	"strings"
 
 	"gonum.org/v1/gonum/optimize"
 )
@@ -121,4 +123,71 @@ func boundProblems(params []fitParam, vals []float64, what string) (hit bool, pr
 		}
 	}
 	return hit, problems
+}
+
+// exactFit is how far above 1 a ratio manual / model may be and still be taken as an
+// exact fit: the fit's own numerical noise, far below a printed metre.
+const exactFit = 1e-6
+
+// floorFactor is the floor factor of a calibration (Calibration.Floor,
+// LandingCalibration.Floor), which makes the calibrated model never shorter than the
+// manual at its own points: the fitted model's distances (ground roll, and total: to
+// 50 ft for a takeoff, from 50 ft for a landing) are multiplied by it. It is the
+// largest ratio manual / fitted model over every figure of every point, rounded up to
+// a thousandth (so the factor printed is the factor applied), and never below 1: one
+// factor for both figures, the larger of the two a factor per figure kind would give,
+// so that a figure and its ground roll keep their proportion. A fit within
+// CalibrationTolerancePct keeps it under 1/0.95 = 1.053. Zero (an old calibration)
+// changes nothing.
+//
+// The fit balances its residuals about zero (least squares), so without it some
+// manual figures would be printed shorter than the manual prints them: conservative
+// wins, and the manual's own figure is the floor where it gives one (kneeprint's own
+// rule, as FloorRule is for the policies' factors).
+//
+// fits are the fitted figures, manual gives point i's two figures (0 where the manual
+// gives none). A point the fit gives no figure for is refused elsewhere (residuals)
+// and counts for nothing here.
+func floorFactor(fits []PointFit, manual func(i int) [2]float64) float64 {
+	f := 1.0
+	for i, pf := range fits {
+		if pf.Err != "" {
+			continue
+		}
+		got, want := [2]float64{pf.GroundRollM, pf.To50ftM}, manual(i)
+		for k := 0; k < 2; k++ {
+			if !(want[k] > 0 && got[k] > 0) {
+				continue
+			}
+			if r := want[k] / got[k]; r > 1+exactFit {
+				f = math.Max(f, math.Ceil(r*1000-1e-9)/1000)
+			}
+		}
+	}
+	return f
+}
+
+// applyFloor multiplies a model's ground roll and total distance by the floor factor
+// f (nothing for f <= 1).
+func applyFloor(f, gr, total float64) (float64, float64) {
+	if !(f > 1) {
+		return gr, total
+	}
+	return gr * f, total * f
+}
+
+// floorText is what a model line adds for floor factor f: ", floor ×1.007", or
+// nothing when f changes nothing.
+func floorText(f float64) string {
+	if !(f > 1) {
+		return ""
+	}
+	return ", floor ×" + trim3(f)
+}
+
+// trim3 prints x with at most three decimals and no trailing zeros.
+func trim3(x float64) string {
+	s := strconv.FormatFloat(x, 'f', 3, 64)
+	s = strings.TrimRight(strings.TrimRight(s, "0"), ".")
+	return s
 }

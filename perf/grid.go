@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
+	"strings"
 )
 
 // State is the verdict of one grid cell.
@@ -127,26 +129,33 @@ const (
 	reasonTight
 	reasonObstacle       // a: clearance ft, b: margin ft, c: height m, d: distance past the end, s: note
 	reasonObstacleBefore // a: TOD, b: margin ft, c: height m, d: distance past the end, s: note
+	reasonNoClimb        // a: rate m/s, b: still-air gradient, c: pressure altitude m, d: temperature K, unit: climb speed kt
+	reasonClimbOutside   // a: pressure altitude m, b: temperature K, c: mass kg
 )
 
 func (r reason) String() string {
 	switch r.kind {
 	case reasonMTOW:
-		return fmt.Sprintf("weight %.0f kg above MTOW %.0f kg", r.a, r.b)
+		return fmt.Sprintf("weight %s kg above MTOW %s kg", passedText(r.a, r.b), limitText(r.b))
 	case reasonTailwind:
-		return fmt.Sprintf("tailwind %.0f kt above the %.0f kt limit", r.a/knot, r.b/knot)
+		return fmt.Sprintf("tailwind %s kt above the %s kt limit", passedText(r.a/knot, r.b/knot), limitText(r.b/knot))
 	case reasonCrosswind:
-		return fmt.Sprintf("crosswind %.0f kt above the %.0f kt limit", r.a/knot, r.b/knot)
+		return fmt.Sprintf("crosswind %s kt above the %s kt limit", passedText(r.a/knot, r.b/knot), limitText(r.b/knot))
 	case reasonDemonstrated:
-		return fmt.Sprintf("crosswind %.0f kt above the demonstrated %.0f kt (advisory, not a limit of the profile)", r.a/knot, r.b/knot)
+		return fmt.Sprintf("crosswind %s kt above the demonstrated %s kt (advisory, not a limit of the profile)", passedText(r.a/knot, r.b/knot), limitText(r.b/knot))
 	case reasonTemperature:
+		t, lo, hi := r.a-273.15, r.b-273.15, r.c-273.15
 		switch {
 		case r.b == 0:
-			return fmt.Sprintf("temperature %.0f C above the declared limit %.0f C", r.a-273.15, r.c-273.15)
+			return fmt.Sprintf("temperature %s C above the declared limit %s C", passedText(t, hi), limitText(hi))
 		case r.c == 0:
-			return fmt.Sprintf("temperature %.0f C below the declared limit %.0f C", r.a-273.15, r.b-273.15)
+			return fmt.Sprintf("temperature %s C below the declared limit %s C", passedText(t, lo), limitText(lo))
 		}
-		return fmt.Sprintf("temperature %.0f C outside the declared limits %.0f to %.0f C", r.a-273.15, r.b-273.15, r.c-273.15)
+		lim := lo
+		if t > hi {
+			lim = hi
+		}
+		return fmt.Sprintf("temperature %s C outside the declared limits %s to %s C", passedText(t, lim), limitText(lo), limitText(hi))
 	case reasonNoGo:
 		return fmt.Sprintf("%s: %.0f %s required, %.0f %s available", r.s, r.a, r.unit, r.b, r.unit)
 	case reasonTight:
@@ -156,10 +165,39 @@ func (r reason) String() string {
 			return fmt.Sprintf("%s %s: %.0f ft below its top, %.0f ft clearance required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), -r.a, r.b)
 		}
 		return fmt.Sprintf("%s %s: %.0f ft clearance, %.0f ft required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), r.a, r.b)
+	case reasonNoClimb:
+		return fmt.Sprintf("no takeoff: the manual's rate of climb at %s kt is %.0f ft/min at %.0f ft, %.0f C, a still-air gradient of %.1f %%, under the %.1f %% counted as a climb",
+			r.unit, r.a/footM*60, r.c/footM, r.d-273.15, r.b*100, minClimbGradient*100)
+	case reasonClimbOutside:
+		return fmt.Sprintf("the climb table has no rate at %.0f ft, %.0f C, %.0f kg: the no-climb check does not apply here (kneeprint never extrapolates a table)", r.a/footM, r.b-273.15, r.c)
 	case reasonObstacleBefore:
 		return fmt.Sprintf("%s %s stands before the 50 ft point (takeoff distance %.0f %s from the start of the run): %.0f ft clearance required", obstacleName(r.c, r.s), obstacleWhere(r.d, r.unit), r.a, r.unit, r.b)
 	}
 	return r.s
+}
+
+// passedText prints a value v that lies beyond a limit lim (both in the printing
+// unit) in whole units, unless whole units would not show it beyond the limit (15.3 kt
+// printed "15" above a 15 kt limit): then with one decimal, rounded away from the
+// limit ("15.3", and "15.1" for 15.04). A reason never reads "15 kt above 15 kt".
+func passedText(v, lim float64) string { return string(appendPassed(nil, v, lim)) }
+
+// appendPassed appends passedText(v, lim) to b.
+func appendPassed(b []byte, v, lim float64) []byte {
+	if w := math.Round(v); (v > lim && w > lim) || (v < lim && w < lim) {
+		return strconv.AppendFloat(b, w, 'f', 0, 64)
+	}
+	if v > lim {
+		return strconv.AppendFloat(b, math.Ceil(v*10-1e-9)/10, 'f', 1, 64)
+	}
+	return strconv.AppendFloat(b, math.Floor(v*10+1e-9)/10, 'f', 1, 64)
+}
+
+// limitText prints a limit as written in a profile: whole units, or one decimal when
+// it has one (17.5 kt).
+func limitText(v float64) string {
+	s := strconv.FormatFloat(v, 'f', 1, 64)
+	return strings.TrimSuffix(s, ".0")
 }
 
 // Reasons says, in words, why the cell has its state: limits passed, the limiting
@@ -219,6 +257,16 @@ func Evaluate(k Case) Cell {
 		c.worsen(NoData, reason{s: err.Error()})
 		return c
 	}
+	// The manual's climb counts on every cell, obstacles or not: where its rate gives
+	// no climb (a still-air gradient under minClimbGradient, the physics model's own
+	// threshold) there is no takeoff. Outside the climb table's data the check does
+	// not apply, and a cell with a figure says so below.
+	rate, grad, climbInside := a.Climb.stillAirClimb(k.PressureAltM, k.TempK, k.MassKg)
+	if climbInside && grad < minClimbGradient {
+		c.CannotTakeOff = true
+		c.worsen(NoGo, reason{kind: reasonNoClimb, a: rate, b: grad, c: k.PressureAltM, d: k.TempK, unit: strconv.FormatFloat(math.Round(a.Climb.SpeedIASMS/knot), 'f', -1, 64)})
+		return c
+	}
 	c.CreditedWindMS = CreditedWindMS(along, WindFactoringIncluded(k.Model))
 	cond := Conditions{
 		PressureAltM: k.PressureAltM, TempK: k.TempK, MassKg: k.MassKg,
@@ -265,6 +313,9 @@ func Evaluate(k Case) Cell {
 		r.kind = reasonTight
 		c.worsen(Tight, r)
 	}
+	if !climbInside && a.Climb != nil && a.Climb.Table != nil {
+		c.reasons = append(c.reasons, reason{kind: reasonClimbOutside, a: k.PressureAltM, b: k.TempK, c: k.MassKg})
+	}
 	if len(k.End.Obstacles) > 0 {
 		c.obstacles(k, req.FactoredTODM, along)
 	}
@@ -298,7 +349,7 @@ func (c *Cell) obstacles(k Case, todM, along float64) {
 		cr, g, err = ObstacleClimb(cm, k.End, k.PressureAltM, k.TempK, k.MassKg, along, margin)
 	}
 	if err != nil {
-		r := reason{s: "obstacle clearance: " + err.Error()}
+		r := reason{s: obstacleReasonPrefix + err.Error()}
 		switch {
 		case errors.Is(err, ErrCannotTakeOff):
 			c.worsen(NoGo, r)
@@ -334,6 +385,22 @@ func (c *Cell) obstacles(k Case, todM, along float64) {
 		c.ObstacleNoGo = fits
 	}
 }
+
+// ObstacleReasons are the reasons, in words, of the obstacles the cell does not clear
+// by the margin (and why the obstacle check had no figure, when it had none): empty
+// when no obstacle stops the cell.
+func (c *Cell) ObstacleReasons() []string {
+	var out []string
+	for _, r := range c.reasons {
+		if r.kind == reasonObstacle || r.kind == reasonObstacleBefore || (r.kind == reasonText && strings.HasPrefix(r.s, obstacleReasonPrefix)) {
+			out = append(out, r.String())
+		}
+	}
+	return out
+}
+
+// obstacleReasonPrefix starts the reason of an obstacle check that had no figure.
+const obstacleReasonPrefix = "obstacle clearance: "
 
 // takeoff asks the model for conditions cond (and, when the model covers surface or
 // slope, for the paved, dry, level reference) and applies the policy. A model's

@@ -392,3 +392,32 @@ func TestGridNoNonPositiveDistance(t *testing.T) {
 		}
 	}
 }
+
+// A reason never shows a value equal to the limit it says is passed (review:
+// "crosswind 15 kt above the demonstrated 15 kt" for 15.3 kt): a whole value is
+// printed whole, any other with one decimal, rounded away from the limit (up above
+// a maximum, down below a minimum).
+func TestReasonsShowThePassedValue(t *testing.T) {
+	m := smallTable()
+	a := testAircraft(m)
+	a.MaxTempK = 303.15
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	end := RunwayEnd{Designator: "09", TORAM: 2000, TODAM: 2000, ASDAM: 2000, Surface: Paved, Condition: Dry}
+	k := Case{Aircraft: a, Model: m, Policy: uk, End: end, TempK: 273.15, MassKg: 900, TightMargin: 0.1}
+	for _, tc := range []struct {
+		name string
+		set  func(*Case)
+		want string
+	}{
+		{"demonstrated crosswind", func(k *Case) { k.Wind = Components{GustCrosswindMS: 15.3 * knot} }, "crosswind 15.3 kt above the demonstrated 15 kt"},
+		{"just above", func(k *Case) { k.Wind = Components{GustCrosswindMS: 15.04 * knot} }, "crosswind 15.1 kt above the demonstrated 15 kt"},
+		{"whole", func(k *Case) { k.Wind = Components{GustCrosswindMS: 18 * knot} }, "crosswind 18 kt above the demonstrated 15 kt"},
+		{"tailwind", func(k *Case) { k.Wind = Components{HeadwindMS: -10.3 * knot} }, "tailwind 10.3 kt above the 10 kt limit"},
+		{"temperature", func(k *Case) { k.TempK = 303.45 }, "temperature 30.3 C outside the declared limits -30 to 30 C"},
+	} {
+		kk := k
+		tc.set(&kk)
+		c := Evaluate(kk)
+		assert.Contains(t, fmt.Sprint(c.Reasons()), tc.want, tc.name)
+	}
+}

@@ -122,6 +122,11 @@ func (m *LandingTableModel) WindFactoringIncluded() bool { return m.Table.WindIn
 // then grass), exactly as the takeoff table does (Table.lookup, Table.applyNotes):
 // above the highest value of an axis ErrNoData, never an extrapolation; below the
 // lowest, the lowest value's figures with a note.
+//
+// As the takeoff table, the wind notes are never stretched: past a note's up_to, or,
+// with the manual's approach speed, past MaxWindFraction of the touchdown true
+// airspeed (touchdownStallRatio/approachStallRatio of the approach speed, as the
+// physics landing model flies it), the answer is ErrNoData.
 func (m *LandingTableModel) Land(c Conditions) (LandingResult, error) {
 	t := m.Table
 	r := LandingResult{ApproachIASMS: m.ApproachIASMS}
@@ -130,7 +135,15 @@ func (m *LandingTableModel) Land(c Conditions) (LandingResult, error) {
 	if err != nil {
 		return r, err
 	}
-	if gr, total, err = t.applyNotes(c, gr, total, &r.Covers, &r.Notes); err != nil {
+	if m.ApproachIASMS > 0 {
+		sigma := DensityKgM3(c.PressureAltM, c.TempK) / isaDensity0()
+		vTD := m.ApproachIASMS / math.Sqrt(sigma) * touchdownStallRatio / approachStallRatio
+		if math.Abs(c.HeadwindMS) > MaxWindFraction*vTD+1e-9 {
+			return r, fmt.Errorf("%w: credited wind %.1f kt is beyond half the touchdown speed (%.0f kt true): kneeprint never stretches the manual's wind notes that far",
+				ErrNoData, math.Abs(c.HeadwindMS)/knot, math.Floor(MaxWindFraction*vTD/knot+1e-9))
+		}
+	}
+	if gr, total, err = t.applyNotes(c, gr, total, &r.Covers, &r.Notes, m.ApproachIASMS > 0); err != nil {
 		return r, err
 	}
 	r.GroundRollM, r.From50ftM = gr, total
@@ -277,6 +290,9 @@ func (m *LandingPhysicsModel) Land(c Conditions) (LandingResult, error) {
 	}
 	gr := l.FreeRollS*(vTD-w) + brake
 	total := air + gr
+	if cal := l.Calibration; cal != nil {
+		gr, total = applyFloor(cal.Floor, gr, total) // never shorter than the manual at its points
+	}
 	if !(gr > 0) || !(air > 0) || math.IsInf(total, 0) || math.IsNaN(total) {
 		return r, fmt.Errorf("%w: the model gave no usable distance here (ground roll %.1f m, air %.1f m)", ErrNoData, gr, air)
 	}
@@ -344,6 +360,9 @@ type LandingCalibration struct {
 	LargestPct                    float64    `json:"-"`
 	BoundHit                      bool       `json:"-"`
 	Evaluations                   int        `json:"-"`
+	// Floor multiplies the fitted model's distances so that it is never shorter than
+	// the manual at these points (floorFactor; LandingPhysicsModel.Land).
+	Floor float64
 }
 
 // ModelLine is how a card names the landing model.
@@ -355,7 +374,7 @@ func (c *LandingCalibration) ModelLine() string {
 	if len(c.Points) == 1 {
 		noun = "point"
 	}
-	return fmt.Sprintf("physics, calibrated to %d manual landing %s (largest residual %.1f %%)", len(c.Points), noun, c.LargestPct)
+	return fmt.Sprintf("physics, calibrated to %d manual landing %s (largest residual %.1f %%%s)", len(c.Points), noun, c.LargestPct, floorText(c.Floor))
 }
 
 // usable says why cards may not use the landing calibration c, or nil: it needs a
@@ -391,6 +410,7 @@ func CalibrateLanding(m LandingPhysicsModel, points []CalibrationPoint) (*Landin
 		return nil, fmt.Errorf("%d calibration points, at most %d", len(points), MaxCalibrationPoints)
 	}
 	m.Envelope = nil
+	m.L.Calibration = nil // the fit is of the bare model: no floor factors
 	cal := &LandingCalibration{Points: append([]CalibrationPoint(nil), points...), StartAngleDeg: m.L.ApproachAngleDeg, StartBraking: m.L.BrakingFraction}
 	params := []fitParam{
 		{"approach angle", m.L.ApproachAngleDeg, MinApproachAngleDeg, MaxApproachAngleDeg},
@@ -419,6 +439,7 @@ func CalibrateLanding(m LandingPhysicsModel, points []CalibrationPoint) (*Landin
 		},
 		func(i int) [2]float64 { return [2]float64{points[i].GroundRollM, points[i].To50ftM} },
 		[2]string{"ground_roll", "from_50ft"})
+	cal.Floor = floorFactor(cal.Fits, func(i int) [2]float64 { return [2]float64{points[i].GroundRollM, points[i].To50ftM} })
 	var bp []FitProblem
 	cal.BoundHit, bp = boundProblems(params, vals, "the description (landing flap CLmax, drag, approach speed) does not match the manual's landing figures")
 	fe.Problems = append(fe.Problems, bp...)

@@ -44,7 +44,7 @@ func EvaluateLanding(k LandingCase) Cell {
 		mlm = a.Landing.MaxMassKg
 	}
 	if k.MassKg > mlm+1e-9 {
-		c.worsen(BeyondLimits, reason{s: fmt.Sprintf("weight %.0f kg above the maximum landing mass %.0f kg", k.MassKg, mlm)})
+		c.worsen(BeyondLimits, reason{s: fmt.Sprintf("weight %s kg above the maximum landing mass %s kg", passedText(k.MassKg, mlm), limitText(mlm))})
 	}
 	along := k.Wind.ForDistanceMS()
 	if tail := -along; tail > a.MaxTailwindMS+1e-9 {
@@ -64,6 +64,10 @@ func EvaluateLanding(k LandingCase) Cell {
 		return c
 	}
 	lp := k.Policy.Landing()
+	if err := lp.CheckSlope(k.End.SlopePct); err != nil { // eu-class-b past 2 %
+		c.worsen(NoData, reason{s: err.Error()})
+		return c
+	}
 	c.CreditedWindMS = CreditedWindMS(along, LandingWindFactoringIncluded(k.Model))
 	cond := Conditions{
 		PressureAltM: k.PressureAltM, TempK: k.TempK, MassKg: k.MassKg,

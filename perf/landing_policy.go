@@ -21,6 +21,9 @@ type LandingPolicy struct {
 	multiplier float64
 	// wetGrassCaution is printed on a wet grass runway end, if not empty.
 	wetGrassCaution string
+	// slopeNoData: past publishedSlopePct (either way) the policy gives no landing
+	// figure (see CheckSlope); otherwise a downslope past it carries a caution.
+	slopeNoData bool
 }
 
 // The landing factor of EU Air OPS class B: a full-stop landing from 50 ft within
@@ -61,6 +64,7 @@ var landingPolicies = map[string]LandingPolicy{
 		rule:            "CAT.POL.A.330(a)",
 		multiplier:      euLandingMultiplier,
 		wetGrassCaution: "caution: very short wet grass, up to +60 % (GM1 CAT.POL.A.335)",
+		slopeNoData:     true,
 	},
 	PolicyUKAdvisory: {
 		Title: "UK CAA advisory factors",
@@ -119,6 +123,24 @@ func (lp LandingPolicy) SlopeFactor(pct float64) Factor { return lp.slope(pct) }
 // Rule is the landing rule with its factor on the landing distance, for printing.
 func (lp LandingPolicy) Rule() Rule {
 	return Rule{Name: lp.rule, Checks: []Check{{Declared: "LDA", Multiplier: lp.multiplier}}}
+}
+
+// CheckSlope returns an ErrNoData error when the landing policy gives no figure for a
+// runway end of slope pct (percent, uphill positive in the direction of landing):
+// eu-class-b beyond 2 % either way. Nil otherwise.
+//
+// Which reading, and why: AMC2 CAT.POL.A.330 (class B landing slope) was not read for
+// kneeprint; AMC2 CAT.POL.A.430 (class C) asks +5 % per 1 % of downslope with no bound,
+// while AMC2 CAT.POL.A.305 (class B takeoff) allows its slope correction beyond 2 %
+// only with data the authority has accepted. Rather than give a landing figure where
+// the takeoff is refused, kneeprint applies the takeoff's reading to the landing under
+// eu-class-b (the conservative reading): beyond 2 %, no data. uk-advisory carries
+// the rate on with a caution (Cautions), as for the takeoff.
+func (lp LandingPolicy) CheckSlope(pct float64) error {
+	if !lp.slopeNoData || math.Abs(pct) <= publishedSlopePct+1e-9 {
+		return nil
+	}
+	return fmt.Errorf("%w: slope %.1f %% is beyond the 2 %% kneeprint takes as covered for landing under eu-class-b: the limit AMC2 CAT.POL.A.305 sets on the takeoff's slope correction is applied to the landing too (the conservative reading; steeper slopes need data the authority has accepted)", ErrNoData, math.Abs(pct))
 }
 
 // Cautions are what the landing policy prints for runway end e in its condition: a

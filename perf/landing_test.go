@@ -2,6 +2,7 @@ package perf
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"testing"
 
@@ -462,5 +463,48 @@ func TestWetGravelLandingCaution(t *testing.T) {
 		assert.Contains(t, wet[0], "grass factors", id)
 		assert.Empty(t, lp.Cautions(RunwayEnd{Surface: Gravel, Condition: Dry, LDAM: 800}), id)
 		assert.Empty(t, lp.Cautions(RunwayEnd{Surface: Paved, Condition: Wet, LDAM: 800}), id)
+	}
+}
+
+// eu-class-b read steep slopes differently for takeoff (no data past 2 %, AMC2
+// CAT.POL.A.305: "correction factors for runways with slopes in excess of 2 % should
+// only be applied when the operator has demonstrated ... the necessary data", as
+// the UK Air Operations Regulations print it) and landing (a figure and a caution).
+// AMC2 CAT.POL.A.330 itself could not be read here (AMC2 CAT.POL.A.430, for class C,
+// reads "+5 % for each 1 % of downslope" with no bound), so the takeoff's
+// conservative reading is applied to the landing: past 2 % either way, no data, with
+// the reason. uk-advisory keeps its figure and caution.
+func TestLandingSlopeBeyondTwoPercent(t *testing.T) {
+	eu, _ := PolicyByID(PolicyEUClassB)
+	uk, _ := PolicyByID(PolicyUKAdvisory)
+	a := &Aircraft{Name: "t", MTOWKg: 1000, MaxTailwindMS: 10 * knot, Landing: &Landing{MaxMassKg: 1000, Model: ModelTable, Table: landingTable()}}
+	m, err := LandingModelFor(a)
+	require.NoError(t, err)
+	for _, tc := range []struct {
+		pol      Policy
+		slope    float64
+		noData   bool
+		contains string
+	}{
+		{eu, -3, true, "slope 3.0 % is beyond the 2 %"},
+		{eu, 3, true, "AMC2 CAT.POL.A.305"},
+		{eu, -2, false, ""},
+		{uk, -3, false, "caution: downslope 3.0 % is beyond the 2 %"},
+	} {
+		k := LandingCase{Aircraft: a, Model: m, Policy: tc.pol, End: RunwayEnd{Designator: "27", LDAM: 2000, Surface: Paved, Condition: Dry, SlopePct: tc.slope},
+			TempK: 293.15, MassKg: 1000, TightMargin: 0.1}
+		c := EvaluateLanding(k)
+		name := fmt.Sprintf("%s %+g %%", tc.pol.ID, tc.slope)
+		if tc.noData {
+			assert.Equal(t, NoData, c.State, name)
+			assert.False(t, c.HasDistance, name)
+			assert.Contains(t, fmt.Sprint(c.Reasons()), tc.contains, name)
+			continue
+		}
+		assert.True(t, c.HasDistance, name)
+		assert.Equal(t, Go, c.State, "%s: %v", name, c.Reasons())
+		if tc.contains != "" {
+			assert.Contains(t, c.Requirement.Caution, tc.contains, name)
+		}
 	}
 }

@@ -322,7 +322,8 @@ const minClimbGradient = 0.005
 //     h_e = h + V^2/2g gained at (T - D)/W per metre flown), or the transition arc
 //     and climb where that is the longer.
 //
-// The accelerate check distance is where airspeed reaches 0.7 V_LO.
+// The accelerate check distance is where airspeed reaches 0.7 V_LO. A calibrated
+// model's distances are then floored at the manual's (Calibration.Floor).
 // Outside the ISA troposphere, or with a credited wind beyond MaxWindFraction of the
 // lift-off speed, or outside the Envelope, the answer is ErrNoData; when the
 // aircraft does not accelerate to V_LO or cannot climb, ErrCannotTakeOff. Every
@@ -390,6 +391,12 @@ func (m *PhysicsModel) Takeoff(c Conditions) (Result, error) {
 		return r, err
 	}
 	to := gr + air
+	if cal := p.Calibration; cal != nil && cal.Floor > 1 {
+		// Never shorter than the manual at its own points (floorFactor); the
+		// accelerate check follows the ground roll.
+		mark *= cal.Floor
+		gr, to = applyFloor(cal.Floor, gr, to)
+	}
 	// The model's contract: a distance is positive and finite, whatever the inputs.
 	if !(gr > 0) || !(air > 0) || math.IsInf(to, 0) || math.IsNaN(mark) || mark < 0 {
 		return r, fmt.Errorf("%w: the model gave no usable distance here (ground roll %.1f m, air %.1f m)", ErrNoData, gr, air)

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strconv"
 	"strings"
 )
 
@@ -15,10 +16,12 @@ type Factor struct {
 	Source string
 }
 
-// Label names the factor with its slope, e.g. "upslope 1.0 %".
+// Label names the factor with its slope as the factor uses it (up to two decimals),
+// e.g. "upslope 1 %", "upslope 0.25 %".
 func (f Factor) Label() string {
 	if f.Name == "upslope" {
-		return fmt.Sprintf("upslope %.1f %%", f.Pct)
+		s := strconv.FormatFloat(f.Pct, 'f', 2, 64)
+		return "upslope " + strings.TrimRight(strings.TrimRight(s, "0"), ".") + " %"
 	}
 	return f.Name
 }

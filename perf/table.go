@@ -25,9 +25,14 @@ type Table struct {
 
 // Corrections are a flight manual's correction notes, stored as data.
 type Corrections struct {
-	// "Decrease distances HeadwindPct % for each HeadwindPerMS of headwind."
+	// "Decrease distances HeadwindPct % for each HeadwindPerMS of headwind up to
+	// HeadwindMaxMS." Past HeadwindMaxMS the manual has no data; zero: the note
+	// states no bound (see Table.applyNotes for what is then assumed). Left out of
+	// the canonical form when zero, so that a profile without it keeps its
+	// fingerprint.
 	HeadwindPct   float64
 	HeadwindPerMS float64
+	HeadwindMaxMS float64 `json:",omitempty"`
 	// "Increase distances TailwindPct % for each TailwindPerMS of tailwind up to
 	// TailwindMaxMS." Past TailwindMaxMS the manual has no data.
 	TailwindPct   float64
@@ -67,6 +72,11 @@ func (m *TableModel) WindFactoringIncluded() bool { return m.Table.WindInData }
 //	s70 = GR ((0.7 V_LO - w) / (V_LO - w))^2      (= 0.49 GR in still air)
 //
 // of the ground roll GR, with V_LO the manual's rotation speed as true airspeed.
+//
+// The wind notes are never stretched past what they cover: a credited wind beyond a
+// note's up_to has no data, and so has one beyond MaxWindFraction of the lift-off
+// true airspeed when the manual's rotation speed is known (the physics model's
+// bound: the steady-wind assumption then carries the whole answer).
 func (m *TableModel) Takeoff(c Conditions) (Result, error) {
 	t := m.Table
 	var r Result
@@ -75,15 +85,22 @@ func (m *TableModel) Takeoff(c Conditions) (Result, error) {
 	if err != nil {
 		return r, err
 	}
-	if gr, to, err = t.applyNotes(c, gr, to, &r.Covers, &r.Notes); err != nil {
+	var vlo float64
+	if m.LiftoffIASMS > 0 {
+		sigma := DensityKgM3(c.PressureAltM, c.TempK) / isaDensity0()
+		vlo = m.LiftoffIASMS / math.Sqrt(sigma) // IAS ~ EAS at these speeds (common practice)
+		if math.Abs(c.HeadwindMS) > MaxWindFraction*vlo+1e-9 {
+			return r, fmt.Errorf("%w: credited wind %.1f kt is beyond half the lift-off speed (%.0f kt true): kneeprint never stretches the manual's wind notes that far",
+				ErrNoData, math.Abs(c.HeadwindMS)/knot, math.Floor(MaxWindFraction*vlo/knot+1e-9))
+		}
+	}
+	if gr, to, err = t.applyNotes(c, gr, to, &r.Covers, &r.Notes, vlo > 0); err != nil {
 		return r, err
 	}
 	r.GroundRollM, r.To50ftM = gr, to
 
 	ratio := 0.49 // (0.7)^2, still air, constant acceleration
-	if m.LiftoffIASMS > 0 {
-		sigma := DensityKgM3(c.PressureAltM, c.TempK) / isaDensity0()
-		vlo := m.LiftoffIASMS / math.Sqrt(sigma) // IAS ~ EAS at these speeds (common practice)
+	if vlo > 0 {
 		w := c.HeadwindMS
 		r.LiftoffTASMS = vlo
 		if 0.7*vlo <= w {
@@ -103,7 +120,7 @@ func (m *TableModel) Takeoff(c Conditions) (Result, error) {
 // highest value of an axis: ErrNoData, never an extrapolation; below the lowest, the
 // lowest value's figures with a note.
 func (t *Table) lookup(c Conditions) (gr, total float64, notes []string, err error) {
-	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "weight", func(x float64) string { return fmt.Sprintf("%.0f kg", x) })
+	wi, wf, note, err := axisPos(t.WeightKg, c.MassKg, "weight", axisKg)
 	if err != nil {
 		return 0, 0, notes, err
 	}
@@ -113,14 +130,14 @@ func (t *Table) lookup(c Conditions) (gr, total float64, notes []string, err err
 		// the profile's lowest flyable mass is checked before a model is asked.
 		notes = append(notes, fmt.Sprintf("weight %.0f kg is below the table's lightest block: the %.0f kg figures are used", c.MassKg, t.WeightKg[0]))
 	}
-	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "pressure altitude", func(x float64) string { return fmt.Sprintf("%.0f ft", x/0.3048) })
+	pi, pf, note, err := axisPos(t.PressureAltM, c.PressureAltM, "pressure altitude", axisFt)
 	if err != nil {
 		return 0, 0, notes, err
 	}
 	if note != "" {
 		notes = append(notes, note)
 	}
-	ti, tf, note, err := axisPos(t.TempK, c.TempK, "temperature", func(x float64) string { return fmt.Sprintf("%.0f C", x-273.15) })
+	ti, tf, note, err := axisPos(t.TempK, c.TempK, "temperature", axisC)
 	if err != nil {
 		return 0, 0, notes, err
 	}
@@ -135,18 +152,29 @@ func (t *Table) lookup(c Conditions) (gr, total float64, notes []string, err err
 // grass note (a percentage of the corrected ground roll added to both distances). It
 // sets covers.Surface when the figures include the surface (the table is for paved,
 // dry; a grass note covers grass) and appends what it applied to notes. A tailwind
-// the notes do not reach is ErrNoData.
-func (t *Table) applyNotes(c Conditions, gr, total float64, covers *Effects, notes *[]string) (float64, float64, error) {
+// the notes do not reach, or a headwind past the headwind note's up_to, is ErrNoData.
+// speedBound says the caller already bounds the wind by the aircraft's speed (the
+// lift-off or touchdown speed): it only changes what a note says.
+//
+// The headwind credit never takes off more than half the distance: no manual's
+// linear note is meant to halve it (conservative, common practice). Without an
+// up_to and without a speed bound that floor is all that bounds a strong headwind,
+// and the note says so.
+func (t *Table) applyNotes(c Conditions, gr, total float64, covers *Effects, notes *[]string, speedBound bool) (float64, float64, error) {
 	k := t.Corrections
 	factor := 1.0
 	switch {
+	case c.HeadwindMS > 0 && k.HeadwindMaxMS > 0 && c.HeadwindMS > k.HeadwindMaxMS+1e-9:
+		return gr, total, fmt.Errorf("%w: headwind %.1f kt beyond the manual's correction (up to %.0f kt)", ErrNoData, c.HeadwindMS/knot, k.HeadwindMaxMS/knot)
 	case c.HeadwindMS > 0 && k.HeadwindPerMS > 0:
 		factor = 1 - k.HeadwindPct/100*c.HeadwindMS/k.HeadwindPerMS
 		if factor < 0.5 {
-			// No manual's linear headwind note is meant to halve the distance;
-			// keep the credit bounded (conservative, common practice).
 			factor = 0.5
-			*notes = append(*notes, "headwind credit limited to half the distance")
+			if k.HeadwindMaxMS > 0 || speedBound {
+				*notes = append(*notes, "headwind credit limited to half the distance (kneeprint's bound on a linear note)")
+			} else {
+				*notes = append(*notes, "headwind credit limited to half the distance: the manual's headwind note gives no upper wind (up_to) and the profile no rotation speed, so kneeprint assumes the note holds up to that and no further")
+			}
 		}
 	case c.HeadwindMS < 0:
 		tail := -c.HeadwindMS
@@ -181,17 +209,41 @@ func (t *Table) applyNotes(c Conditions, gr, total float64, covers *Effects, not
 
 const knot = 1852.0 / 3600.0
 
+// axisUnit is how an axis is printed in a message: a conversion from SI and a unit.
+type axisUnit struct {
+	conv func(float64) float64
+	unit string
+}
+
+// The axes of the tables, as messages print them.
+var (
+	axisKg = axisUnit{func(x float64) float64 { return x }, "kg"}
+	axisFt = axisUnit{func(x float64) float64 { return x / footM }, "ft"}
+	axisC  = axisUnit{func(x float64) float64 { return x - 273.15 }, "C"}
+)
+
+// show prints an axis value in whole units.
+func (u axisUnit) show(x float64) string { return fmt.Sprintf("%.0f %s", u.conv(x), u.unit) }
+
+// passed prints x, which lies beyond the axis end lim, so that it never reads as lim
+// itself (passedText).
+func (u axisUnit) passed(x, lim float64) string {
+	var buf [24]byte
+	b := appendPassed(buf[:0], u.conv(x), u.conv(lim))
+	return string(append(append(b, ' '), u.unit...))
+}
+
 // axisPos finds x on a strictly increasing axis: the index i and fraction f with
 // x = xs[i] + f (xs[i+1]-xs[i]). Below the first value it returns (0, 0) and a note
 // (conservative use of the lowest column); above the last, ErrNoData.
-func axisPos(xs []float64, x float64, name string, show func(float64) string) (int, float64, string, error) {
+func axisPos(xs []float64, x float64, name string, u axisUnit) (int, float64, string, error) {
 	n := len(xs)
 	const eps = 1e-9
 	if x > xs[n-1]+eps {
-		return 0, 0, "", fmt.Errorf("%w: %s %s above the table's highest, %s", ErrNoData, name, show(x), show(xs[n-1]))
+		return 0, 0, "", fmt.Errorf("%w: %s %s above the table's highest, %s", ErrNoData, name, u.passed(x, xs[n-1]), u.show(xs[n-1]))
 	}
 	if x < xs[0]-eps {
-		return 0, 0, fmt.Sprintf("%s %s below the table: figures for %s used (conservative)", name, show(x), show(xs[0])), nil
+		return 0, 0, fmt.Sprintf("%s %s below the table: figures for %s used (conservative)", name, u.passed(x, xs[0]), u.show(xs[0])), nil
 	}
 	if n == 1 || x <= xs[0] {
 		return 0, 0, "", nil

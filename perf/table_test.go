@@ -1,6 +1,8 @@
 package perf
 
 import (
+	"math"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -110,4 +112,81 @@ func TestTableAccelerateCheck(t *testing.T) {
 	assert.Less(t, r.AccelCheckM, 0.49*r.GroundRollM, "a headwind gives part of the airspeed at rest")
 	r2, _ := m.Takeoff(Conditions{TempK: 273.15, MassKg: 900, HeadwindMS: -10 * knot, Surface: Paved, Condition: Dry})
 	assert.Greater(t, r2.AccelCheckM, 0.49*r2.GroundRollM)
+}
+
+// The table model never stretches a headwind note past what it covers (review: a
+// 99 kt report gave GO at half the calm distance):
+//   - a headwind note's up_to bounds it, as the tailwind note's does: beyond, no data;
+//   - with the manual's rotation speed, a credited wind beyond MaxWindFraction (half)
+//     of the lift-off true airspeed has no data, as in the physics model (common
+//     practice: flight-manual wind notes stop far below it);
+//   - with neither, the credit stays floored at half the distance and the note says
+//     what was assumed.
+//
+// The small table credits 6 % per 5 kt (1.2 % per kt); its data include the wind
+// factoring, so the credited wind is the reported one. Lift-off 55 kt IAS at sea
+// level ISA is 55 kt true (sigma 1, ICAO Doc 7488): half of it is 27.5 kt.
+func TestTableHeadwindBounds(t *testing.T) {
+	at := func(m *TableModel, windKt float64) (Result, error) {
+		return m.Takeoff(Conditions{PressureAltM: 0, TempK: ISASeaLevelTempK, MassKg: 900, HeadwindMS: windKt * knot, Surface: Paved, Condition: Dry})
+	}
+	calm, err := at(smallTable(), 0)
+	require.NoError(t, err)
+
+	upTo := smallTable()
+	upTo.Table.Corrections.HeadwindMaxMS = 20 * knot
+	r, err := at(upTo, 20)
+	require.NoError(t, err)
+	assert.InDelta(t, calm.To50ftM*(1-0.24), r.To50ftM, 1e-9, "20 kt: 4 x 6 % = 24 % off")
+	_, err = at(upTo, 20.5)
+	require.ErrorIs(t, err, ErrNoData)
+	assert.Contains(t, err.Error(), "headwind 20.5 kt beyond the manual's correction (up to 20 kt)")
+
+	rot := smallTable()
+	rot.LiftoffIASMS = 55 * knot
+	_, err = at(rot, 27.4)
+	require.NoError(t, err)
+	for _, w := range []float64{27.6, 40, 99, -27.6} {
+		_, err = at(rot, w)
+		require.ErrorIs(t, err, ErrNoData, "%g kt", w)
+		assert.Contains(t, err.Error(), "beyond half the lift-off speed (27 kt true)", "%g kt", w)
+	}
+	// Hot and high the lift-off true airspeed is higher, and so is the bound: 5000 ft
+	// ISA, sigma 0.8617 (ICAO Doc 7488): 55 / sqrt(0.8617) = 59.2 kt, half 29.6 kt.
+	rt := smallTable()
+	rt.LiftoffIASMS = 55 * knot
+	rt.Table.PressureAltM = []float64{0, 2000} // the same figures, up to 2000 m
+	bound := 55 / math.Sqrt(0.8617) / 2
+	hot := Conditions{PressureAltM: 5000 * footM, TempK: ISATempK(5000 * footM), MassKg: 900, Surface: Paved, Condition: Dry}
+	hot.HeadwindMS = (bound - 0.05) * knot
+	_, err = rt.Takeoff(hot)
+	assert.NoError(t, err)
+	hot.HeadwindMS = (bound + 0.05) * knot
+	_, err = rt.Takeoff(hot)
+	assert.ErrorIs(t, err, ErrNoData)
+
+	// Neither bound: the floor, said in words.
+	r, err = at(smallTable(), 99)
+	require.NoError(t, err)
+	assert.InDelta(t, calm.To50ftM*0.5, r.To50ftM, 1e-9)
+	assert.Contains(t, strings.Join(r.Notes, "\n"), "headwind credit limited to half the distance: the manual's headwind note gives no upper wind (up_to) and the profile no rotation speed")
+}
+
+// The landing table is bounded the same way: by its headwind note's up_to, and, with
+// the manual's approach speed, by half the touchdown speed (1.15/1.3 of the approach
+// speed, Anderson, Aircraft Performance and Design, sec. 6.8), as the physics landing
+// model. Approach 58 kt at sea level ISA: touchdown 51.3 kt, half 25.7 kt.
+func TestLandingTableHeadwindBounds(t *testing.T) {
+	m := &LandingTableModel{Table: landingTable(), ApproachIASMS: 58 * knot}
+	at := func(windKt float64) error {
+		_, err := m.Land(Conditions{PressureAltM: 0, TempK: ISASeaLevelTempK, MassKg: 1000, HeadwindMS: windKt * knot, Surface: Paved, Condition: Dry})
+		return err
+	}
+	assert.NoError(t, at(25.6))
+	err := at(25.8)
+	require.ErrorIs(t, err, ErrNoData)
+	assert.Contains(t, err.Error(), "beyond half the touchdown speed")
+	m.Table.Corrections.HeadwindMaxMS = 15 * knot
+	assert.NoError(t, at(15))
+	assert.ErrorIs(t, at(15.5), ErrNoData)
 }

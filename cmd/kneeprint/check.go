@@ -57,8 +57,9 @@ what the model used.
 Obstacles: for a runway end that lists obstacles past its end, the climb at the
 profile's climb speed from 50 ft at the takeoff distance (before the safety factor)
 must pass each by --obstacle-margin (default 50 ft), or the end is no-go; the output
-gives the climb gradient and every obstacle's clearance. Exit 0 when computed,
-whatever the verdict.
+gives the climb gradient and every obstacle's clearance. A profile's rate-of-climb
+table counts on every runway end: where it gives no climb (a still-air gradient under
+0.5 %), there is no takeoff. Exit 0 when computed, whatever the verdict.
 
 Landing: when the profile has landing data the answer also gives, for every runway
 end, the landing distance from 50 ft, what the policy requires of the LDA (e.g.
@@ -145,6 +146,7 @@ func checkRun(e env, opts *checkOptions) error {
 	// Temperature and QNH: the flag wins over the report and is named.
 	if rep != nil {
 		in.METAR = rep.Text
+		in.Warnings = rep.Warnings()
 	}
 	if opts.temp != "" {
 		if q.TempK, err = quantity("temp", opts.temp, units.Temperature); err != nil {
@@ -158,7 +160,7 @@ func checkRun(e env, opts *checkOptions) error {
 		in.FromReport = append(in.FromReport, fmt.Sprintf("temperature %.0f C (%s)", units.Celsius(rep.TempK), rep.TempGroup))
 	}
 	if err := perf.CheckTemp(q.TempK); err != nil {
-		return fmt.Errorf("--temp: %w", err)
+		return fmt.Errorf("--temp: %w%s", err, inUnitWritten(opts.temp, units.Temperature, perf.MinPlausibleTempK, perf.MaxPlausibleTempK))
 	}
 	if opts.qnh != "" {
 		if q.QNHPa, err = quantity("qnh", opts.qnh, units.Pressure); err != nil {
@@ -172,14 +174,14 @@ func checkRun(e env, opts *checkOptions) error {
 		in.FromReport = append(in.FromReport, fmt.Sprintf("QNH %.1f hPa (%s)", units.HPa(rep.QNHPa), rep.QNHGroup))
 	}
 	if q.QNHPa < perf.MinQNHPa || q.QNHPa > perf.MaxQNHPa {
-		return errors.New("--qnh: outside 800 to 1100 hPa")
+		return fmt.Errorf("--qnh: outside 800 to 1100 hPa%s", inUnitWritten(opts.qnh, units.Pressure, perf.MinQNHPa, perf.MaxQNHPa))
 	}
 	if opts.weight != "" {
 		if q.MassKg, err = quantity("weight", opts.weight, units.Mass); err != nil {
 			return err
 		}
 		if err := perf.CheckMass(j.aircraft, q.MassKg); err != nil {
-			return fmt.Errorf("--weight: %w", err)
+			return fmt.Errorf("--weight: %w%s", err, inUnitWritten(opts.weight, units.Mass, j.aircraft.MinMassKg, perf.MaxMassOverMTOW*j.aircraft.MTOWKg))
 		}
 	}
 
@@ -233,7 +235,7 @@ func checkRun(e env, opts *checkOptions) error {
 				return err
 			}
 			if err := perf.CheckMass(j.aircraft, landingQ.MassKg); err != nil {
-				return fmt.Errorf("--landing-weight: %w", err)
+				return fmt.Errorf("--landing-weight: %w%s", err, inUnitWritten(opts.landingWeight, units.Mass, j.aircraft.MinMassKg, perf.MaxMassOverMTOW*j.aircraft.MTOWKg))
 			}
 		}
 	}
@@ -267,6 +269,17 @@ func checkRun(e env, opts *checkOptions) error {
 		return report.WriteCheckJSON(e.stdout, run)
 	}
 	return report.WriteCheckText(e.stdout, run)
+}
+
+// inUnitWritten repeats an accepted SI range lo to hi in the unit flag value v was
+// written in, when that is not the unit the message uses (" (in F: -130 to 140 F)");
+// "" otherwise.
+func inUnitWritten(v string, dim units.Dimension, lo, hi float64) string {
+	u := units.UnitOf(v, dim)
+	if u == units.Accepted(dim)[0] {
+		return ""
+	}
+	return fmt.Sprintf(" (in %s: %s)", u, units.FormatRange(lo, hi, dim, u))
 }
 
 func orMissing(g string) string {

@@ -26,7 +26,9 @@ func newDiffCmd(e env) *cobra.Command {
 		Short: "What changed for a pilot between two versions of an airfield file",
 		Long: `diff lists the changed declared distances, slopes, surfaces, headings and notes of
 every runway end, and, for each aircraft, every grid cell whose state changes
-(e.g. go -> no-go at 30 C, 5 kt tailwind, 1100 kg) over the card template's grid.
+(e.g. go -> no-go at 30 C, 5 kt tailwind, 1100 kg) over the card template's grid;
+a cell an obstacle stops (the runway fits, the climb does not clear it) names the
+obstacle and its clearance.
 Exit 0 when nothing a pilot must know changed, 1 when something did.
 
 ` + caution,

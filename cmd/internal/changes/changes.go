@@ -83,6 +83,12 @@ type CellChange struct {
 	OldRequiredM *float64 `json:"old_required_m"`
 	NewRequiredM *float64 `json:"new_required_m"`
 	NewAvailable *float64 `json:"new_available_m"`
+	// Obstacle is set when the new state is a no-go because the climb does not clear
+	// an obstacle of the end, though the declared distance fits (perf.Cell.ObstacleNoGo);
+	// ObstacleReason then says which and by how much ("35 ft powerline at 400 m past
+	// the runway end: 12 ft clearance, 50 ft required").
+	Obstacle       bool   `json:"obstacle"`
+	ObstacleReason string `json:"obstacle_reason,omitempty"`
 }
 
 func (c CellChange) String() string {
@@ -97,8 +103,13 @@ func (c CellChange) String() string {
 		where += " landing"
 	}
 	s := fmt.Sprintf("runway %s, %s: %.0f °C, %s, %.0f kg: %s -> %s", where, c.Aircraft, c.TemperatureC, wind, c.WeightKg, c.Old, c.New)
-	if c.NewRequiredM != nil && c.NewAvailable != nil {
+	switch {
+	case c.NewRequiredM != nil && c.NewAvailable != nil && c.ObstacleReason != "":
+		s += fmt.Sprintf(" (%.0f m required, %.0f m available; %s)", *c.NewRequiredM, *c.NewAvailable, c.ObstacleReason)
+	case c.NewRequiredM != nil && c.NewAvailable != nil:
 		s += fmt.Sprintf(" (%.0f m required, %.0f m available)", *c.NewRequiredM, *c.NewAvailable)
+	case c.ObstacleReason != "":
+		s += " (" + c.ObstacleReason + ")"
 	}
 	return s
 }
@@ -226,6 +237,7 @@ func (r *Report) compare(a *perf.Aircraft, designator, side string, weights []fl
 					HeadwindKt: math.Round(units.Knots(gs.HeadwindsMS[hi])), TemperatureC: math.Round(units.Celsius(gs.TempsK[ti])),
 					Old: oc.State.String(), New: nc.State.String(),
 					OldRequiredM: required(oc), NewRequiredM: required(nc), NewAvailable: available(nc),
+					Obstacle: nc.ObstacleNoGo, ObstacleReason: obstacleReason(nc),
 				})
 			}
 		}
@@ -296,4 +308,13 @@ func (r *Report) WriteJSON(w io.Writer) error {
 		r.Cells = []CellChange{}
 	}
 	return report.WriteJSON(w, r)
+}
+
+// obstacleReason is why an obstacle stops cell c, the obstacles' reasons joined, when
+// an obstacle is what makes it a no-go (the declared distance fits); "" otherwise.
+func obstacleReason(c perf.Cell) string {
+	if !c.ObstacleNoGo {
+		return ""
+	}
+	return strings.Join(c.ObstacleReasons(), "; ")
 }

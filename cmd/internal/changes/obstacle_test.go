@@ -51,3 +51,40 @@ func TestDiffObstacle(t *testing.T) {
 	}
 	assert.True(t, ends["25"], "the mast stops cells of 25")
 }
+
+// A cell an obstacle stops says so in the diff (review: "tight -> no-go (804 m
+// required, 840 m available)" did not say that the runway fits and the climb does
+// not): the cell change carries obstacle (true) and the obstacle's reason, in text
+// and JSON; a cell stopped by its distance carries neither.
+func TestDiffSaysObstacle(t *testing.T) {
+	src, acs, tm := fixtures(t)
+	old := load(t, src)
+	rep, err := Diff(acs, old, load(t, strings.Replace(src, "height: 35 ft", "height: 200 ft", 1)), tm)
+	require.NoError(t, err)
+	n := 0
+	for _, c := range rep.Cells {
+		if c.New != "no-go" || (c.Old != "go" && c.Old != "tight") {
+			continue
+		}
+		n++
+		assert.True(t, c.Obstacle, "%s", c)
+		assert.Contains(t, c.ObstacleReason, "200 ft powerline at 400 m past the runway end", c.String())
+		assert.Contains(t, c.String(), "; 200 ft powerline at 400 m past the runway end: ")
+	}
+	assert.Greater(t, n, 0, "the 200 ft powerline stops cells that fit the runway")
+	var b strings.Builder
+	require.NoError(t, rep.WriteJSON(&b))
+	assert.Contains(t, b.String(), `"obstacle": true`)
+	assert.Contains(t, b.String(), `"obstacle_reason": "200 ft powerline at 400 m past the runway end:`)
+
+	// A shorter TORA on 25 (no obstacles there): distance only.
+	short := strings.Replace(src, "        tora: 840 m\n        lda: 840 m\n", "        tora: 500 m\n        lda: 840 m\n", 1)
+	require.NotEqual(t, src, short)
+	rep, err = Diff(acs, old, load(t, short), tm)
+	require.NoError(t, err)
+	require.NotEmpty(t, rep.Cells)
+	for _, c := range rep.Cells {
+		assert.False(t, c.Obstacle, "%s", c)
+		assert.Empty(t, c.ObstacleReason)
+	}
+}

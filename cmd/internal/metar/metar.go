@@ -29,6 +29,10 @@ type Report struct {
 	HasTemp   bool
 	TempK     float64
 	TempGroup string
+	// HasDew and DewK are the dew point of the temperature group (TT/TdTd), when
+	// reported.
+	HasDew bool
+	DewK   float64
 
 	HasQNH   bool
 	QNHPa    float64
@@ -109,15 +113,15 @@ func Parse(s string) (Report, error) {
 				return r, fmt.Errorf("group %q: a second temperature group (the first is %s)", g, r.TempGroup)
 			}
 			recognised, r.TempGroup = true, g
-			t := tempGroup.FindStringSubmatch(g)[1]
-			if t == "//" {
+			m := tempGroup.FindStringSubmatch(g)
+			if dew, ok := celsius(m[2]); ok {
+				r.HasDew, r.DewK = true, dew+units.KelvinAtZeroCelsius
+			}
+			c, ok := celsius(m[1])
+			if !ok {
 				continue // reported missing
 			}
-			c, _ := strconv.Atoi(strings.TrimPrefix(t, "M"))
-			if strings.HasPrefix(t, "M") {
-				c = -c
-			}
-			r.HasTemp, r.TempK = true, float64(c)+units.KelvinAtZeroCelsius
+			r.HasTemp, r.TempK = true, c+units.KelvinAtZeroCelsius
 		case qnhGroup.MatchString(g):
 			if r.QNHGroup != "" {
 				return r, fmt.Errorf("group %q: a second QNH group (the first is %s)", g, r.QNHGroup)
@@ -140,6 +144,34 @@ func Parse(s string) (Report, error) {
 		}
 	}
 	return r.finish(recognised)
+}
+
+// celsius reads a temperature of the temperature group: two digits, M for minus; ""
+// and "//" (missing) are not a temperature.
+func celsius(t string) (float64, bool) {
+	if t == "" || t == "//" {
+		return 0, false
+	}
+	c, err := strconv.Atoi(strings.TrimPrefix(t, "M"))
+	if err != nil {
+		return 0, false
+	}
+	if strings.HasPrefix(t, "M") {
+		c = -c
+	}
+	return float64(c), true
+}
+
+// Warnings are what looks wrong in a report that was still read: a dew point above
+// the temperature (the dew point is at most the air's temperature: common practice),
+// a slip in the report or in its copy that may touch the temperature itself.
+func (r Report) Warnings() []string {
+	var out []string
+	if r.HasTemp && r.HasDew && r.DewK > r.TempK+1e-9 {
+		out = append(out, fmt.Sprintf("the dew point %.0f C (%s) is above the temperature %.0f C, which air does not hold: check the report and its temperature before using this answer",
+			r.DewK-units.KelvinAtZeroCelsius, r.TempGroup, r.TempK-units.KelvinAtZeroCelsius))
+	}
+	return out
 }
 
 func (r Report) finish(recognised bool) (Report, error) {

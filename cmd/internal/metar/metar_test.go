@@ -113,3 +113,22 @@ func FuzzParse(f *testing.F) {
 		}
 	})
 }
+
+// The dew point is read too (WMO FM 15: TT/TdTd, M for minus), so that a report
+// whose dew point is above its temperature, which air does not hold (the dew point is
+// at most the temperature: common practice), can be questioned.
+func TestParseDewPoint(t *testing.T) {
+	r, err := Parse("METAR ZZZZ 121250Z 20010KT 9999 M05/M08 Q1011")
+	require.NoError(t, err)
+	require.True(t, r.HasDew)
+	assert.InDelta(t, -8+units.KelvinAtZeroCelsius, r.DewK, 1e-9)
+	assert.Empty(t, r.Warnings())
+	r, err = Parse("METAR ZZZZ 121250Z 20010KT 9999 15/18 Q1011")
+	require.NoError(t, err)
+	require.Len(t, r.Warnings(), 1)
+	assert.Contains(t, r.Warnings()[0], "the dew point 18 C (15/18) is above the temperature 15 C")
+	r, err = Parse("METAR ZZZZ 121250Z 20010KT 9999 15/// Q1011")
+	require.NoError(t, err)
+	assert.False(t, r.HasDew)
+	assert.Empty(t, r.Warnings())
+}

@@ -204,7 +204,10 @@ func prefixed(p, s string) string {
 func correctionNotes(t *perf.Table) []string {
 	c := t.Corrections
 	var out []string
-	if c.HeadwindPerMS > 0 {
+	if c.HeadwindPerMS > 0 && c.HeadwindMaxMS > 0 {
+		out = append(out, fmt.Sprintf("Headwind: decrease the distances by %g %% for each %g kt of headwind, up to %g kt; beyond that the manual has no data.",
+			c.HeadwindPct, round1(units.Knots(c.HeadwindPerMS)), round1(units.Knots(c.HeadwindMaxMS))))
+	} else if c.HeadwindPerMS > 0 {
 		out = append(out, fmt.Sprintf("Headwind: decrease the distances by %g %% for each %g kt of headwind.", c.HeadwindPct, round1(units.Knots(c.HeadwindPerMS))))
 	} else {
 		out = append(out, "Headwind: no note; no credit is taken for a headwind.")

@@ -31,6 +31,9 @@ type CheckInput struct {
 	METAR           string
 	FromReport      []string
 	FlagsOverReport []string
+	// Warnings are what looks wrong in the question though it was answered (a
+	// report's dew point above its temperature).
+	Warnings []string
 }
 
 // CheckRun is the JSON form of one check.
@@ -55,6 +58,7 @@ type CheckRun struct {
 	METAR              string     `json:"metar,omitempty"`
 	FromReport         []string   `json:"from_report,omitempty"`
 	FlagsOverReport    []string   `json:"flags_over_report,omitempty"`
+	Warnings           []string   `json:"warnings,omitempty"`
 	Ends               []CheckEnd `json:"runway_ends"`
 	// The landing answer (check --landing, or by default when the profile has landing
 	// data): the landing model, the landing weight and every runway end, best first.
@@ -136,7 +140,7 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 		Wind:               in.WindText, WindTrue: in.Question.Wind.True,
 		WindReference: map[bool]string{true: "true", false: "magnetic"}[in.Question.Wind.True],
 		WindSource:    in.WindSource,
-		METAR:         in.METAR, FromReport: in.FromReport, FlagsOverReport: in.FlagsOverReport,
+		METAR:         in.METAR, FromReport: in.FromReport, FlagsOverReport: in.FlagsOverReport, Warnings: in.Warnings,
 		Caution: Caution,
 	}
 	for i, ea := range ans.Ends {
@@ -164,13 +168,13 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 			e.Rule = c.Requirement.Rule
 			e.PolicyCaution = c.Requirement.Caution
 			for _, f := range c.Requirement.Factors {
-				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f (%s)", f.Label(), f.Value, f.Source))
+				e.Factors = append(e.Factors, fmt.Sprintf("%s %s (%s)", factorLabel(f), multiplier(f.Value), f.Source))
 			}
 			if c.Covers.Surface || c.Covers.Slope {
 				e.Factors = append(e.Factors, "floor: "+perf.FloorRule)
 			}
 			for _, ch := range c.Requirement.Checks {
-				f := fmt.Sprintf("%s x%.2f", ch.Declared, ch.Multiplier)
+				f := ch.Declared + " " + multiplier(ch.Multiplier)
 				if ch.Note != "" {
 					f += " (" + ch.Note + ")"
 					e.PolicyNotes = append(e.PolicyNotes, ch.Note)
@@ -201,6 +205,9 @@ func WriteCheckText(w io.Writer, run CheckRun) error {
 		for _, f := range run.FlagsOverReport {
 			fmt.Fprintf(b, "  given by flag instead: %s\n", f)
 		}
+	}
+	for _, w := range run.Warnings {
+		fmt.Fprintf(b, "WARNING: %s\n", w)
 	}
 	b.WriteString("\n")
 	if len(run.Ends) > 0 {

@@ -69,13 +69,13 @@ func BuildLanding(ans perf.Answer) []CheckLandingEnd {
 			e.RequiredM, e.AvailableM = ptr(ceilM(c.RequiredM)), ptr(math.Floor(c.AvailableM))
 			e.Rule, e.PolicyCaution = c.Requirement.Rule, c.Requirement.Caution
 			for _, f := range c.Requirement.Factors {
-				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.2f (%s)", landingFactorLabel(f), f.Value, f.Source))
+				e.Factors = append(e.Factors, fmt.Sprintf("%s %s (%s)", factorLabel(f), multiplier(f.Value), f.Source))
 			}
 			if c.Covers.Surface || c.Covers.Slope {
 				e.Factors = append(e.Factors, "floor: "+perf.FloorRule)
 			}
 			for _, ch := range c.Requirement.Checks {
-				e.Factors = append(e.Factors, fmt.Sprintf("%s x%.4g", ch.Declared, ch.Multiplier))
+				e.Factors = append(e.Factors, ch.Declared+" "+multiplier(ch.Multiplier))
 			}
 		}
 		out = append(out, e)
@@ -83,10 +83,11 @@ func BuildLanding(ans perf.Answer) []CheckLandingEnd {
 	return out
 }
 
-// landingFactorLabel names a landing factor with its slope ("downslope 1.0 %").
-func landingFactorLabel(f perf.Factor) string {
-	if f.Name == "downslope" {
-		return fmt.Sprintf("downslope %.1f %%", f.Pct)
+// factorLabel names a factor with the slope it is for ("upslope 0.3 %", "downslope
+// 1.25 %"), the slope as exactly as the factor uses it (slopeText).
+func factorLabel(f perf.Factor) string {
+	if f.Name == "upslope" || f.Name == "downslope" {
+		return f.Name + " " + slopeText(f.Pct) + " %"
 	}
 	return f.Name
 }

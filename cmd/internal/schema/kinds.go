@@ -138,9 +138,10 @@ func correctionsSchema() obj {
 		return object(what, obj{"add_of_ground_roll": quantity(units.Percent, "Percentage of the ground roll added to both distances")}, "add_of_ground_roll")
 	}
 	return object("The manual's correction notes, as data; leave out those it lacks.", obj{
-		"headwind": object("Decrease the distances by `decrease` for each `per` of headwind.", obj{
+		"headwind": object("Decrease the distances by `decrease` for each `per` of headwind, up to `up_to` when the manual gives one (beyond: no data).", obj{
 			"decrease": quantity(units.Percent, "Decrease per step (0 to 50 %)"),
 			"per":      quantity(units.Speed, "Per this much headwind"),
+			"up_to":    quantity(units.Speed, "Optional: the largest headwind the note covers (1 to 60 kt); without it, no data past half the lift-off speed when speeds.rotation is given"),
 		}, "decrease", "per"),
 		"tailwind": object("Increase the distances by `increase` for each `per` of tailwind, up to `up_to` (beyond: no data).", obj{
 			"increase": quantity(units.Percent, "Increase per step (0 to 100 %)"),

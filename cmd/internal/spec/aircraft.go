@@ -205,10 +205,12 @@ func (d *decoder) lowestMass(m *mapping, a *perf.Aircraft, minMass float64, give
 	switch {
 	case given:
 		a.MinMassKg = minMass
+		d.minMassWhy = "min_mass"
 	case m.has("min_mass"):
 		return // its error is reported
 	case a.Table != nil && len(a.Table.WeightKg) > 0:
 		a.MinMassKg = a.Table.WeightKg[0]
+		d.minMassWhy = "the takeoff table's lightest block: min_mass not given"
 		d.notef("min_mass not given: the table's lightest block, %.0f kg, is the lowest mass kneeprint answers for", a.MinMassKg)
 	case a.Table == nil && a.Physics != nil:
 		d.errorf(m.n, "min_mass", "missing required field \"min_mass\": a profile without a table states its lowest flyable mass (empty mass plus the lightest crew and the least fuel), so that a mistyped weight is refused")
@@ -450,6 +452,8 @@ func (d *decoder) corrections(n *yaml.Node, t *perf.Table, k tableKind) {
 		hm := d.mapping(hn, k.path+".corrections.headwind")
 		t.Corrections.HeadwindPct, _ = hm.quantity("decrease", units.Percent, true, 0, 50)
 		t.Corrections.HeadwindPerMS, _ = hm.quantity("per", units.Speed, true, 0.5*units.MetresPerSecPerKnot, 50*units.MetresPerSecPerKnot)
+		// Optional, as in "up to 20 kt": beyond it the note has no data (perf).
+		t.Corrections.HeadwindMaxMS, _ = hm.quantity("up_to", units.Speed, false, 1*units.MetresPerSecPerKnot, 60*units.MetresPerSecPerKnot)
 		hm.finish()
 	} else {
 		d.notef("%s.corrections.headwind not given: no credit for headwind", k.path)

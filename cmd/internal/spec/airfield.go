@@ -113,8 +113,9 @@ func (d *decoder) runway(n *yaml.Node, path string, fieldElev float64, seen map[
 	elevs := make([]float64, len(endNodes))
 	haveElev := make([]bool, len(endNodes))
 	raws := make([][]rawObstacle, len(endNodes)) // resolved once the elevations are known
+	endMaps := make([]*mapping, 0, len(endNodes))
 	for i, en := range endNodes {
-		e, elev, elevNode := d.runwayEnd(en, fmt.Sprintf("%s.ends[%d]", path, i), seen, &raws[i])
+		e, elev, elevNode, em := d.runwayEnd(en, fmt.Sprintf("%s.ends[%d]", path, i), seen, &raws[i])
 		ok := elevNode != nil
 		if e == nil {
 			continue
@@ -130,12 +131,14 @@ func (d *decoder) runway(n *yaml.Node, path string, fieldElev float64, seen map[
 			}
 		}
 		r.Ends = append(r.Ends, *e)
+		endMaps = append(endMaps, em)
 	}
 	m.finish()
 	if len(r.Ends) == 0 || len(r.Ends) != len(endNodes) {
 		return r // errors already reported
 	}
 	name := runwayName(r)
+	d.runLengths(r, endMaps, lengthM, haveLength)
 	if len(r.Ends) == 2 {
 		d1, d2 := designatorNumber(r.Ends[0].Designator), designatorNumber(r.Ends[1].Designator)
 		if diff := (d1 - d2 + 36) % 36; diff != 18 {
@@ -204,9 +207,10 @@ func designatorNumber(s string) int {
 }
 
 // runwayEnd reads one runway end; the threshold elevation is returned with its node,
-// which is nil when none was given. Its obstacles go to *obstacles as read (see
+// which is nil when none was given, and the end's mapping (for checks against the
+// other end and the runway). Its obstacles go to *obstacles as read (see
 // resolveObstacles).
-func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Node, obstacles *[]rawObstacle) (*perf.RunwayEnd, float64, *yaml.Node) {
+func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Node, obstacles *[]rawObstacle) (*perf.RunwayEnd, float64, *yaml.Node, *mapping) {
 	m := d.mapping(n, path)
 	e := &perf.RunwayEnd{}
 	des := m.str("designator", true)
@@ -265,9 +269,68 @@ func (d *decoder) runwayEnd(n *yaml.Node, path string, seen map[string]*yaml.Nod
 	*obstacles = d.obstacles(m)
 	m.finish()
 	if !haveElev {
-		return e, elev, nil
+		return e, elev, nil, m
 	}
-	return e, elev, m.vals["threshold_elevation"]
+	return e, elev, m.vals["threshold_elevation"], m
+}
+
+// lengthSlackM is how much longer than the runway's declared length a TORA or an LDA
+// may be written: the rounding of one figure in whole metres and the other in whole
+// feet (half a metre at most) with room to spare.
+const lengthSlackM = 1.0
+
+// plausibleEndRatio bounds how much longer one end's TORA (or LDA) may be than the
+// other end's of the same runway before validate asks for a check when the runway
+// gives no length: half as much again. A displaced threshold, a starter extension or
+// a stopway counted into the run make the two ends differ by some tens or a few
+// hundred metres (common practice); an extra digit makes one ten times the other, a
+// length in feet typed as metres 3.28 times.
+const plausibleEndRatio = 1.5
+
+// runLengths checks the TORA and LDA of runway r's ends (read through endMaps) against
+// the runway's declared length: each is a length of runway (ICAO Annex 14, Vol I,
+// ch. 1, definitions: "the length of runway declared available and suitable for the
+// ground run of an aeroplane taking off" and "... landing", as TERMIUM Plus quotes the
+// ICAO definition of TORA; the LDA's from memory), so neither may be longer than the
+// runway. TODA and ASDA may: a clearway and a stopway lie beyond the runway's end.
+// Without a length, the two ends' TORAs and LDAs are held against each other
+// (plausibleEndRatio) and a large difference is a warning.
+func (d *decoder) runLengths(r *perf.Runway, endMaps []*mapping, lengthM float64, haveLength bool) {
+	type figure struct {
+		key, name string
+		get       func(perf.RunwayEnd) float64
+	}
+	for _, f := range []figure{
+		{"tora", "TORA", func(e perf.RunwayEnd) float64 { return e.TORAM }},
+		{"lda", "LDA", func(e perf.RunwayEnd) float64 { return e.LDAM }},
+	} {
+		if haveLength {
+			for i, e := range r.Ends {
+				if v := f.get(e); v > lengthM+lengthSlackM {
+					n := endMaps[i].vals[f.key]
+					d.errorf(n, endMaps[i].field(f.key), "%s %s is longer than the runway's length %s: TORA and LDA are lengths of runway (only TODA and ASDA reach beyond it, over a clearway or a stopway); check for an extra digit or a unit slip",
+						f.name, strings.TrimSpace(n.Value), units.Format(lengthM, units.Length, units.UnitOf(n.Value, units.Length)))
+				}
+			}
+			continue
+		}
+		if len(r.Ends) != 2 {
+			continue
+		}
+		a, b := f.get(r.Ends[0]), f.get(r.Ends[1])
+		if !(a > 0 && b > 0) {
+			continue
+		}
+		long, short := 0, 1
+		if b > a {
+			long, short = 1, 0
+		}
+		if lv, sv := f.get(r.Ends[long]), f.get(r.Ends[short]); lv > plausibleEndRatio*sv {
+			n := endMaps[long].vals[f.key]
+			d.warnf(n, endMaps[long].field(f.key), "%s %s of %s is %.1f times the %s of %s: the two ends of one runway differ by a displaced threshold or a starter extension, rarely by half as much again; check for an extra digit or a unit slip, and give the runway's length so that kneeprint can hold both against it",
+				f.name, strings.TrimSpace(n.Value), r.Ends[long].Designator, lv/sv, strings.TrimSpace(endMaps[short].vals[f.key].Value), r.Ends[short].Designator)
+		}
+	}
 }
 
 // angleDiff returns a-b in (-180, 180].

@@ -177,6 +177,7 @@ func (d *decoder) climbTable(m *mapping, mtow float64, mtowOK bool, mtowNode *ya
 	if !d.climbMonotone(t, allNodes, bs[0].index == typedtable.Single) {
 		return nil
 	}
+	d.noClimbWarnings(t, allNodes, unit)
 	if mtowOK && t.WeightKg[len(t.WeightKg)-1] < mtow-1e-9 {
 		d.notef("climb: heaviest block %.0f kg is below the MTOW %.0f kg: heavier weights have no climb data", t.WeightKg[len(t.WeightKg)-1], mtow)
 	}
@@ -236,6 +237,27 @@ func (d *decoder) rateRows(m *mapping, rows, cols int, factor float64, unit stri
 		return nil, nil
 	}
 	return out, nodes
+}
+
+// noClimbWarnings warns at every rate of climb of zero or less: a manual may print
+// one where the aircraft cannot climb, and kneeprint then gives no takeoff (no
+// figure) in every cell at those conditions, on every runway end, obstacles or not
+// (perf's no-climb check, which also counts a positive rate under a 0.5 % still-air
+// gradient as no climb).
+func (d *decoder) noClimbWarnings(t *perf.ClimbTable, nodes [][][]*yaml.Node, unit string) {
+	for w := range t.WeightKg {
+		for p := range t.PressureAltM {
+			for k := range t.TempK {
+				if t.RateMS[w][p][k] > 0 {
+					continue
+				}
+				n := nodes[w][p][k]
+				d.warnf(n, fmt.Sprintf("climb (%.0f kg).rate_of_climb[%d][%d]", t.WeightKg[w], p, k),
+					"%s %s at %.0f ft, %.0f C: no climb; every cell at these conditions (and wherever the rate gives under a 0.5 %% still-air gradient) is no takeoff, on every runway end",
+					n.Value, unit, units.Feet(t.PressureAltM[p]), units.Celsius(t.TempK[k]))
+			}
+		}
+	}
 }
 
 // climbMonotone refuses rates that rise with pressure altitude, temperature or

@@ -41,6 +41,8 @@ type decoder struct {
 	// The same for the landing section (landing.go).
 	landingCalib      []calibPoint
 	landingTableNodes [2][][][]*yaml.Node
+	// minMassWhy says where an aircraft's lowest flyable mass came from, for messages.
+	minMassWhy string
 }
 
 // result returns the errors, with a last line counting those not listed.
@@ -439,35 +441,10 @@ func (d *decoder) quantity(v *yaml.Node, field string, dim units.Dimension, lo, 
 		return 0, false
 	}
 	if x < lo || x > hi {
-		d.errorf(v, field, "%s is outside the accepted range %s", v.Value, rangeText(dim, lo, hi))
+		d.errorf(v, field, "%s is outside the accepted range %s", v.Value, units.FormatRange(lo, hi, dim, units.UnitOf(v.Value, dim)))
 		return 0, false
 	}
 	return x, true
-}
-
-// rangeText prints an SI range in the unit a user most likely wrote.
-func rangeText(dim units.Dimension, lo, hi float64) string {
-	switch dim {
-	case units.Length:
-		return fmt.Sprintf("%g to %g m", round3(lo), round3(hi))
-	case units.Mass:
-		return fmt.Sprintf("%g to %g kg", round3(lo), round3(hi))
-	case units.Temperature:
-		return fmt.Sprintf("%g to %g C", round3(units.Celsius(lo)), round3(units.Celsius(hi)))
-	case units.Pressure:
-		return fmt.Sprintf("%g to %g hPa", round3(units.HPa(lo)), round3(units.HPa(hi)))
-	case units.Speed:
-		return fmt.Sprintf("%g to %g kt", round3(units.Knots(lo)), round3(units.Knots(hi)))
-	case units.Area:
-		return fmt.Sprintf("%g to %g m2", round3(lo), round3(hi))
-	case units.Power:
-		return fmt.Sprintf("%g to %g kW", round3(lo/1000), round3(hi/1000))
-	case units.Duration:
-		return fmt.Sprintf("%g to %g s", round3(lo), round3(hi))
-	case units.Slope, units.Percent:
-		return fmt.Sprintf("%g to %g %%", round3(lo), round3(hi))
-	}
-	return fmt.Sprintf("%g to %g deg", round3(lo), round3(hi))
 }
 
 func round3(x float64) float64 { return math.Round(x*1000) / 1000 }
@@ -495,7 +472,7 @@ func (d *decoder) number(v *yaml.Node, field string, lo, hi float64) (float64, b
 		return 0, false
 	}
 	if x < lo || x > hi {
-		d.errorf(v, field, "%s is outside the accepted range %g to %g", v.Value, lo, hi)
+		d.errorf(v, field, "%s is outside the accepted range %s", v.Value, units.FormatNumberRange(lo, hi))
 		return 0, false
 	}
 	return x, true

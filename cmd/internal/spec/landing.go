@@ -36,6 +36,13 @@ func (d *decoder) landing(n *yaml.Node, a *perf.Aircraft, flaps map[string]float
 		if mtowOK && v > mtow+1e-9 {
 			d.errorf(m.vals["max_landing_mass"], "landing.max_landing_mass", "%s is above the MTOW %.0f kg: an aircraft never lands heavier than it took off", m.vals["max_landing_mass"].Value, mtow)
 		}
+		// The landing side shows the maximum landing mass first; below the lowest
+		// flyable mass no question is answered, so the profile could give no landing
+		// figure at all (a slip: 650 kg for 1650 kg).
+		if a.MinMassKg > 0 && v < a.MinMassKg-1e-9 {
+			d.errorf(m.vals["max_landing_mass"], "landing.max_landing_mass", "%s is below the lowest flyable mass %s (%s): no landing could be answered at it; check the figure",
+				m.vals["max_landing_mass"].Value, units.Format(a.MinMassKg, units.Mass, units.UnitOf(m.vals["max_landing_mass"].Value, units.Mass)), d.minMassWhy)
+		}
 	} else if !m.has("max_landing_mass") && mtowOK {
 		l.MaxMassKg = mtow
 		d.notef("landing.max_landing_mass not given: the MTOW, %.0f kg, is taken as the maximum landing mass", mtow)
@@ -206,6 +213,7 @@ func summarizeLanding(w io.Writer, doc *Document) {
 	fmt.Fprintf(w, "      approach angle   %.2f deg (fit started from %.1f; bounds %.0f to %.0f)\n", c.ApproachAngleDeg, c.StartAngleDeg, perf.MinApproachAngleDeg, perf.MaxApproachAngleDeg)
 	fmt.Fprintf(w, "      braking fraction %.3f (fit started from %.2f; bounds %.2f to %.2f)\n", c.BrakingFrac, c.StartBraking, perf.MinBrakingFraction, perf.MaxBrakingFraction)
 	fmt.Fprintf(w, "      largest residual %.1f %% (at most %.0f %% accepted); residuals, model against manual:\n", c.LargestPct, perf.CalibrationTolerancePct)
+	defer summarizeFloor(w, c.Floor, "landing", "      ")
 	for i, cp := range doc.landingCalib {
 		if i >= len(c.Fits) {
 			break

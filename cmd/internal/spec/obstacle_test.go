@@ -1,6 +1,7 @@
 package spec
 
 import (
+	"io/fs"
 	"strings"
 	"testing"
 
@@ -8,6 +9,7 @@ import (
 	"github.com/stretchr/testify/require"
 
 	"kneeprint/perf"
+	"kneeprint/templates"
 )
 
 // Obstacles as the loader reads them (issue 12 item 1): every form resolved to a
@@ -157,4 +159,72 @@ valid_days: 100
 	_, err = Parse("t.yaml", []byte(tpl("obstacle_margin: 0 ft\n")))
 	require.Error(t, err)
 	assert.Contains(t, err.Error(), "t.yaml:14:18: obstacle_margin: 0 ft is outside the accepted range")
+}
+
+// A climb table's rates of zero or less mean no climb: the loader accepts them (a
+// manual may print them), validate warns at each with its line, since every cell at
+// those conditions is "no takeoff" on every runway end (perf: the no-climb check).
+func TestClimbNoClimbWarned(t *testing.T) {
+	const ac = `kind: aircraft
+name: Test
+type: Test type
+mtow: 1000 kg
+speeds: {rotation: 55 kt}
+limits:
+  demonstrated_crosswind: 15 kt
+takeoff_flap: "0"
+table:
+  wind_factoring_included: true
+  distance_unit: m
+  pressure_altitudes: [0 ft, 4000 ft]
+  temperatures: [0 C, 30 C]
+  weights:
+    - weight: 1000 kg
+      ground_roll:
+        - [250, 300]
+        - [320, 380]
+      to_50ft:
+        - [450, 540]
+        - [580, 690]
+climb:
+  speed: 65 kt
+  rate_unit: ft/min
+  pressure_altitudes: [0 ft, 4000 ft]
+  temperatures: [0 C, 30 C]
+  rate_of_climb:
+    - [300, 0]
+    - [120, -40]
+`
+	doc, err := Parse("a.yaml", []byte(ac))
+	require.NoError(t, err)
+	w := strings.Join(doc.Warnings, "\n")
+	assert.Contains(t, w, "a.yaml:28: climb (1000 kg).rate_of_climb[0][1]: 0 ft/min at 0 ft, 30 C: no climb")
+	assert.Contains(t, w, "a.yaml:29: climb (1000 kg).rate_of_climb[1][1]: -40 ft/min at 4000 ft, 30 C: no climb")
+	assert.NotContains(t, w, "rate_of_climb[0][0]")
+	assert.NotContains(t, w, "rate_of_climb[1][0]")
+	assert.Len(t, doc.Warnings, 2)
+}
+
+// The headwind note takes an optional up_to, as the tailwind note does: beyond it,
+// no data. validate prints it, or says what is assumed without it.
+func TestHeadwindNoteUpTo(t *testing.T) {
+	data, err := fs.ReadFile(templates.FS, "aircraft/sedgefin-sf2.yaml")
+	require.NoError(t, err)
+	s := strings.Replace(string(data), "headwind: {decrease: 6 %, per: 5 kt}", "headwind: {decrease: 6 %, per: 5 kt, up_to: 20 kt}", 1)
+	doc, err := Parse("a.yaml", []byte(s))
+	require.NoError(t, err)
+	assert.InDelta(t, 20*1852.0/3600, doc.Aircraft.Table.Corrections.HeadwindMaxMS, 1e-12)
+	var out strings.Builder
+	Summarize(&out, doc)
+	assert.Contains(t, out.String(), "headwind: -6 % per 5 kt up to 20 kt")
+
+	doc, err = Load(templates.FS, "aircraft/sedgefin-sf2.yaml")
+	require.NoError(t, err)
+	out.Reset()
+	Summarize(&out, doc)
+	assert.Contains(t, out.String(), "headwind: -6 % per 5 kt (no up_to: no data beyond half the lift-off speed, 55 kt IAS)")
+
+	_, err = Parse("a.yaml", []byte(strings.Replace(string(data), "per: 5 kt}", "per: 5 kt, up_to: 0 kt}", 1)))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "table.corrections.headwind.up_to: 0 kt is outside the accepted range 1 to 60 kt")
 }

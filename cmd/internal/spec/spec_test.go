@@ -30,6 +30,13 @@ func TestBadFiles(t *testing.T) {
 			"af-negative-tora.yaml:11:15: runways[0].ends[1].tora: -800 m is outside the accepted range",
 		}},
 		{"af-toda-short.yaml", []string{"af-toda-short.yaml:10:15: runways[0].ends[0].toda: TODA 700 m is shorter than TORA 800 m"}},
+		// An extra zero in a TORA or an LDA (610 m typed 5600 m): longer than the
+		// runway's declared length, which TODA and ASDA may exceed but TORA and LDA
+		// may not (ICAO Annex 14, Vol I, 1.1: TORA and LDA are lengths of runway).
+		{"af-tora-beyond-length.yaml", []string{
+			"af-tora-beyond-length.yaml:13:15: runways[0].ends[1].tora: TORA 5600 m is longer than the runway's length 610 m",
+			"af-tora-beyond-length.yaml:15:14: runways[0].ends[1].lda: LDA 5100 m is longer than the runway's length 610 m",
+		}},
 		{"af-heading-range.yaml", []string{"af-heading-range.yaml:11:18: runways[0].ends[1].heading: 400 deg is outside the accepted range 1 to 360 deg"}},
 		{"af-duplicate-key.yaml", []string{"af-duplicate-key.yaml:3:1: name: duplicate key (first at line 2)"}},
 		{"af-unknown-key.yaml", []string{`af-unknown-key.yaml:4:1: icao: unknown field "icao"; known fields here: elevation, ident, kind, name, runways, variation`}},
@@ -124,6 +131,9 @@ func TestBadFiles(t *testing.T) {
 		}},
 		// Issue 11: the landing section.
 		{"ac-landing-mlm-above-mtow.yaml", []string{"ac-landing-mlm-above-mtow.yaml:24:21: landing.max_landing_mass: 1100 kg is above the MTOW 1000 kg"}},
+		// A maximum landing mass below the lowest flyable mass loaded cleanly, then check
+		// exited 2 without a line and cards failed.
+		{"ac-landing-mlm-below-min.yaml", []string{"ac-landing-mlm-below-min.yaml:25:21: landing.max_landing_mass: 650 kg is below the lowest flyable mass 700 kg (min_mass)"}},
 		{"ac-landing-from50-short.yaml", []string{
 			"ac-landing-from50-short.yaml:35:19: landing.table.weights (1000 kg).from_50ft[0][1]: distance falls as temperature rises",
 			"ac-landing-from50-short.yaml:35:19: landing.table.weights (1000 kg).from_50ft[0][1]: distance from 50 ft is shorter than the ground roll",

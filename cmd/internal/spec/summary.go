@@ -3,6 +3,7 @@ package spec
 import (
 	"fmt"
 	"io"
+	"strconv"
 	"strings"
 
 	"gopkg.in/yaml.v3"
@@ -103,7 +104,7 @@ func summarizeAircraft(w io.Writer, a *perf.Aircraft) {
 			len(t.WeightKg), first(t.WeightKg), last(t.WeightKg), t.WindInData)
 		c := t.Corrections
 		if c.HeadwindPerMS > 0 {
-			fmt.Fprintf(w, "    headwind: -%g %% per %.0f kt\n", c.HeadwindPct, units.Knots(c.HeadwindPerMS))
+			fmt.Fprintf(w, "    headwind: -%g %% per %.0f kt%s\n", c.HeadwindPct, units.Knots(c.HeadwindPerMS), headwindBound(c, a.RotateIASMS))
 		}
 		if c.TailwindPerMS > 0 {
 			fmt.Fprintf(w, "    tailwind: +%g %% per %.0f kt up to %.0f kt\n", c.TailwindPct, units.Knots(c.TailwindPerMS), units.Knots(c.TailwindMaxMS))
@@ -138,6 +139,7 @@ func summarizeFit(w io.Writer, doc *Document) {
 	fmt.Fprintf(w, "    static thrust fraction %.3f (fit started from %.2f; bounds %.2f to %.2f)\n", c.Static, c.StartStatic, perf.MinStaticThrustFrac, perf.MaxStaticThrustFrac)
 	fmt.Fprintf(w, "    propeller efficiency   %.3f (fit started from %.2f; bounds %.2f to %.2f)\n", c.Eta, c.StartEta, perf.MinPropEfficiency, perf.MaxPropEfficiency)
 	fmt.Fprintf(w, "    largest residual %.1f %% (at most %.0f %% accepted); residuals, model against manual:\n", c.LargestPct, perf.CalibrationTolerancePct)
+	defer summarizeFloor(w, c.Floor, "takeoff", "    ")
 	for i, cp := range doc.calib {
 		if i >= len(c.Fits) {
 			break
@@ -197,7 +199,11 @@ func abs(x float64) float64 {
 func summarizeTemplate(w io.Writer, t *CardTemplate) {
 	fmt.Fprintf(w, "  card template %q: page %s, unit %s, policy %s, QNH %.0f hPa, tight margin %.0f %%\n",
 		t.Name, t.Page, t.Unit, t.Policy, units.HPa(t.QNHPa), t.TightMargin*100)
-	fmt.Fprintf(w, "  %d temperatures x %d winds, up to %d weight blocks; valid %d days; obstacles cleared by %.0f ft\n", len(t.TempsK), len(t.WindsMS), t.MaxBlocks, t.ValidDays, units.Feet(t.ObstacleMarginM))
+	blocks := fmt.Sprintf("up to %d weight blocks", t.MaxBlocks)
+	if t.MaxBlocks == 1 {
+		blocks = "one weight block"
+	}
+	fmt.Fprintf(w, "  %d temperatures x %d winds, %s; valid %d days; obstacles cleared by %.0f ft\n", len(t.TempsK), len(t.WindsMS), blocks, t.ValidDays, units.Feet(t.ObstacleMarginM))
 	fmt.Fprintf(w, "  landing figures (for a profile with landing data): %s\n", t.Landing)
 }
 
@@ -231,4 +237,27 @@ func limitsLine(a *perf.Aircraft) string {
 		parts = append(parts, "no operating temperature limits declared")
 	}
 	return strings.Join(parts, ", ")
+}
+
+// headwindBound says how far a takeoff table's headwind note is used
+// (perf.TableModel.Takeoff): up to its up_to; else, with the manual's rotation speed,
+// to half the lift-off speed; else only the floor of half the distance bounds it.
+func headwindBound(c perf.Corrections, rotateIASMS float64) string {
+	switch {
+	case c.HeadwindMaxMS > 0:
+		return fmt.Sprintf(" up to %.0f kt", units.Knots(c.HeadwindMaxMS))
+	case rotateIASMS > 0:
+		return fmt.Sprintf(" (no up_to: no data beyond half the lift-off speed, %.0f kt IAS)", units.Knots(rotateIASMS))
+	}
+	return " (no up_to and no rotation speed: the credit is only floored at half the distance; give up_to)"
+}
+
+// summarizeFloor says which floor factor a calibration applies (perf: the calibrated
+// model is never shorter than the manual at its own points).
+func summarizeFloor(w io.Writer, floor float64, what, indent string) {
+	if floor > 1 {
+		fmt.Fprintf(w, "%sfloor factor ×%s on every %s distance of the fitted model (ground roll and total): the largest manual/fit ratio above, rounded up, so that the calibrated model is never shorter than the manual at its own points\n", indent, strconv.FormatFloat(floor, 'f', -1, 64), what)
+		return
+	}
+	fmt.Fprintf(w, "%sno floor factor: the fit is nowhere shorter than the manual at its own points\n", indent)
 }

@@ -238,3 +238,131 @@ func Spellings(d Dimension) []string {
 	}
 	return out
 }
+
+// FromSI converts SI value x of dimension d to the unit named unit (a canonical name,
+// as ParseUnit returns it). Every unit's conversion to SI is linear or affine
+// (temperature), so the inverse is (x - toSI(0)) / (toSI(1) - toSI(0)). The bool is
+// false for a unit d does not have.
+func FromSI(x float64, d Dimension, unit string) (float64, bool) {
+	for _, u := range table[d] {
+		if u.def.name == unit {
+			zero := u.def.toSI(0)
+			return (x - zero) / (u.def.toSI(1) - zero), true
+		}
+	}
+	return 0, false
+}
+
+// siName is the unit SI values of d are printed in when no other is known.
+func siName(d Dimension) string { return table[d][0].def.name }
+
+// decimals is how many decimals a value of magnitude |v| is printed with in a
+// message: whole units from 100 up, one decimal from 10, two from 1, three below.
+// Enough to tell values a user could mean apart, never the 14 digits of a raw
+// conversion.
+func decimals(v float64) int {
+	switch a := math.Abs(v); {
+	case a >= 100:
+		return 0
+	case a >= 10:
+		return 1
+	case a >= 1:
+		return 2
+	}
+	return 3
+}
+
+// unitDecimals are units read to finer steps than their magnitude suggests: an
+// altimeter setting in inches of mercury is read to the hundredth (29.92).
+var unitDecimals = map[string]int{"inHg": 2}
+
+// decimalsIn is decimals(v), at least what unit is read to.
+func decimalsIn(v float64, unit string) int {
+	if d := unitDecimals[unit]; d > decimals(v) {
+		return d
+	}
+	return decimals(v)
+}
+
+// trimmed prints v with dec decimals and no trailing zeros.
+func trimmed(v float64, dec int) string {
+	s := strconv.FormatFloat(v, 'f', dec, 64)
+	if strings.Contains(s, ".") {
+		s = strings.TrimRight(strings.TrimRight(s, "0"), ".")
+	}
+	if s == "-0" {
+		s = "0"
+	}
+	return s
+}
+
+// roundTo rounds v to dec decimals in the direction dir (-1 down, +1 up, 0 nearest).
+// A value within a billionth of a step of a rounded one is taken as that value, so a
+// bound that is exact in the unit (10 ft stored as 3.048 m) prints as written.
+func roundTo(v float64, dec, dir int) float64 {
+	p := math.Pow(10, float64(dec))
+	x := v * p
+	if r := math.Round(x); math.Abs(x-r) < 1e-9*math.Max(1, math.Abs(x)) {
+		return r / p
+	}
+	switch dir {
+	case -1:
+		return math.Floor(x) / p
+	case 1:
+		return math.Ceil(x) / p
+	}
+	return math.Round(x) / p
+}
+
+// Format prints SI value x of dimension d in unit (its canonical name; the SI unit
+// when empty or unknown), rounded to a sensible number of decimals: "610 m",
+// "2001 ft", "3.28 ft".
+func Format(x float64, d Dimension, unit string) string {
+	v, ok := FromSI(x, d, unit)
+	if !ok {
+		unit = siName(d)
+		v, _ = FromSI(x, d, unit)
+	}
+	dec := decimalsIn(v, unit)
+	return trimmed(roundTo(v, dec, 0), dec) + " " + unit
+}
+
+// FormatRange prints the SI range lo to hi of dimension d in unit (the SI unit when
+// empty or unknown), each bound rounded inwards (the lower up, the upper down) to a
+// sensible number of decimals, so that every value the message shows as accepted is
+// accepted: "10 to 500 ft", "3.29 to 19685 ft".
+func FormatRange(lo, hi float64, d Dimension, unit string) string {
+	a, ok := FromSI(lo, d, unit)
+	if !ok {
+		unit = siName(d)
+		a, _ = FromSI(lo, d, unit)
+	}
+	b, _ := FromSI(hi, d, unit)
+	return boundIn(a, 1, unit) + " to " + boundIn(b, -1, unit) + " " + unit
+}
+
+// FormatNumberRange prints the plain-number range lo to hi with each bound as it is
+// when it has at most three decimals, else rounded inwards to a sensible number of
+// decimals: "1 to 19685", "0.01 to 0.15", "-10.16 to 25.4".
+func FormatNumberRange(lo, hi float64) string {
+	return boundIn(lo, 1, "") + " to " + boundIn(hi, -1, "")
+}
+
+// boundIn prints a range bound v in unit, as it is when it has at most three
+// decimals, else rounded in the direction dir (+1 up, -1 down) to decimalsIn(v, unit).
+func boundIn(v float64, dir int, unit string) string {
+	if exact := roundTo(v, 3, 0); math.Abs(exact-v) < 1e-9*math.Max(1, math.Abs(v)) {
+		return trimmed(exact, 3)
+	}
+	d := decimalsIn(v, unit)
+	return trimmed(roundTo(v, d, dir), d)
+}
+
+// UnitOf is the canonical name of the unit text s is written in for dimension d, or
+// the SI unit's name when s does not parse.
+func UnitOf(s string, d Dimension) string {
+	if _, u, err := ParseUnit(s, d); err == nil {
+		return u
+	}
+	return siName(d)
+}

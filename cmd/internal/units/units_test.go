@@ -96,3 +96,50 @@ func FuzzParse(f *testing.F) {
 		}
 	})
 }
+
+// Values and ranges in messages are shown in the unit the user wrote, rounded to
+// what can be told apart, never as a raw conversion ("3.048 to 152.4 m" for a value
+// in feet, "1 to 19685.03937007874"). Ranges are rounded inwards, so a value shown
+// as accepted is accepted. Check values: 1 ft = 0.3048 m and 1 lb = 0.45359237 kg
+// (international yard and pound agreement, 1959), degF = degC x 9/5 + 32 (ISO
+// 80000-5), 1 kt = 1852/3600 m/s (ICAO Annex 5).
+func TestFormatInTheUnitWritten(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		got  string
+		want string
+	}{
+		{"10 to 500 ft stored in m", FormatRange(10*MetresPerFoot, 500*MetresPerFoot, Length, "ft"), "10 to 500 ft"},
+		{"1 to 6000 m shown in ft: inwards", FormatRange(1, 6000, Length, "ft"), "3.29 to 19685 ft"},
+		{"the same in m", FormatRange(1, 6000, Length, "m"), "1 to 6000 m"},
+		{"-60 to 60 C in F", FormatRange(-60+KelvinAtZeroCelsius, 60+KelvinAtZeroCelsius, Temperature, "F"), "-76 to 140 F"},
+		{"100 to 5670 kg in lb: inwards", FormatRange(100, 5670, Mass, "lb"), "221 to 12500 lb"},
+		{"unknown unit: SI", FormatRange(1, 2, Length, "furlong"), "1 to 2 m"},
+		{"inHg to the hundredth (NIST SP 811: 1 inHg = 3386.389 Pa)", FormatRange(80000, 110000, Pressure, "inHg"), "23.63 to 32.48 inHg"},
+		{"a length in ft", Format(610, Length, "ft"), "2001 ft"},
+		{"a mass in kg", Format(700, Mass, "kg"), "700 kg"},
+		{"a speed in km/h", Format(10, Speed, "km/h"), "36 km/h"},
+		{"plain numbers", FormatNumberRange(1, 6000/MetresPerFoot), "1 to 19685"},
+		{"small plain numbers", FormatNumberRange(0.01, 0.15), "0.01 to 0.15"},
+		{"negative plain numbers", FormatNumberRange(-2000*MetresPerFoot/60, 5000*MetresPerFoot/60), "-10.16 to 25.4"},
+	} {
+		assert.Equal(t, tc.want, tc.got, tc.name)
+	}
+	for _, u := range []struct {
+		s    string
+		d    Dimension
+		want string
+	}{{"5 ft", Length, "ft"}, {"5ft", Length, "ft"}, {"86 °F", Temperature, "F"}, {"2300 lbs", Mass, "lb"}, {"junk", Length, "m"}} {
+		assert.Equal(t, u.want, UnitOf(u.s, u.d), u.s)
+	}
+	// FromSI inverts Parse for every unit of every dimension.
+	for d, us := range table {
+		for _, u := range us {
+			si, err := Parse("12.5 "+u.spellings[0], d)
+			require.NoError(t, err)
+			back, ok := FromSI(si, d, u.def.name)
+			require.True(t, ok)
+			assert.InDelta(t, 12.5, back, 1e-9, "%s %s", d, u.def.name)
+		}
+	}
+}
