@@ -1,6 +1,7 @@
 package perf
 
 import (
+	"fmt"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -110,4 +111,14 @@ func TestTableAccelerateCheck(t *testing.T) {
 	assert.Less(t, r.AccelCheckM, 0.49*r.GroundRollM, "a headwind gives part of the airspeed at rest")
 	r2, _ := m.Takeoff(Conditions{TempK: 273.15, MassKg: 900, HeadwindMS: -10 * knot, Surface: Paved, Condition: Dry})
 	assert.Greater(t, r2.AccelCheckM, 0.49*r2.GroundRollM)
+}
+
+// The grass note reads as fmt writes it, for whole, fractional, tiny and huge
+// percentages (the %g verb is strconv's shortest 'g' form: Go fmt documentation).
+func TestGrassNote(t *testing.T) {
+	for _, c := range []Condition{Dry, Wet} {
+		for _, pct := range []float64{18, 12.5, 0.1, 1e-7, 33.333333333333336, 1e21, 100} {
+			assert.Equal(t, fmt.Sprintf("manual's %s grass note: +%g %% of ground roll", c, pct), grassNote(c, pct))
+		}
+	}
 }
