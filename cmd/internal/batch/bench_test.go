@@ -303,3 +303,22 @@ func BenchmarkSeasonMemory(b *testing.B) {
 		b.ReportMetric(float64(rssPeak)/(1<<20), "peak-rss-MB")
 	}
 }
+
+// BenchmarkCardCheck runs the layout checks on 16 real card models (each page of
+// four scaled demo airfields): what every card costs before it is drawn.
+func BenchmarkCardCheck(b *testing.B) {
+	fonts, err := layout.NewFonts()
+	if err != nil {
+		b.Fatal(err)
+	}
+	cs := seasonCards(b, fonts, 16)
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		for _, c := range cs {
+			if probs := c.Check(); len(probs) > 0 {
+				b.Fatal(probs)
+			}
+		}
+	}
+}
