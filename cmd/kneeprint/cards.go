@@ -155,8 +155,10 @@ func planFromFlags(e env, opts *cardsOptions) (*spec.Plan, error) {
 	if opts.out == "" {
 		return nil, errors.New("-o DIR is required: the folder the cards are written to")
 	}
-	p := &spec.Plan{Name: "command line", Templates: []string{opts.template}, Output: opts.out}
+	// The name a plan bundle takes (--bundle plan): demo_a5.pdf, cards_a5.pdf.
+	p := &spec.Plan{Name: "cards", Templates: []string{opts.template}, Output: opts.out}
 	if opts.demo {
+		p.Name = "demo"
 		ac, af := inputs.Demo()
 		for _, s := range ac {
 			p.Aircraft = append(p.Aircraft, inputs.DemoPrefix+strings.TrimSuffix(filepath.Base(s.Path), ".yaml"))

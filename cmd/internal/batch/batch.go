@@ -530,7 +530,7 @@ func (s *Summary) WriteSummary(w io.Writer) {
 	}
 	fmt.Fprintf(w, "\n%d card file(s), %d card page(s) written to %s in %.1f s\n", files, pages, s.Dir, s.Elapsed.Seconds())
 	if len(flagged) > 0 {
-		sort.Strings(flagged)
+		sortListed(flagged)
 		fmt.Fprintf(w, "card sides with no-go or beyond-limit cells, or without an LDA (%d):\n", len(flagged))
 		for _, f := range flagged {
 			fmt.Fprintf(w, "  %s\n", f)
@@ -611,8 +611,37 @@ func (s *Summary) Empty() []string {
 			}
 		}
 	}
-	sort.Strings(out)
+	sortListed(out)
 	return out
+}
+
+// sortListed sorts the summary's lines of card pages: by name, and a bundle's by
+// its pages ("FILE pages 9-10, ..." before "FILE pages 11-12, ...").
+func sortListed(lines []string) {
+	key := func(l string) (string, int, string) {
+		if file, rest, ok := strings.Cut(l, " pages "); ok {
+			n := 0
+			for _, r := range rest {
+				if r < '0' || r > '9' {
+					break
+				}
+				n = n*10 + int(r-'0')
+			}
+			return file, n, l
+		}
+		return l, 0, l
+	}
+	sort.SliceStable(lines, func(i, j int) bool {
+		fi, pi, li := key(lines[i])
+		fj, pj, lj := key(lines[j])
+		if fi != fj {
+			return fi < fj
+		}
+		if pi != pj {
+			return pi < pj
+		}
+		return li < lj
+	})
 }
 
 // flaggedEnds lists a written card file's pages with no-go or beyond-limit cells.
