@@ -33,6 +33,9 @@ type RenderOptions struct {
 	// Duplex says the cards come in front/back pairs (takeoff side, landing side):
 	// on 2-up sheets the backs are then imposed mirrored (Impose).
 	Duplex bool
+	// DropDrawn lets RenderPDF set each element of its cards to nil once the card
+	// is drawn, so that a long document's card models go as its pages are made.
+	DropDrawn bool
 }
 
 const fontFamily = "go"
@@ -92,10 +95,13 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 		return err
 	}
 	if opt.Sheet == nil {
-		for _, c := range cards {
+		for i, c := range cards {
 			pdf.AddPageFormat("P", size)
 			d.bookmark(c.Title)
 			d.drawCard(c, 0, 0)
+			if opt.DropDrawn {
+				cards[i] = nil
+			}
 		}
 	} else {
 		s := *opt.Sheet
@@ -108,6 +114,9 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 				}
 				d.bookmark(cards[ci].Title)
 				d.drawCard(cards[ci], offX+float64(j)*p.WidthMM, offY)
+				if opt.DropDrawn {
+					cards[ci] = nil
+				}
 			}
 			cutMarks(pdf, s, p, offX, offY)
 		}
@@ -134,8 +143,13 @@ var buffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
 
 func getBuffer() *bytes.Buffer { return buffers.Get().(*bytes.Buffer) }
 
+// maxPooledBuffer bounds the buffers kept for reuse: a card file is tens of
+// kilobytes, a bundle (cards --bundle) megabytes; a bundle's buffers kept for the
+// next bundle save growing them again, page by page.
+const maxPooledBuffer = 64 << 20
+
 func putBuffer(b *bytes.Buffer) {
-	if b.Cap() <= 4<<20 {
+	if b.Cap() <= maxPooledBuffer {
 		b.Reset()
 		buffers.Put(b)
 	}

@@ -146,6 +146,63 @@ func BenchmarkSeason(b *testing.B) {
 	}
 }
 
+// BenchmarkSeasonBundle renders a quarter of the season (10 aircraft x 10
+// airfields: 100 pairs, 1,000 card pages, the most one bundle holds) compressed, as
+// the command does, one PDF per pair (bundle=none), per airfield (10 PDFs of 100
+// pages) and for the whole plan (one PDF), and reports what bundling saves: pages
+// per second, bytes per page, the peak memory and the PDF's share of the time.
+func BenchmarkSeasonBundle(b *testing.B) {
+	defer debug.SetGCPercent(debug.SetGCPercent(400))
+	defer debug.SetMemoryLimit(debug.SetMemoryLimit(SoftMemoryLimit))
+	for _, mode := range []string{"", cards.BundleAirfield, cards.BundlePlan} {
+		name := mode
+		if name == "" {
+			name = "none"
+		}
+		b.Run("bundle="+name, func(b *testing.B) {
+			es := seasonEntries(b, 10, 10, true)
+			p := &Prepared{Entries: es, planName: "bench"}
+			if err := p.SetBundle(mode); err != nil {
+				b.Fatal(err)
+			}
+			b.ReportAllocs()
+			runtime.GC()
+			peak := watchPeakMemory()
+			b.ResetTimer()
+			var pages int
+			var size int64
+			var compute, lay, pdf time.Duration
+			for i := 0; i < b.N; i++ {
+				p.Dir = b.TempDir()
+				s := p.Run(context.Background(), Options{Workers: runtime.GOMAXPROCS(0)})
+				if s.Failed() {
+					b.Fatalf("batch failed: %v %v", s.InputErrors, s.Results[0].Err)
+				}
+				files := map[string]bool{}
+				for _, r := range s.Results {
+					if !files[r.Entry.File()] {
+						files[r.Entry.File()] = true
+						pages += r.FilePages
+					}
+					compute += r.Compute
+					lay += r.Layout
+					pdf += r.PDFTime
+				}
+				b.StopTimer()
+				size += folderPDFBytes(b, p.Dir)
+				b.StartTimer()
+			}
+			b.StopTimer()
+			b.ReportMetric(float64(pages)/b.Elapsed().Seconds(), "pages/s")
+			b.ReportMetric(float64(size)/float64(pages), "bytes/page")
+			b.ReportMetric(float64(peak())/(1<<20), "peak-MiB")
+			total := compute + lay + pdf
+			b.ReportMetric(100*float64(compute)/float64(total), "compute-%")
+			b.ReportMetric(100*float64(pdf)/float64(total), "pdf-%")
+		})
+	}
+}
+
 // BenchmarkPDF measures what a PDF costs per document and per page: each iteration
 // writes one document of 1 card page and one of 16 (real demo card models, made
 // beforehand), and the two times give the fixed cost of a document (doc-us) and the

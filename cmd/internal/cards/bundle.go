@@ -19,10 +19,12 @@ const (
 // BundleModes lists the bundle modes.
 func BundleModes() []string { return []string{BundleAirfield, BundlePlan} }
 
-// MaxBundlePages bounds one bundle: its card models and its PDF are held in memory
-// until it is written (about 0.1 MB a page, BenchmarkSeason's bundle runs). A
+// MaxBundlePages bounds one bundle: its card models are held in memory until all
+// are laid out, then its PDF is drawn (they go page by page) and held until it is
+// written: about 0.12 MB a page at the peak (BenchmarkSeasonBundle: 1,000 pages in
+// one bundle peak near 120 MiB, about twice what one PDF per pair needs). A
 // printing run larger than this is split by airfield.
-const MaxBundlePages = 2000
+const MaxBundlePages = 1000
 
 // BundleRendered is a bundle's PDF and what went into it.
 type BundleRendered struct {
@@ -46,7 +48,7 @@ type CardBundle struct {
 }
 
 // RenderBundle writes the laid-out cards of several jobs into one PDF, in the order
-// given, as one job's Render does: takeoff sides each followed by its landing side
+// given (taking their cards: each part's Cards is nil after), as one job's Render does: takeoff sides each followed by its landing side
 // when the cards have one (then every job must have it: a duplex run never holds a
 // one-sided card), two cards a sheet when the jobs have a Sheet. Every job must print
 // on the same page and sheet. Each part's ends get the PDF pages their cards are on.
@@ -67,6 +69,11 @@ func RenderBundle(parts []*Laid, mode, title string, fonts *layout.Fonts) (*Bund
 			return nil, fmt.Errorf("bundle %q: %s at %s prints on another page or sheet than %s at %s", title, j.Aircraft.Name, j.Airfield.Ident, j0.Aircraft.Name, j0.Airfield.Ident)
 		}
 		cs = append(cs, p.Cards...)
+	}
+	cardsOf := make([]int, len(parts))
+	for i, p := range parts {
+		cardsOf[i] = len(p.Cards)
+		p.Cards = nil // the bundle's now: freed page by page as they are drawn (DropDrawn)
 	}
 	if len(cs) > MaxBundlePages {
 		return nil, fmt.Errorf("bundle %q: %d card pages, more than the %d one bundle holds", title, len(cs), MaxBundlePages)
@@ -91,7 +98,7 @@ func RenderBundle(parts []*Laid, mode, title string, fonts *layout.Fonts) (*Bund
 		}
 	}
 	off := 0
-	for _, p := range parts {
+	for pi, p := range parts {
 		ends := append([]EndSummary(nil), p.Ends...)
 		for i := range ends {
 			k := off + p.first[i]
@@ -101,7 +108,7 @@ func RenderBundle(parts []*Laid, mode, title string, fonts *layout.Fonts) (*Bund
 			}
 		}
 		out.Ends = append(out.Ends, ends)
-		off += len(p.Cards)
+		off += cardsOf[pi]
 	}
 	if j0.Data {
 		b := CardBundle{Format: DataFormat, Version: j0.Version, Bundle: mode, Caution: Caution, CardFiles: []CardFile{}}
@@ -124,7 +131,7 @@ func RenderBundle(parts []*Laid, mode, title string, fonts *layout.Fonts) (*Bund
 	t0 := time.Now()
 	var buf bytes.Buffer
 	opt := layout.RenderOptions{Sheet: j0.Sheet, Compress: j0.Compress, Date: j0.Date, Duplex: duplex,
-		Title: "kneeprint cards: " + title, Author: "kneeprint " + j0.Version, Fonts: fonts}
+		Title: "kneeprint cards: " + title, Author: "kneeprint " + j0.Version, Fonts: fonts, DropDrawn: true}
 	if err := layout.RenderPDF(&buf, cs, opt); err != nil {
 		return nil, err
 	}
