@@ -269,13 +269,61 @@ func sourceFrom(dir, src string) string {
 	return filepath.Join(dir, filepath.FromSlash(src))
 }
 
-func entryCard(dir string, e *Entry, r JobResult) IndexCard {
+// indexHashes keeps what the index lines of one run share: the hash of each
+// aircraft and runway end (twenty aircraft at one airfield hash its ends once, not
+// twenty times) and each source as recorded. An index update is serial, after the
+// cards are made.
+type indexHashes struct {
+	aircraft map[*perf.Aircraft]string
+	ends     map[endRef]string
+	sources  map[string]string
+}
+
+// endRef is a runway end of a loaded airfield: designators are unique in a file.
+type endRef struct {
+	f *perf.Airfield
+	d string
+}
+
+func newIndexHashes() *indexHashes {
+	return &indexHashes{aircraft: map[*perf.Aircraft]string{}, ends: map[endRef]string{}, sources: map[string]string{}}
+}
+
+func (h *indexHashes) aircraftKey(a *perf.Aircraft) string {
+	k, ok := h.aircraft[a]
+	if !ok {
+		k = aircraftKey(a)
+		h.aircraft[a] = k
+	}
+	return k
+}
+
+func (h *indexHashes) endHash(f *perf.Airfield, e perf.RunwayEnd) string {
+	r := endRef{f, e.Designator}
+	k, ok := h.ends[r]
+	if !ok {
+		k = cards.EndHash(f, e)
+		h.ends[r] = k
+	}
+	return k
+}
+
+func (h *indexHashes) relSource(dir, src string) string {
+	k, ok := h.sources[src]
+	if !ok {
+		k = relSource(dir, src)
+		h.sources[src] = k
+	}
+	return k
+}
+
+func entryCard(dir string, e *Entry, r JobResult, h *indexHashes) IndexCard {
 	j := e.Job
 	c := IndexCard{
 		File: e.File(), SHA256: r.SHA256, Pages: r.FilePages,
-		Aircraft: Component{relSource(dir, e.AircraftSrc), j.Aircraft.Name, aircraftKey(j.Aircraft)},
-		Airfield: Component{relSource(dir, e.AirfieldSrc), j.Airfield.Ident, ""},
-		Template: Component{relSource(dir, e.TemplateSrc), j.Template.Name, templateKey(j.Template, j.Page)},
+		Aircraft: Component{h.relSource(dir, e.AircraftSrc), j.Aircraft.Name, h.aircraftKey(j.Aircraft)},
+		Airfield: Component{h.relSource(dir, e.AirfieldSrc), j.Airfield.Ident, ""},
+		Template: Component{h.relSource(dir, e.TemplateSrc), j.Template.Name, templateKey(j.Template, j.Page)},
 		Policy:   j.Template.Policy, Unit: j.Template.Unit, Page: j.Page.Name, PageOverride: e.PageOverride,
 		Version: j.Version, Date: j.Date.Format("2006-01-02"), ValidUntil: j.ValidUntil.Format("2006-01-02"),
 	}
@@ -292,7 +340,7 @@ func entryCard(dir string, e *Entry, r JobResult) IndexCard {
 			st[k.String()] = v
 		}
 		ie := IndexEnd{Page: pageID(s), Designator: s.Designator, Fingerprint: s.Fingerprint,
-			EndHash: cards.EndHash(j.Airfield, s.End), End: s.End, States: st, PDFPages: s.PDFPages}
+			EndHash: h.endHash(j.Airfield, s.End), End: s.End, States: st, PDFPages: s.PDFPages}
 		if s.Landing {
 			ie.LandingStates = map[string]int{}
 			for k, v := range s.LandingCounts {
@@ -311,12 +359,13 @@ func (x *rawIndex) update(dir string, entries []*Entry, results []JobResult) err
 	written := false
 	var tooLong []string
 	fresh := map[string][][]byte{}
+	h := newIndexHashes()
 	for i, r := range results {
 		if !r.Written {
 			continue
 		}
 		f := entries[i].File()
-		line, err := json.Marshal(entryCard(dir, entries[i], r))
+		line, err := json.Marshal(entryCard(dir, entries[i], r, h))
 		if err != nil {
 			return err
 		}
