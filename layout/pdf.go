@@ -285,6 +285,9 @@ type pen struct {
 	fill, draw, tx Color
 	line           float64
 	known          struct{ font, fill, draw, tx, line bool }
+	// k and pageH are fpdf's points per millimetre and page height, for the
+	// operators the pen writes itself (show, rect, line).
+	k, pageH float64
 }
 
 func (p *pen) forget() { p.known = struct{ font, fill, draw, tx, line bool }{} }
@@ -307,6 +310,7 @@ func (p *pen) fillColor(c Color) {
 
 func (p *pen) drawColor(c Color) {
 	if !p.known.draw || c != p.draw {
+		p.flush()
 		p.pdf.SetDrawColor(int(c.R), int(c.G), int(c.B))
 		p.draw, p.known.draw = c, true
 	}
@@ -314,6 +318,7 @@ func (p *pen) drawColor(c Color) {
 
 func (p *pen) textColor(c Color) {
 	if !p.known.tx || c != p.tx {
+		p.flush()
 		p.pdf.SetTextColor(int(c.R), int(c.G), int(c.B))
 		p.tx, p.known.tx = c, true
 	}
@@ -321,6 +326,7 @@ func (p *pen) textColor(c Color) {
 
 func (p *pen) lineWidth(w float64) {
 	if !p.known.line || w != p.line {
+		p.flush()
 		p.pdf.SetLineWidth(w)
 		p.line, p.known.line = w, true
 	}
@@ -343,7 +349,35 @@ func (p *pen) show(style FontStyle, x, y float64, s string) {
 	p.text = append(p.text, ") Tj ET\n"...)
 }
 
-// flush writes the collected texts.
+// rect adds a rectangle, filled (op "f") or stroked ("S"), written as fpdf.Rect
+// writes it (the same numbers to the last digit: TestPenWritesAsLibrary) but
+// without a string per number; collected with the texts until flushed.
+func (p *pen) rect(x, y, w, h float64, op string) {
+	p.text = strconv.AppendFloat(p.text, x*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, (p.pageH-y)*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, w*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, -h*p.k, 'f', 2, 64)
+	p.text = append(p.text, " re "...)
+	p.text = append(p.text, op...)
+	p.text = append(p.text, '\n')
+}
+
+// lineTo adds a stroked line, written as fpdf.Line writes it (see rect).
+func (p *pen) lineTo(x1, y1, x2, y2 float64) {
+	p.text = strconv.AppendFloat(p.text, x1*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, (p.pageH-y1)*p.k, 'f', 2, 64)
+	p.text = append(p.text, " m "...)
+	p.text = strconv.AppendFloat(p.text, x2*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, (p.pageH-y2)*p.k, 'f', 2, 64)
+	p.text = append(p.text, " l S\n"...)
+}
+
+// flush writes the collected texts and shapes.
 func (p *pen) flush() {
 	if len(p.text) > 0 {
 		// RawWriteStr ends the line itself.
@@ -357,7 +391,8 @@ func (p *pen) flush() {
 // not once per text: texts never overlap one another, only shapes, which are all
 // drawn before them.
 func (d *doc) drawCard(c *Card, dx, dy float64) {
-	p := &pen{doc: d}
+	p := &pen{doc: d, k: d.pdf.GetConversionRatio()}
+	_, p.pageH = d.pdf.GetPageSize()
 	for _, b := range c.Blocks {
 		for _, s := range b.Shapes {
 			p.shape(s, dx, dy)
@@ -378,8 +413,7 @@ func (d *doc) drawCard(c *Card, dx, dy float64) {
 		}
 		return cmp.Compare(colorKey(a.Color), colorKey(b.Color))
 	})
-	k := d.pdf.GetConversionRatio()
-	_, pageH := d.pdf.GetPageSize()
+	k, pageH := p.k, p.pageH
 	for _, t := range d.texts {
 		p.font(fpdfStyle[t.Style], t.SizePt)
 		x := t.Box.X
@@ -393,6 +427,7 @@ func (d *doc) drawCard(c *Card, dx, dy float64) {
 		base := t.Box.Y + t.Box.H/2 + 0.35*t.SizePt*ptMM
 		if d.cid {
 			p.textColor(t.Color)
+			p.flush()
 			d.pdf.Text(x+dx, base+dy, t.S)
 			continue
 		}
@@ -412,22 +447,24 @@ func (p *pen) shape(s Shape, dx, dy float64) {
 	switch s.Kind {
 	case FillRect:
 		p.fillColor(s.Color)
-		p.pdf.Rect(r.X, r.Y, r.W, r.H, "F")
+		p.rect(r.X, r.Y, r.W, r.H, "f") // fpdf's "F"
 	case StrokeRect:
 		p.drawColor(s.Color)
 		p.lineWidth(s.LineMM)
-		p.pdf.Rect(r.X, r.Y, r.W, r.H, "D")
+		p.rect(r.X, r.Y, r.W, r.H, "S") // fpdf's "D"
 	case Line:
 		p.drawColor(s.Color)
 		p.lineWidth(s.LineMM)
-		p.pdf.Line(r.X, r.Y, r.X+r.W, r.Y+r.H)
+		p.lineTo(r.X, r.Y, r.X+r.W, r.Y+r.H)
 	case Hatch:
 		p.drawColor(s.Color)
 		p.lineWidth(s.LineMM)
+		p.flush()
 		p.pdf.ClipRect(r.X, r.Y, r.W, r.H, false)
 		for off := -r.H; off < r.W; off += s.SpaceMM {
-			p.pdf.Line(r.X+off, r.Y+r.H, r.X+off+r.H, r.Y)
+			p.lineTo(r.X+off, r.Y+r.H, r.X+off+r.H, r.Y)
 		}
+		p.flush()
 		p.pdf.ClipEnd()
 		p.forget() // ClipEnd restores the graphics state saved before the clip
 	}

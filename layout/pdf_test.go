@@ -5,6 +5,7 @@ import (
 	"compress/zlib"
 	"fmt"
 	"io"
+	"math/rand/v2"
 	"os/exec"
 	"strings"
 	"sync"
@@ -282,5 +283,48 @@ func TestDeflateStreamsRefusesBrokenInput(t *testing.T) {
 	} {
 		err := deflateStreams(io.Discard, []byte(in), zlib.BestSpeed)
 		assert.Error(t, err, name)
+	}
+}
+
+// The pen writes rectangles and lines byte for byte as fpdf's Rect and Line do, for
+// any numbers (rounding halves, negatives, large and tiny), on pages of any size: a
+// card drawn either way is the same file.
+func TestPenWritesAsLibrary(t *testing.T) {
+	rnd := rand.New(rand.NewPCG(3, 4))
+	for _, size := range []fpdf.SizeType{{Wd: 148, Ht: 210}, {Wd: 297, Ht: 210}, {Wd: 127, Ht: 203.2}} {
+		var shapes [][4]float64
+		for i := 0; i < 400; i++ {
+			shapes = append(shapes, [4]float64{rnd.Float64()*300 - 20, rnd.Float64()*300 - 20, rnd.Float64()*50 - 5, rnd.Float64()*50 - 5})
+		}
+		shapes = append(shapes, [4]float64{0.005, 0.015, 1e-9, 1e6}, [4]float64{-0.0, 210, 0.125, 0.375})
+		mk := func(draw func(pdf *fpdf.Fpdf)) []byte {
+			pdf := fpdf.NewCustom(&fpdf.InitType{UnitStr: "mm", Size: size})
+			pdf.SetCompression(false)
+			pdf.SetCreationDate(time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC))
+			pdf.SetModificationDate(time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC))
+			pdf.AddPageFormat("P", size)
+			draw(pdf)
+			var buf bytes.Buffer
+			require.NoError(t, pdf.Output(&buf))
+			return buf.Bytes()
+		}
+		want := mk(func(pdf *fpdf.Fpdf) {
+			for _, r := range shapes {
+				pdf.Rect(r[0], r[1], r[2], r[3], "F")
+				pdf.Rect(r[0], r[1], r[2], r[3], "D")
+				pdf.Line(r[0], r[1], r[2], r[3])
+			}
+		})
+		got := mk(func(pdf *fpdf.Fpdf) {
+			p := &pen{doc: &doc{pdf: pdf}, k: pdf.GetConversionRatio()}
+			_, p.pageH = pdf.GetPageSize()
+			for _, r := range shapes {
+				p.rect(r[0], r[1], r[2], r[3], "f")
+				p.rect(r[0], r[1], r[2], r[3], "S")
+				p.lineTo(r[0], r[1], r[2], r[3])
+			}
+			p.flush()
+		})
+		require.Equal(t, string(want), string(got), "page %+v", size)
 	}
 }
