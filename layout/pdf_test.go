@@ -5,8 +5,10 @@ import (
 	"compress/zlib"
 	"fmt"
 	"io"
+	"math"
 	"math/rand/v2"
 	"os/exec"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
@@ -326,5 +328,36 @@ func TestPenWritesAsLibrary(t *testing.T) {
 			p.flush()
 		})
 		require.Equal(t, string(want), string(got), "page %+v", size)
+	}
+}
+
+// Texts are grouped as a stable sort by font, size and colour orders them: random
+// texts in a few styles, sizes and colours (NaN sizes too) over several blocks.
+func TestGroupTextsAsStableSort(t *testing.T) {
+	rnd := rand.New(rand.NewPCG(5, 6))
+	sizes := []float64{8, 9, 12.5, 8.0000001, math.NaN()}
+	colors := []Color{Black, White, Grey, {1, 2, 3}}
+	for round := 0; round < 50; round++ {
+		c := &Card{}
+		for b := 0; b < 1+rnd.IntN(5); b++ {
+			var blk Block
+			for i := 0; i < rnd.IntN(60); i++ {
+				blk.Texts = append(blk.Texts, Text{S: fmt.Sprint(round, b, i), Style: FontStyle(rnd.IntN(2)),
+					SizePt: sizes[rnd.IntN(len(sizes))], Color: colors[rnd.IntN(len(colors))]})
+			}
+			c.Blocks = append(c.Blocks, blk)
+		}
+		var want []*Text
+		for bi := range c.Blocks {
+			for ti := range c.Blocks[bi].Texts {
+				want = append(want, &c.Blocks[bi].Texts[ti])
+			}
+		}
+		slices.SortStableFunc(want, func(a, b *Text) int {
+			return textStyle{a.Style, a.SizePt, colorKey(a.Color)}.cmp(textStyle{b.Style, b.SizePt, colorKey(b.Color)})
+		})
+		d := &doc{}
+		d.groupTexts(c)
+		require.Equal(t, want, d.texts)
 	}
 }
