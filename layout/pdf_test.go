@@ -298,7 +298,7 @@ func TestPenWritesAsLibrary(t *testing.T) {
 		for i := 0; i < 400; i++ {
 			shapes = append(shapes, [4]float64{rnd.Float64()*300 - 20, rnd.Float64()*300 - 20, rnd.Float64()*50 - 5, rnd.Float64()*50 - 5})
 		}
-		shapes = append(shapes, [4]float64{0.005, 0.015, 1e-9, 1e6}, [4]float64{-0.0, 210, 0.125, 0.375})
+		shapes = append(shapes, [4]float64{0.005, 0.015, 1e-9, 1e6}, [4]float64{math.Copysign(0, -1), 210, 0.125, 0.375})
 		mk := func(draw func(pdf *fpdf.Fpdf)) []byte {
 			pdf := fpdf.NewCustom(&fpdf.InitType{UnitStr: "mm", Size: size})
 			pdf.SetCompression(false)
