@@ -3,6 +3,7 @@ package layout
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"kneeprint/perf"
@@ -338,9 +339,14 @@ func surfaceWords(surface string) string {
 	return surface
 }
 
+// fixedNum prints x with prec decimals as fmt's "%.*f" does (strconv's 'f' format,
+// which fmt uses for it: Go fmt documentation), without fmt's machinery: a card
+// prints a few hundred numbers (TestFixedAsFmt).
+func fixedNum(x float64, prec int) string { return strconv.FormatFloat(x, 'f', prec, 64) }
+
 // trimNum prints x with at most prec decimals and no trailing zeros.
 func trimNum(x float64, prec int) string {
-	s := fmt.Sprintf("%.*f", prec, x)
+	s := fixedNum(x, prec)
 	if strings.Contains(s, ".") {
 		s = strings.TrimRight(strings.TrimRight(s, "0"), ".")
 	}
@@ -473,21 +479,21 @@ const climbLabel = "climb %"
 func windLabel(kt float64) string {
 	switch {
 	case kt < -0.05:
-		return fmt.Sprintf("tail %.0f", -kt)
+		return "tail " + fixedNum(-kt, 0)
 	case kt > 0.05:
-		return fmt.Sprintf("head %.0f", kt)
+		return "head " + fixedNum(kt, 0)
 	}
 	return "calm"
 }
 
-func figureText(c CellData) string { return fmt.Sprintf("%.0f", c.Distance) }
+func figureText(c CellData) string { return fixedNum(c.Distance, 0) }
 
 // climbText is column ti's climb gradient as printed, or n/d.
 func climbText(d CardData, ti int) string {
 	if ti >= len(d.HasClimbPct) || !d.HasClimbPct[ti] {
 		return "n/d"
 	}
-	return fmt.Sprintf("%.1f", d.ClimbPct[ti])
+	return fixedNum(d.ClimbPct[ti], 1)
 }
 
 // widestFigure is the widest figure the grid prints (at least four digits, so that
@@ -515,9 +521,9 @@ type gridCols struct {
 	twoLine      bool // the block title row holds two lines: weight over MTOW, temperature over unit
 }
 
-func (b *builder) columns(d CardData, w float64) (gridCols, error) {
+func (b *builder) columns(d CardData, w, widest float64) (gridCols, error) {
 	n := float64(len(d.Temps))
-	minCol := b.widestFigure(d) + 2*cellPadMM
+	minCol := widest + 2*cellPadMM
 	need := b.f.WidthMM("DA ft", MinTextPt, Regular)
 	if len(d.ClimbPct) > 0 {
 		need = math.Max(need, b.f.WidthMM(climbLabel, MinTextPt, Regular))
@@ -552,7 +558,7 @@ func (b *builder) columns(d CardData, w float64) (gridCols, error) {
 }
 
 func weightLabel(blk WeightBlock, unit string) string {
-	return fmt.Sprintf("%.0f %s", blk.Weight, unit)
+	return fixedNum(blk.Weight, 0) + " " + unit
 }
 
 func weightTitle(blk WeightBlock, unit string) string {
@@ -574,7 +580,16 @@ const maxAccelPt = 12
 func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	top := y
 	blk := Block{Name: "grid"}
-	g, err := b.columns(d, w)
+	// The texts and shapes of a grid: per block its title row, wind labels and
+	// cells (a figure, or a mark with its fill, hatch, plate or frame) and rules.
+	nCells := 0
+	for _, wb := range d.Blocks {
+		nCells += len(wb.Cells) * len(d.Temps)
+	}
+	blk.Texts = make([]Text, 0, nCells+len(d.Blocks)*(2*len(d.Temps)+len(d.WindsKt)+2)+2*len(d.Temps)+4)
+	blk.Shapes = make([]Shape, 0, 2*nCells+len(d.Blocks)*(len(d.Temps)+len(d.WindsKt)+5)+4)
+	widest := b.widestFigure(d)
+	g, err := b.columns(d, w, widest)
 	if err != nil {
 		return blk, 0, err
 	}
@@ -612,7 +627,7 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	rowH = math.Min(rowH, maxRowMM)
 	// Figures as large as the row allows inside a tight cell's frame, with white
 	// between ink and frame, and as the column allows; at most 13 pt.
-	numPt := math.Min((rowH-2*cellPadMM)/((inkAboveEm+inkBelowEm)*ptMM), MinNumberPt*(g.colW-2*cellPadMM)/b.widestFigure(d))
+	numPt := math.Min((rowH-2*cellPadMM)/((inkAboveEm+inkBelowEm)*ptMM), MinNumberPt*(g.colW-2*cellPadMM)/widest)
 	numPt = math.Min(numPt, 13)
 	if numPt < MinNumberPt-1e-9 || rowH < MinNumberPt*ptMM {
 		minRow := (inkAboveEm+inkBelowEm)*MinNumberPt*ptMM + 2*cellPadMM
@@ -636,12 +651,12 @@ func (b *builder) grid(d CardData, x, y, w, h float64) (Block, float64, error) {
 	// Density altitude per column at the card's QNH.
 	daPt := math.Max(MinTextPt, math.Min(labPt, numPt*0.85))
 	for _, da := range d.DensityAltFt {
-		daPt = b.fitPt(fmt.Sprintf("%.0f", da), g.colW-2*cellPadMM, daPt, MinTextPt, Regular)
+		daPt = b.fitPt(fixedNum(da, 0), g.colW-2*cellPadMM, daPt, MinTextPt, Regular)
 	}
 	if da > 0 {
 		b.text(&blk, Rect{x + 0.7, y + (rowH-MinTextPt*ptMM)/2, g.labelW - 1.2, MinTextPt * ptMM}, "DA ft", MinTextPt, Regular, Left, Black, Label)
 		for ti, da := range d.DensityAltFt {
-			b.text(&blk, Rect{colX(ti), y + (rowH-daPt*ptMM)/2, g.colW, daPt * ptMM}, fmt.Sprintf("%.0f", da), daPt, Regular, Center, Black, Label)
+			b.text(&blk, Rect{colX(ti), y + (rowH-daPt*ptMM)/2, g.colW, daPt * ptMM}, fixedNum(da, 0), daPt, Regular, Center, Black, Label)
 		}
 		blk.Shapes = append(blk.Shapes, Shape{Kind: StrokeRect, Box: Rect{x, y, w, rowH}, Color: Grey, LineMM: 0.15})
 		y += rowH
@@ -825,13 +840,13 @@ func (b *builder) crosswind(blk *Block, d CardData, x, y, w float64) float64 {
 	pt := MinNumberPt
 	b.text(blk, Rect{x + 0.6, y + (rowH-MinTextPt*ptMM)/2, labW - 1, MinTextPt * ptMM}, "angle", MinTextPt, Regular, Left, Black, Label)
 	for ai, ang := range ch.AnglesDeg {
-		s := fmt.Sprintf("%.0f°", ang)
+		s := fixedNum(ang, 0) + "°"
 		b.text(blk, Rect{x + labW + float64(ai)*colW, y + (rowH-pt*ptMM)/2, colW, pt * ptMM}, s, pt, Bold, Center, Black, Number)
 	}
 	demonstrated, limited := false, false
 	for si, sp := range ch.SpeedsKt {
 		ry := y + float64(si+1)*rowH
-		s := fmt.Sprintf("%.0f kt", sp)
+		s := fixedNum(sp, 0) + " kt"
 		b.text(blk, Rect{x + 0.6, ry + (rowH-pt*ptMM)/2, labW - 1, pt * ptMM}, s, pt, Regular, Left, Black, Number)
 		for ai := range ch.AnglesDeg {
 			v := ch.Kt[si][ai]
@@ -850,7 +865,7 @@ func (b *builder) crosswind(blk *Block, d CardData, x, y, w float64) float64 {
 				font = Bold
 				demonstrated = true
 			}
-			b.text(blk, Rect{r.X, r.Y + (rowH-pt*ptMM)/2, r.W, pt * ptMM}, fmt.Sprintf("%.0f", v), pt, font, Center, col, Number)
+			b.text(blk, Rect{r.X, r.Y + (rowH-pt*ptMM)/2, r.W, pt * ptMM}, fixedNum(v, 0), pt, font, Center, col, Number)
 		}
 	}
 	for ai := 0; ai <= len(ch.AnglesDeg); ai++ {

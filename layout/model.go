@@ -6,7 +6,6 @@ package layout
 import (
 	"fmt"
 	"math"
-	"strings"
 )
 
 // Rect is a box in millimetres from the top-left corner of the card.
@@ -156,7 +155,7 @@ func (t Text) Ink() Rect {
 	}
 	em := t.SizePt * ptMM
 	below := inkBelowEm
-	if strings.ContainsAny(t.S, "gjpqy(),;[]{}|") {
+	if descends(t.S) {
 		below = inkDescendEm
 	}
 	base := t.Baseline()
@@ -182,6 +181,18 @@ func (s Shape) appendStrokes(out []Rect) []Rect {
 	return out
 }
 
+// descends reports whether s has a character reaching below the baseline (as
+// strings.ContainsAny(s, "gjpqy(),;[]{}|"), byte by byte: all are ASCII).
+func descends(s string) bool {
+	for i := 0; i < len(s); i++ {
+		switch s[i] {
+		case 'g', 'j', 'p', 'q', 'y', '(', ')', ',', ';', '[', ']', '{', '}', '|':
+			return true
+		}
+	}
+	return false
+}
+
 func grow(r Rect, d float64) Rect { return Rect{r.X - d, r.Y - d, r.W + 2*d, r.H + 2*d} }
 
 // Check runs the layout checks: every block inside the page, no two blocks
@@ -191,11 +202,13 @@ func (c *Card) Check() []Problem {
 	var out []Problem
 	page := Rect{0, 0, c.Page.WidthMM, c.Page.HeightMM}
 	var strokes []Rect
+	var idx strokeIndex
 	for i, b := range c.Blocks {
 		strokes = strokes[:0]
 		for _, s := range b.Shapes {
 			strokes = s.appendStrokes(strokes)
 		}
+		idx.reset(strokes)
 		if !b.Box.Inside(page) {
 			out = append(out, Problem{b.Name, fmt.Sprintf("block %+v leaves the page %+v", b.Box, page)})
 		}
@@ -232,16 +245,120 @@ func (c *Card) Check() []Problem {
 			if t.SizePt*ptMM > t.Box.H+1e-6 {
 				out = append(out, Problem{b.Name, fmt.Sprintf("text %q at %.1f pt is taller than its %.1f mm box", t.S, t.SizePt, t.Box.H)})
 			}
-			ink := grow(t.Ink(), lineClearMM)
-			for _, st := range strokes {
-				if ink.Overlaps(st) {
-					out = append(out, Problem{b.Name, fmt.Sprintf("text %q touches a line at %+v", t.S, st)})
-					break
-				}
+			if si := idx.first(grow(t.Ink(), lineClearMM)); si >= 0 {
+				out = append(out, Problem{b.Name, fmt.Sprintf("text %q touches a line at %+v", t.S, strokes[si])})
 			}
 		}
 	}
 	return out
+}
+
+// strokeIndex finds the first of a block's strokes a text's ink touches without
+// trying every stroke: a grid block has a few hundred texts and as many strokes. The
+// strokes are filed in the cells of a coarse grid over the block by the area they
+// span; a text is tried against the strokes of the cells it spans, and the first in
+// the block's order that it overlaps is the one a scan of all of them finds
+// (firstTouching, TestStrokeIndexAsScan).
+type strokeIndex struct {
+	strokes []Rect
+	x0, y0  float64 // the grid's corner
+	cw, ch  float64 // a cell's width and height
+	side    int     // cells per row and per column; 0: no index, scan
+	// The strokes of cell c are items[start[c]:start[c+1]], in the block's order.
+	start, items []int32
+	next         []int32 // where the next stroke of each cell goes, while filing
+}
+
+func (x *strokeIndex) reset(strokes []Rect) {
+	x.strokes, x.side = strokes, 0
+	if len(strokes) < 16 {
+		return // a scan is as quick
+	}
+	x0, y0, x1, y1 := math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)
+	for _, r := range strokes {
+		x0, y0 = math.Min(x0, r.X), math.Min(y0, r.Y)
+		x1, y1 = math.Max(x1, r.X+r.W), math.Max(y1, r.Y+r.H)
+	}
+	// About as many cells as strokes: a grid's rules are long and thin, each
+	// crosses a row or a column of cells.
+	side := int(math.Ceil(math.Sqrt(float64(len(strokes)))))
+	cw, ch := (x1-x0)/float64(side), (y1-y0)/float64(side)
+	if !(cw > 0 && ch > 0) || math.IsInf(cw, 0) || math.IsInf(ch, 0) {
+		return // not finite, or all on one line: scan
+	}
+	x.x0, x.y0, x.cw, x.ch, x.side = x0, y0, cw, ch, side
+	n := side * side
+	// Count the strokes of each cell, then file them: cell c's from start[c].
+	x.start = append(x.start[:0], make([]int32, n+1)...)
+	x.each(func(c, _ int) { x.start[c+1]++ })
+	for c := 0; c < n; c++ {
+		x.start[c+1] += x.start[c]
+	}
+	x.next = append(x.next[:0], x.start[:n]...)
+	x.items = append(x.items[:0], make([]int32, x.start[n])...)
+	x.each(func(c, i int) {
+		x.items[x.next[c]] = int32(i)
+		x.next[c]++
+	})
+}
+
+// each calls f for every cell c that stroke i reaches into, strokes in order.
+func (x *strokeIndex) each(f func(c, i int)) {
+	for i, r := range x.strokes {
+		ix0, ix1 := x.col(r.X), x.col(r.X+r.W)
+		for iy, iy1 := x.row(r.Y), x.row(r.Y+r.H); iy <= iy1; iy++ {
+			for ix := ix0; ix <= ix1; ix++ {
+				f(ix+iy*x.side, i)
+			}
+		}
+	}
+}
+
+// col and row are the cell column and row holding v, clamped to the grid.
+func (x *strokeIndex) col(v float64) int { return cellOf(v, x.x0, x.cw, x.side) }
+func (x *strokeIndex) row(v float64) int { return cellOf(v, x.y0, x.ch, x.side) }
+
+// cellOf is the index of the cell of size d from v0 holding v, clamped to the n cells.
+func cellOf(v, v0, d float64, n int) int {
+	f := (v - v0) / d
+	switch {
+	case !(f > 0):
+		return 0
+	case f >= float64(n-1):
+		return n - 1
+	}
+	return int(f)
+}
+
+// first is the index of the first stroke ink overlaps, or -1.
+func (x *strokeIndex) first(ink Rect) int {
+	if x.side == 0 {
+		return firstTouching(ink, x.strokes)
+	}
+	const slack = 1e-3 // wider than Overlaps' tolerance: a cell at the edge is tried too
+	best := -1
+	ix0, ix1 := x.col(ink.X-slack), x.col(ink.X+ink.W+slack)
+	for iy, iy1 := x.row(ink.Y-slack), x.row(ink.Y+ink.H+slack); iy <= iy1; iy++ {
+		for ix := ix0; ix <= ix1; ix++ {
+			c := ix + iy*x.side
+			for _, i := range x.items[x.start[c]:x.start[c+1]] {
+				if (best < 0 || int(i) < best) && ink.Overlaps(x.strokes[i]) {
+					best = int(i)
+				}
+			}
+		}
+	}
+	return best
+}
+
+// firstTouching is the index of the first of strokes that ink overlaps, or -1.
+func firstTouching(ink Rect, strokes []Rect) int {
+	for i, st := range strokes {
+		if ink.Overlaps(st) {
+			return i
+		}
+	}
+	return -1
 }
 
 // ptMM is one typographic point in millimetres (1/72 inch).

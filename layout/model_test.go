@@ -1,6 +1,9 @@
 package layout
 
 import (
+	"fmt"
+	"math"
+	"math/rand/v2"
 	"strings"
 	"testing"
 
@@ -135,4 +138,50 @@ func TestWrapKeepsItemsWhole(t *testing.T) {
 	lines := b.wrap("add "+Keep("4 °C")+" to the OAT", f.WidthMM("add 4 °", 8, Regular), 8, Regular)
 	require.Greater(t, len(lines), 2)
 	assert.Contains(t, strings.Join(lines, "\n"), Keep("4 °C"), "the figure stays with its unit")
+}
+
+// Numbers print as fmt's "%.*f" prints them (the Go fmt documentation: %f is
+// strconv's 'f' format): halves, negatives, negative zero, large, tiny, not finite.
+func TestFixedAsFmt(t *testing.T) {
+	for _, x := range []float64{0, math.Copysign(0, -1), -0.4, 0.5, 1.5, 2.5, 12.345, -7.65, 1234.5, 99999.99, 1e21, 3e-9,
+		math.Inf(1), math.Inf(-1), math.NaN()} {
+		for _, prec := range []int{0, 1, 2} {
+			assert.Equal(t, fmt.Sprintf("%.*f", prec, x), fixedNum(x, prec), "%v %d", x, prec)
+		}
+	}
+}
+
+// The stroke index finds the stroke a scan of all of them finds first, for any ink:
+// a grid's rules and cell frames (and a block with too few strokes to index, one
+// with a stroke not finite), against inks all over and around the block, tiny, huge,
+// on the rules and not finite. A property of the index (common practice: an index
+// must answer as the scan it replaces).
+func TestStrokeIndexAsScan(t *testing.T) {
+	var grid []Rect
+	for i := 0; i <= 8; i++ {
+		grid = Shape{Kind: Line, Box: Rect{20 + float64(i)*12, 10, 0, 70}, LineMM: 0.15}.appendStrokes(grid)
+	}
+	for j := 0; j <= 7; j++ {
+		grid = Shape{Kind: Line, Box: Rect{20, 10 + float64(j)*10, 96, 0}, LineMM: 0.15}.appendStrokes(grid)
+	}
+	for k := 0; k < 20; k++ {
+		x, y := 20+float64(k%8)*12, 10+float64(k%7)*10
+		grid = Shape{Kind: StrokeRect, Box: Rect{x + 0.6, y + 0.6, 10.8, 8.8}, LineMM: 0.55}.appendStrokes(grid)
+	}
+	nan := append(append([]Rect(nil), grid...), Rect{math.NaN(), 5, 1, 1})
+	rnd := rand.New(rand.NewPCG(1, 2))
+	for _, strokes := range [][]Rect{grid, grid[:5], nan} {
+		var idx strokeIndex
+		idx.reset(strokes)
+		inks := []Rect{{math.NaN(), 0, 1, 1}, {0, math.Inf(-1), 1, math.Inf(1)}, {-1e9, -1e9, 2e9, 2e9}, {0, 0, 0, 0}}
+		for _, s := range strokes {
+			inks = append(inks, Rect{s.X - 0.3, s.Y - 0.3, 0.6, 0.6}, Rect{s.X + s.W, s.Y + s.H, 0.1, 0.1})
+		}
+		for i := 0; i < 5000; i++ {
+			inks = append(inks, Rect{rnd.Float64()*140 - 10, rnd.Float64()*100 - 10, rnd.Float64() * 15, rnd.Float64() * 6})
+		}
+		for _, ink := range inks {
+			require.Equal(t, firstTouching(ink, strokes), idx.first(ink), "ink %+v", ink)
+		}
+	}
 }

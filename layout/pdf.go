@@ -33,6 +33,9 @@ type RenderOptions struct {
 	// Duplex says the cards come in front/back pairs (takeoff side, landing side):
 	// on 2-up sheets the backs are then imposed mirrored (Impose).
 	Duplex bool
+	// DropDrawn lets RenderPDF set each element of its cards to nil once the card
+	// is drawn, so that a long document's card models go as its pages are made.
+	DropDrawn bool
 }
 
 const fontFamily = "go"
@@ -92,10 +95,13 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 		return err
 	}
 	if opt.Sheet == nil {
-		for _, c := range cards {
+		for i, c := range cards {
 			pdf.AddPageFormat("P", size)
 			d.bookmark(c.Title)
 			d.drawCard(c, 0, 0)
+			if opt.DropDrawn {
+				cards[i] = nil
+			}
 		}
 	} else {
 		s := *opt.Sheet
@@ -108,6 +114,9 @@ func RenderPDF(w io.Writer, cards []*Card, opt RenderOptions) error {
 				}
 				d.bookmark(cards[ci].Title)
 				d.drawCard(cards[ci], offX+float64(j)*p.WidthMM, offY)
+				if opt.DropDrawn {
+					cards[ci] = nil
+				}
 			}
 			cutMarks(pdf, s, p, offX, offY)
 		}
@@ -134,8 +143,13 @@ var buffers = sync.Pool{New: func() any { return new(bytes.Buffer) }}
 
 func getBuffer() *bytes.Buffer { return buffers.Get().(*bytes.Buffer) }
 
+// maxPooledBuffer bounds the buffers kept for reuse: a card file is tens of
+// kilobytes, a bundle (cards --bundle) megabytes; a bundle's buffers kept for the
+// next bundle save growing them again, page by page.
+const maxPooledBuffer = 64 << 20
+
 func putBuffer(b *bytes.Buffer) {
-	if b.Cap() <= 4<<20 {
+	if b.Cap() <= maxPooledBuffer {
 		b.Reset()
 		buffers.Put(b)
 	}
@@ -148,6 +162,10 @@ type doc struct {
 	cid   bool         // CID fonts (fpdf's UTF-8 fonts): text goes through fpdf.Text
 	text  []byte       // text operators not yet written, see pen.show
 	texts []*Text      // a card's texts in drawing order, see drawCard
+	// styles and rank: the distinct styles of a card's texts and each text's
+	// (groupTexts).
+	styles []textStyle
+	rank   []int
 }
 
 // addFonts adds both styles as simple fonts for the characters the cards use, or
@@ -271,6 +289,9 @@ type pen struct {
 	fill, draw, tx Color
 	line           float64
 	known          struct{ font, fill, draw, tx, line bool }
+	// k and pageH are fpdf's points per millimetre and page height, for the
+	// operators the pen writes itself (show, rect, line).
+	k, pageH float64
 }
 
 func (p *pen) forget() { p.known = struct{ font, fill, draw, tx, line bool }{} }
@@ -293,6 +314,7 @@ func (p *pen) fillColor(c Color) {
 
 func (p *pen) drawColor(c Color) {
 	if !p.known.draw || c != p.draw {
+		p.flush()
 		p.pdf.SetDrawColor(int(c.R), int(c.G), int(c.B))
 		p.draw, p.known.draw = c, true
 	}
@@ -300,6 +322,7 @@ func (p *pen) drawColor(c Color) {
 
 func (p *pen) textColor(c Color) {
 	if !p.known.tx || c != p.tx {
+		p.flush()
 		p.pdf.SetTextColor(int(c.R), int(c.G), int(c.B))
 		p.tx, p.known.tx = c, true
 	}
@@ -307,6 +330,7 @@ func (p *pen) textColor(c Color) {
 
 func (p *pen) lineWidth(w float64) {
 	if !p.known.line || w != p.line {
+		p.flush()
 		p.pdf.SetLineWidth(w)
 		p.line, p.known.line = w, true
 	}
@@ -329,7 +353,35 @@ func (p *pen) show(style FontStyle, x, y float64, s string) {
 	p.text = append(p.text, ") Tj ET\n"...)
 }
 
-// flush writes the collected texts.
+// rect adds a rectangle, filled (op "f") or stroked ("S"), written as fpdf.Rect
+// writes it (the same numbers to the last digit: TestPenWritesAsLibrary) but
+// without a string per number; collected with the texts until flushed.
+func (p *pen) rect(x, y, w, h float64, op string) {
+	p.text = strconv.AppendFloat(p.text, x*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, (p.pageH-y)*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, w*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, -h*p.k, 'f', 2, 64)
+	p.text = append(p.text, " re "...)
+	p.text = append(p.text, op...)
+	p.text = append(p.text, '\n')
+}
+
+// lineTo adds a stroked line, written as fpdf.Line writes it (see rect).
+func (p *pen) lineTo(x1, y1, x2, y2 float64) {
+	p.text = strconv.AppendFloat(p.text, x1*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, (p.pageH-y1)*p.k, 'f', 2, 64)
+	p.text = append(p.text, " m "...)
+	p.text = strconv.AppendFloat(p.text, x2*p.k, 'f', 2, 64)
+	p.text = append(p.text, ' ')
+	p.text = strconv.AppendFloat(p.text, (p.pageH-y2)*p.k, 'f', 2, 64)
+	p.text = append(p.text, " l S\n"...)
+}
+
+// flush writes the collected texts and shapes.
 func (p *pen) flush() {
 	if len(p.text) > 0 {
 		// RawWriteStr ends the line itself.
@@ -343,29 +395,15 @@ func (p *pen) flush() {
 // not once per text: texts never overlap one another, only shapes, which are all
 // drawn before them.
 func (d *doc) drawCard(c *Card, dx, dy float64) {
-	p := &pen{doc: d}
+	p := &pen{doc: d, k: d.pdf.GetConversionRatio()}
+	_, p.pageH = d.pdf.GetPageSize()
 	for _, b := range c.Blocks {
 		for _, s := range b.Shapes {
 			p.shape(s, dx, dy)
 		}
 	}
-	d.texts = d.texts[:0]
-	for bi := range c.Blocks {
-		for ti := range c.Blocks[bi].Texts {
-			d.texts = append(d.texts, &c.Blocks[bi].Texts[ti])
-		}
-	}
-	slices.SortStableFunc(d.texts, func(a, b *Text) int {
-		if a.Style != b.Style {
-			return cmp.Compare(a.Style, b.Style)
-		}
-		if a.SizePt != b.SizePt {
-			return cmp.Compare(a.SizePt, b.SizePt)
-		}
-		return cmp.Compare(colorKey(a.Color), colorKey(b.Color))
-	})
-	k := d.pdf.GetConversionRatio()
-	_, pageH := d.pdf.GetPageSize()
+	d.groupTexts(c)
+	k, pageH := p.k, p.pageH
 	for _, t := range d.texts {
 		p.font(fpdfStyle[t.Style], t.SizePt)
 		x := t.Box.X
@@ -379,6 +417,7 @@ func (d *doc) drawCard(c *Card, dx, dy float64) {
 		base := t.Box.Y + t.Box.H/2 + 0.35*t.SizePt*ptMM
 		if d.cid {
 			p.textColor(t.Color)
+			p.flush()
 			d.pdf.Text(x+dx, base+dy, t.S)
 			continue
 		}
@@ -391,6 +430,71 @@ func (d *doc) drawCard(c *Card, dx, dy float64) {
 
 func colorKey(c Color) int { return int(c.R)<<16 | int(c.G)<<8 | int(c.B) }
 
+// textStyle is what texts are grouped by: font, size and colour.
+type textStyle struct {
+	style FontStyle
+	size  float64
+	color int
+}
+
+func (a textStyle) cmp(b textStyle) int {
+	if a.style != b.style {
+		return cmp.Compare(a.style, b.style)
+	}
+	if a.size != b.size {
+		return cmp.Compare(a.size, b.size)
+	}
+	return cmp.Compare(a.color, b.color)
+}
+
+// groupTexts puts card c's texts into d.texts grouped by font, then size, then
+// colour, in drawing order within a group: the order a stable sort by the three
+// gives (TestGroupTextsAsStableSort), made by counting: a card has hundreds of
+// texts in a dozen styles.
+func (d *doc) groupTexts(c *Card) {
+	d.styles = d.styles[:0]
+	d.rank = d.rank[:0]
+	for bi := range c.Blocks {
+		for ti := range c.Blocks[bi].Texts {
+			t := &c.Blocks[bi].Texts[ti]
+			st := textStyle{t.Style, t.SizePt, colorKey(t.Color)}
+			i := slices.Index(d.styles, st)
+			if i < 0 {
+				i = len(d.styles)
+				d.styles = append(d.styles, st)
+			}
+			d.rank = append(d.rank, i)
+		}
+	}
+	// Order the styles, then count each one's texts to find where its group starts.
+	order := make([]int, len(d.styles))
+	for i := range order {
+		order[i] = i
+	}
+	slices.SortStableFunc(order, func(a, b int) int { return d.styles[a].cmp(d.styles[b]) })
+	start := make([]int, len(d.styles)+1)
+	pos := make([]int, len(d.styles)) // position of each style in the order
+	for at, si := range order {
+		pos[si] = at
+	}
+	for _, r := range d.rank {
+		start[pos[r]+1]++
+	}
+	for i := 1; i < len(start); i++ {
+		start[i] += start[i-1]
+	}
+	d.texts = append(d.texts[:0], make([]*Text, len(d.rank))...)
+	n := 0
+	for bi := range c.Blocks {
+		for ti := range c.Blocks[bi].Texts {
+			g := pos[d.rank[n]]
+			d.texts[start[g]] = &c.Blocks[bi].Texts[ti]
+			start[g]++
+			n++
+		}
+	}
+}
+
 func (p *pen) shape(s Shape, dx, dy float64) {
 	r := s.Box
 	r.X += dx
@@ -398,22 +502,24 @@ func (p *pen) shape(s Shape, dx, dy float64) {
 	switch s.Kind {
 	case FillRect:
 		p.fillColor(s.Color)
-		p.pdf.Rect(r.X, r.Y, r.W, r.H, "F")
+		p.rect(r.X, r.Y, r.W, r.H, "f") // fpdf's "F"
 	case StrokeRect:
 		p.drawColor(s.Color)
 		p.lineWidth(s.LineMM)
-		p.pdf.Rect(r.X, r.Y, r.W, r.H, "D")
+		p.rect(r.X, r.Y, r.W, r.H, "S") // fpdf's "D"
 	case Line:
 		p.drawColor(s.Color)
 		p.lineWidth(s.LineMM)
-		p.pdf.Line(r.X, r.Y, r.X+r.W, r.Y+r.H)
+		p.lineTo(r.X, r.Y, r.X+r.W, r.Y+r.H)
 	case Hatch:
 		p.drawColor(s.Color)
 		p.lineWidth(s.LineMM)
+		p.flush()
 		p.pdf.ClipRect(r.X, r.Y, r.W, r.H, false)
 		for off := -r.H; off < r.W; off += s.SpaceMM {
-			p.pdf.Line(r.X+off, r.Y+r.H, r.X+off+r.H, r.Y)
+			p.lineTo(r.X+off, r.Y+r.H, r.X+off+r.H, r.Y)
 		}
+		p.flush()
 		p.pdf.ClipEnd()
 		p.forget() // ClipEnd restores the graphics state saved before the clip
 	}

@@ -5,7 +5,10 @@ import (
 	"compress/zlib"
 	"fmt"
 	"io"
+	"math"
+	"math/rand/v2"
 	"os/exec"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
@@ -282,5 +285,79 @@ func TestDeflateStreamsRefusesBrokenInput(t *testing.T) {
 	} {
 		err := deflateStreams(io.Discard, []byte(in), zlib.BestSpeed)
 		assert.Error(t, err, name)
+	}
+}
+
+// The pen writes rectangles and lines byte for byte as fpdf's Rect and Line do, for
+// any numbers (rounding halves, negatives, large and tiny), on pages of any size: a
+// card drawn either way is the same file.
+func TestPenWritesAsLibrary(t *testing.T) {
+	rnd := rand.New(rand.NewPCG(3, 4))
+	for _, size := range []fpdf.SizeType{{Wd: 148, Ht: 210}, {Wd: 297, Ht: 210}, {Wd: 127, Ht: 203.2}} {
+		var shapes [][4]float64
+		for i := 0; i < 400; i++ {
+			shapes = append(shapes, [4]float64{rnd.Float64()*300 - 20, rnd.Float64()*300 - 20, rnd.Float64()*50 - 5, rnd.Float64()*50 - 5})
+		}
+		shapes = append(shapes, [4]float64{0.005, 0.015, 1e-9, 1e6}, [4]float64{math.Copysign(0, -1), 210, 0.125, 0.375})
+		mk := func(draw func(pdf *fpdf.Fpdf)) []byte {
+			pdf := fpdf.NewCustom(&fpdf.InitType{UnitStr: "mm", Size: size})
+			pdf.SetCompression(false)
+			pdf.SetCreationDate(time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC))
+			pdf.SetModificationDate(time.Date(2027, 3, 1, 0, 0, 0, 0, time.UTC))
+			pdf.AddPageFormat("P", size)
+			draw(pdf)
+			var buf bytes.Buffer
+			require.NoError(t, pdf.Output(&buf))
+			return buf.Bytes()
+		}
+		want := mk(func(pdf *fpdf.Fpdf) {
+			for _, r := range shapes {
+				pdf.Rect(r[0], r[1], r[2], r[3], "F")
+				pdf.Rect(r[0], r[1], r[2], r[3], "D")
+				pdf.Line(r[0], r[1], r[2], r[3])
+			}
+		})
+		got := mk(func(pdf *fpdf.Fpdf) {
+			p := &pen{doc: &doc{pdf: pdf}, k: pdf.GetConversionRatio()}
+			_, p.pageH = pdf.GetPageSize()
+			for _, r := range shapes {
+				p.rect(r[0], r[1], r[2], r[3], "f")
+				p.rect(r[0], r[1], r[2], r[3], "S")
+				p.lineTo(r[0], r[1], r[2], r[3])
+			}
+			p.flush()
+		})
+		require.Equal(t, string(want), string(got), "page %+v", size)
+	}
+}
+
+// Texts are grouped as a stable sort by font, size and colour orders them: random
+// texts in a few styles, sizes and colours (NaN sizes too) over several blocks.
+func TestGroupTextsAsStableSort(t *testing.T) {
+	rnd := rand.New(rand.NewPCG(5, 6))
+	sizes := []float64{8, 9, 12.5, 8.0000001, math.NaN()}
+	colors := []Color{Black, White, Grey, {1, 2, 3}}
+	for round := 0; round < 50; round++ {
+		c := &Card{}
+		for b := 0; b < 1+rnd.IntN(5); b++ {
+			var blk Block
+			for i := 0; i < rnd.IntN(60); i++ {
+				blk.Texts = append(blk.Texts, Text{S: fmt.Sprint(round, b, i), Style: FontStyle(rnd.IntN(2)),
+					SizePt: sizes[rnd.IntN(len(sizes))], Color: colors[rnd.IntN(len(colors))]})
+			}
+			c.Blocks = append(c.Blocks, blk)
+		}
+		var want []*Text
+		for bi := range c.Blocks {
+			for ti := range c.Blocks[bi].Texts {
+				want = append(want, &c.Blocks[bi].Texts[ti])
+			}
+		}
+		slices.SortStableFunc(want, func(a, b *Text) int {
+			return textStyle{a.Style, a.SizePt, colorKey(a.Color)}.cmp(textStyle{b.Style, b.SizePt, colorKey(b.Color)})
+		})
+		d := &doc{}
+		d.groupTexts(c)
+		require.Equal(t, want, d.texts)
 	}
 }

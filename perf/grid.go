@@ -232,8 +232,33 @@ func (c *Cell) worsen(s State, r reason) {
 // On a wet unpaved runway the requirement is never below the dry one (common
 // practice: water never shortens a takeoff on grass or gravel, whatever the notes).
 func Evaluate(k Case) Cell {
+	var c Cell
+	x := cellCtx{er: k.Policy.forEnd(k.End)}
+	x.evaluate(&k, &c)
+	return c
+}
+
+// cellCtx is what the cells of one grid share: the policy worked out for the runway
+// end (er) and for its dry twin, which a wet unpaved cell is compared with (dry,
+// worked out when first needed), and the arena the cells' slices are cut from (nil:
+// each allocated on its own).
+type cellCtx struct {
+	er, dry *endRules
+	a       *arena
+}
+
+// evaluate is Evaluate writing into c, which it overwrites whole.
+func (x *cellCtx) evaluate(k *Case, c *Cell) {
+	x.evaluateCell(k, c)
+	if len(c.reasons) == 0 {
+		c.reasons = nil // as a cell without reasons always was
+	}
+}
+
+func (x *cellCtx) evaluateCell(k *Case, c *Cell) {
 	a := k.Aircraft
-	c := Cell{TempK: k.TempK, HeadwindMS: k.Wind.HeadwindMS, CrosswindMS: math.Abs(k.Wind.GustCrosswindMS), MassKg: k.MassKg}
+	*c = Cell{TempK: k.TempK, HeadwindMS: k.Wind.HeadwindMS, CrosswindMS: math.Abs(k.Wind.GustCrosswindMS), MassKg: k.MassKg,
+		reasons: x.a.reasons(3)}
 	if k.MassKg > a.MTOWKg+1e-9 {
 		c.worsen(BeyondLimits, reason{kind: reasonMTOW, a: k.MassKg, b: a.MTOWKg})
 	}
@@ -255,7 +280,7 @@ func Evaluate(k Case) Cell {
 
 	if err := k.Policy.CheckSlope(k.End.SlopePct); err != nil { // no published correction
 		c.worsen(NoData, reason{s: err.Error()})
-		return c
+		return
 	}
 	// The manual's climb counts on every cell, obstacles or not: where its rate gives
 	// no climb (a still-air gradient under minClimbGradient, the physics model's own
@@ -265,7 +290,7 @@ func Evaluate(k Case) Cell {
 	if climbInside && grad < minClimbGradient {
 		c.CannotTakeOff = true
 		c.worsen(NoGo, reason{kind: reasonNoClimb, a: rate, b: grad, c: k.PressureAltM, d: k.TempK, unit: strconv.FormatFloat(math.Round(a.Climb.SpeedIASMS/knot), 'f', -1, 64)})
-		return c
+		return
 	}
 	c.CreditedWindMS = CreditedWindMS(along, WindFactoringIncluded(k.Model))
 	cond := Conditions{
@@ -273,14 +298,19 @@ func Evaluate(k Case) Cell {
 		HeadwindMS: c.CreditedWindMS, SlopePct: k.End.SlopePct,
 		Surface: k.End.Surface, Condition: k.End.Condition,
 	}
-	actual, req, err := takeoff(k, cond)
+	req := &c.Requirement
+	actual, err := x.takeoff(k, x.er, k.End, cond, req)
 	if err == nil && cond.Surface != Paved && cond.Condition == Wet {
 		dryCond := cond
 		dryCond.Condition = Dry
-		dryEnd := k
-		dryEnd.End.Condition = Dry
-		if _, dry, derr := takeoff(dryEnd, dryCond); derr == nil && dry.FactoredTODM > req.FactoredTODM {
-			req = dry
+		dryEnd := k.End
+		dryEnd.Condition = Dry
+		if x.dry == nil {
+			x.dry = k.Policy.forEnd(dryEnd)
+		}
+		var dry Requirement
+		if _, derr := x.takeoff(k, x.dry, dryEnd, dryCond, &dry); derr == nil && dry.FactoredTODM > req.FactoredTODM {
+			*req = dry
 			c.reasons = append(c.reasons, reason{s: "wet figure raised to the dry one: wet is never shorter than dry"})
 		}
 	}
@@ -292,14 +322,14 @@ func Evaluate(k Case) Cell {
 		default: // ErrNoData, and anything unexpected: never a figure
 			c.worsen(NoData, reason{s: err.Error()})
 		}
-		return c
+		*req = Requirement{}
+		return
 	}
 	c.GroundRollM, c.To50ftM, c.AccelCheckM, c.LiftoffTASMS = actual.GroundRollM, actual.To50ftM, actual.AccelCheckM, actual.LiftoffTASMS
 	c.Covers = actual.Covers
 	for _, n := range actual.Notes {
 		c.reasons = append(c.reasons, reason{s: n})
 	}
-	c.Requirement = req
 	c.RequiredM, c.AvailableM, c.Limiting = req.Limiting.RequiredM, req.Limiting.AvailableM, req.Limiting.Declared
 	c.HasDistance = true
 	// The verdict follows the printed figures: required rounded up, available down.
@@ -317,9 +347,8 @@ func Evaluate(k Case) Cell {
 		c.reasons = append(c.reasons, reason{kind: reasonClimbOutside, a: k.PressureAltM, b: k.TempK, c: k.MassKg})
 	}
 	if len(k.End.Obstacles) > 0 {
-		c.obstacles(k, req.FactoredTODM, along)
+		c.obstacles(*k, req.FactoredTODM, along)
 	}
-	return c
 }
 
 // obstacles is the obstacle check of a cell with a takeoff figure (issue 12): the
@@ -403,26 +432,27 @@ func (c *Cell) ObstacleReasons() []string {
 const obstacleReasonPrefix = "obstacle clearance: "
 
 // takeoff asks the model for conditions cond (and, when the model covers surface or
-// slope, for the paved, dry, level reference) and applies the policy. A model's
-// contract is a positive, finite distance: any other answer is no data, never a
-// printed figure.
-func takeoff(k Case, cond Conditions) (Result, Requirement, error) {
+// slope, for the paved, dry, level reference) and applies the policy worked out for
+// runway end e (er), writing the requirement into req. A model's contract is a
+// positive, finite distance: any other answer is no data, never a printed figure.
+func (x *cellCtx) takeoff(k *Case, er *endRules, e RunwayEnd, cond Conditions, req *Requirement) (Result, error) {
 	actual, err := k.Model.Takeoff(cond)
 	if err != nil {
-		return actual, Requirement{}, err
+		return actual, err
 	}
 	ref := actual
 	if (actual.Covers.Surface || actual.Covers.Slope) && !isReference(cond) {
 		refCond := cond
 		refCond.Surface, refCond.Condition, refCond.SlopePct = Paved, Dry, 0
 		if ref, err = k.Model.Takeoff(refCond); err != nil {
-			return actual, Requirement{}, err
+			return actual, err
 		}
 	}
 	if !(usable(actual) && usable(ref)) {
-		return actual, Requirement{}, fmt.Errorf("%w: the model gave no usable distance (%.1f m, %.1f m)", ErrNoData, actual.GroundRollM, actual.To50ftM)
+		return actual, fmt.Errorf("%w: the model gave no usable distance (%.1f m, %.1f m)", ErrNoData, actual.GroundRollM, actual.To50ftM)
 	}
-	return actual, k.Policy.Require(actual, ref, k.End), nil
+	er.require(actual, ref, e, x.a, req)
+	return actual, nil
 }
 
 // usable reports whether r's distances are positive and finite, the ground roll
@@ -513,24 +543,34 @@ func ComputeGrid(a *Aircraft, m Model, p Policy, f Airfield, e RunwayEnd, spec G
 		climb, _ = ClimbFor(a) // nil: each cell says why (Cell.obstacles)
 	}
 	g.PressureAltM = PressureAltitudeFromQNH(spec.QNHPa, g.ElevationM)
-	g.Cells = make([][][]Cell, len(spec.WeightsKg))
+	g.Cells = gridCells(len(spec.WeightsKg), len(spec.HeadwindsMS), len(spec.TempsK))
+	// Every cell as Evaluate answers it (TestGridCellsAsEvaluate), with what the
+	// cells share worked out once.
+	x := cellCtx{er: p.forEnd(e), a: newArena(len(spec.WeightsKg) * len(spec.HeadwindsMS) * len(spec.TempsK))}
+	k := Case{Aircraft: a, Model: m, Policy: p, End: e, PressureAltM: g.PressureAltM, TightMargin: spec.TightMargin,
+		Rounding: spec.Rounding, ObstacleMarginM: spec.ObstacleMarginM, Climb: climb}
 	for wi, w := range spec.WeightsKg {
-		g.Cells[wi] = make([][]Cell, len(spec.HeadwindsMS))
 		for hi, h := range spec.HeadwindsMS {
-			row := make([]Cell, len(spec.TempsK))
 			for ti, t := range spec.TempsK {
-				row[ti] = Evaluate(Case{
-					Aircraft: a, Model: m, Policy: p, End: e,
-					PressureAltM: g.PressureAltM, TempK: t, MassKg: w,
-					Wind:            Components{HeadwindMS: h},
-					TightMargin:     spec.TightMargin,
-					Rounding:        spec.Rounding,
-					ObstacleMarginM: spec.ObstacleMarginM,
-					Climb:           climb,
-				})
+				k.TempK, k.MassKg, k.Wind = t, w, Components{HeadwindMS: h}
+				x.evaluate(&k, &g.Cells[wi][hi][ti])
 			}
-			g.Cells[wi][hi] = row
 		}
 	}
 	return g, nil
+}
+
+// gridCells makes a grid's [weight][wind][temperature] cells in one piece.
+func gridCells(nw, nh, nt int) [][][]Cell {
+	all := make([]Cell, nw*nh*nt)
+	rows := make([][]Cell, nw*nh)
+	out := make([][][]Cell, nw)
+	for wi := range out {
+		out[wi] = rows[wi*nh : (wi+1)*nh : (wi+1)*nh]
+		for hi := range out[wi] {
+			i := (wi*nh + hi) * nt
+			out[wi][hi] = all[i : i+nt : i+nt]
+		}
+	}
+	return out
 }

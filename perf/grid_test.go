@@ -421,3 +421,66 @@ func TestReasonsShowThePassedValue(t *testing.T) {
 		assert.Contains(t, fmt.Sprint(c.Reasons()), tc.want, tc.name)
 	}
 }
+
+// A grid's cells are the cells Evaluate and EvaluateLanding answer one at a time,
+// field for field: the grid only works out once what its cells share (the policy's
+// factors and rules for the runway end, the memory of the cells' lists). Paved,
+// sloped, with a stopway, grass and gravel, dry and wet, obstacles, both models and
+// both policies.
+func TestGridCellsAsEvaluate(t *testing.T) {
+	ends := []RunwayEnd{
+		{Designator: "09", TORAM: 700, TODAM: 700, ASDAM: 700, LDAM: 650, Surface: Paved, Condition: Dry, SlopePct: 0.5},
+		{Designator: "27", TORAM: 600, TODAM: 800, ASDAM: 750, LDAM: 600, Surface: Paved, Condition: Wet, SlopePct: -1.5},
+		{Designator: "15", TORAM: 650, LDAM: 600, Surface: Grass, Condition: Wet, SlopePct: 1,
+			Obstacles: []Obstacle{{HeightM: 15, PastEndM: 100, Note: "trees"}}},
+		{Designator: "33", TORAM: 550, TODAM: 600, ASDAM: 520, LDAM: 500, Surface: Gravel, Condition: Wet, SlopePct: -1},
+		{Designator: "04", TORAM: 900, Surface: Gravel, Condition: Dry, SlopePct: 2.5},
+	}
+	landing := calibratedLandingAircraft(t)
+	lm, err := LandingModelFor(landing)
+	require.NoError(t, err)
+	tableLanding := &Aircraft{Name: "t", MTOWKg: 1000, MaxTailwindMS: 10 * knot, WeightsKg: []float64{1000, 900},
+		Landing: &Landing{MaxMassKg: 1000, Model: ModelTable, Table: landingTable()}}
+	tlm, err := LandingModelFor(tableLanding)
+	require.NoError(t, err)
+	for _, pid := range PolicyIDs() {
+		p, _ := PolicyByID(pid)
+		for _, e := range ends {
+			for _, m := range []Model{demoPhysics(), smallTable()} {
+				a := testAircraft(m)
+				spec := DefaultGridSpec(a)
+				spec.Rounding = Rounding{Step: CardStep}
+				g, err := ComputeGrid(a, m, p, Airfield{ElevationM: 300}, e, spec)
+				require.NoError(t, err)
+				for wi, w := range spec.WeightsKg {
+					for hi, h := range spec.HeadwindsMS {
+						for ti, tk := range spec.TempsK {
+							want := Evaluate(Case{Aircraft: a, Model: m, Policy: p, End: e, PressureAltM: g.PressureAltM,
+								TempK: tk, MassKg: w, Wind: Components{HeadwindMS: h}, TightMargin: spec.TightMargin,
+								Rounding: spec.Rounding, ObstacleMarginM: spec.ObstacleMarginM})
+							require.Equal(t, want, g.Cells[wi][hi][ti], "%s %s %T cell %d %d %d", pid, e.Designator, m, wi, hi, ti)
+						}
+					}
+				}
+			}
+			for _, l := range []struct {
+				a *Aircraft
+				m LandingModel
+			}{{landing, lm}, {tableLanding, tlm}} {
+				spec := DefaultGridSpec(l.a)
+				spec.WeightsKg = LandingMasses(l.a, []float64{1000, 900}, 2)
+				g, err := ComputeLandingGrid(l.a, l.m, p, Airfield{ElevationM: 300}, e, spec)
+				require.NoError(t, err)
+				for wi, w := range spec.WeightsKg {
+					for hi, h := range spec.HeadwindsMS {
+						for ti, tk := range spec.TempsK {
+							want := EvaluateLanding(LandingCase{Aircraft: l.a, Model: l.m, Policy: p, End: e, PressureAltM: g.PressureAltM,
+								TempK: tk, MassKg: w, Wind: Components{HeadwindMS: h}, TightMargin: spec.TightMargin, Rounding: spec.Rounding})
+							require.Equal(t, want, g.Cells[wi][hi][ti], "landing %s %s %T cell %d %d %d", pid, e.Designator, l.m, wi, hi, ti)
+						}
+					}
+				}
+			}
+		}
+	}
+}

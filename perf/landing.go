@@ -475,10 +475,11 @@ func LandingMasses(a *Aircraft, weightsKg []float64, n int) []float64 {
 	return out
 }
 
-// MemoLanding wraps a landing model so that the paved, dry, level reference figures
-// are computed once, as Memo does for takeoff: every landing cell asks for them (the
-// floor under a model that covers surface or slope), the same for every runway end of
-// an airfield. Other conditions pass straight through. Not safe for concurrent use.
+// MemoLanding wraps a landing model so that the questions a card file asks more than
+// once are answered once, as Memo does for takeoff: the paved, dry, level reference
+// figures (the floor under a model that covers surface or slope), the same for every
+// runway end of an airfield, and the dry figures of an unpaved runway, which its wet
+// side asks again. Not safe for concurrent use.
 func MemoLanding(m LandingModel) LandingModel {
 	if _, ok := m.(*landingMemo); ok {
 		return m
@@ -497,10 +498,13 @@ type landingMemo struct {
 }
 
 func (mm *landingMemo) Land(c Conditions) (LandingResult, error) {
-	if !isReference(c) {
+	if !askedAgain(c) {
 		return mm.m.Land(c)
 	}
-	k := memoKey{c.PressureAltM, c.TempK, c.MassKg, c.HeadwindMS}
+	k, known := keyOf(c)
+	if !known {
+		return mm.m.Land(c)
+	}
 	if e, ok := mm.seen[k]; ok {
 		return e.r, e.err
 	}

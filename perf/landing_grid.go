@@ -37,8 +37,32 @@ type LandingCase struct {
 // headwind, not less than 150 % of a tailwind, unless the data already do); on a wet
 // unpaved runway the requirement is never below the dry one.
 func EvaluateLanding(k LandingCase) Cell {
+	var c Cell
+	x := landingCtx{}
+	x.evaluate(&k, &c)
+	return c
+}
+
+// landingCtx is what the landing cells of one grid share, as cellCtx for takeoff:
+// the landing policy worked out for the runway end and its dry twin (when first
+// needed), and the arena.
+type landingCtx struct {
+	er, dry *landingEndRules
+	a       *arena
+}
+
+// evaluate is EvaluateLanding writing into c, which it overwrites whole.
+func (x *landingCtx) evaluate(k *LandingCase, c *Cell) {
+	x.evaluateCell(k, c)
+	if len(c.reasons) == 0 {
+		c.reasons = nil // as a cell without reasons always was
+	}
+}
+
+func (x *landingCtx) evaluateCell(k *LandingCase, c *Cell) {
 	a := k.Aircraft
-	c := Cell{TempK: k.TempK, HeadwindMS: k.Wind.HeadwindMS, CrosswindMS: math.Abs(k.Wind.GustCrosswindMS), MassKg: k.MassKg}
+	*c = Cell{TempK: k.TempK, HeadwindMS: k.Wind.HeadwindMS, CrosswindMS: math.Abs(k.Wind.GustCrosswindMS), MassKg: k.MassKg,
+		reasons: x.a.reasons(3)}
 	mlm := a.MTOWKg
 	if a.Landing != nil && a.Landing.MaxMassKg > 0 {
 		mlm = a.Landing.MaxMassKg
@@ -61,12 +85,15 @@ func EvaluateLanding(k LandingCase) Cell {
 	}
 	if !(k.End.LDAM > 0) {
 		c.worsen(NoData, reason{s: fmt.Sprintf("no LDA declared for runway end %s: no landing figure", k.End.Designator)})
-		return c
+		return
+	}
+	if x.er == nil {
+		x.er = k.Policy.Landing().forEnd(k.End)
 	}
 	lp := k.Policy.Landing()
 	if err := lp.CheckSlope(k.End.SlopePct); err != nil { // eu-class-b past 2 %
 		c.worsen(NoData, reason{s: err.Error()})
-		return c
+		return
 	}
 	c.CreditedWindMS = CreditedWindMS(along, LandingWindFactoringIncluded(k.Model))
 	cond := Conditions{
@@ -74,13 +101,18 @@ func EvaluateLanding(k LandingCase) Cell {
 		HeadwindMS: c.CreditedWindMS, SlopePct: k.End.SlopePct,
 		Surface: k.End.Surface, Condition: k.End.Condition,
 	}
-	actual, req, err := land(k.Model, lp, k.End, cond)
+	req := &c.Requirement
+	actual, err := x.land(k.Model, x.er, k.End, cond, req)
 	if err == nil && cond.Surface != Paved && cond.Condition == Wet {
 		dryCond, dryEnd := cond, k.End
 		dryCond.Condition, dryEnd.Condition = Dry, Dry
-		if _, dry, derr := land(k.Model, lp, dryEnd, dryCond); derr == nil && dry.FactoredTODM > req.FactoredTODM {
+		if x.dry == nil {
+			x.dry = x.er.lp.forEnd(dryEnd)
+		}
+		var dry Requirement
+		if _, derr := x.land(k.Model, x.dry, dryEnd, dryCond, &dry); derr == nil && dry.FactoredTODM > req.FactoredTODM {
 			dry.Caution = req.Caution // the wet runway's cautions stand
-			req = dry
+			*req = dry
 			c.reasons = append(c.reasons, reason{s: "wet figure raised to the dry one: wet is never shorter than dry"})
 		}
 	}
@@ -92,14 +124,14 @@ func EvaluateLanding(k LandingCase) Cell {
 		default:
 			c.worsen(NoData, reason{s: err.Error()})
 		}
-		return c
+		*req = Requirement{}
+		return
 	}
 	c.GroundRollM, c.To50ftM = actual.GroundRollM, actual.From50ftM
 	c.Covers = actual.Covers
 	for _, n := range actual.Notes {
 		c.reasons = append(c.reasons, reason{s: n})
 	}
-	c.Requirement = req
 	c.RequiredM, c.AvailableM, c.Limiting = req.Limiting.RequiredM, req.Limiting.AvailableM, req.Limiting.Declared
 	c.HasDistance = true
 	c.ShownRequired, c.ShownAvailable, c.ShownUnit = k.Rounding.Up(c.RequiredM), k.Rounding.Down(c.AvailableM), k.Rounding.UnitName()
@@ -112,29 +144,30 @@ func EvaluateLanding(k LandingCase) Cell {
 		r.kind = reasonTight
 		c.worsen(Tight, r)
 	}
-	return c
 }
 
 // land asks the landing model for cond (and, when the model covers surface or slope,
-// for the paved, dry, level reference) and applies the landing policy. A model's
-// contract is a positive, finite distance: any other answer is no data.
-func land(m LandingModel, lp LandingPolicy, e RunwayEnd, cond Conditions) (LandingResult, Requirement, error) {
+// for the paved, dry, level reference) and applies the landing policy worked out for
+// runway end e (er), writing the requirement into req. A model's contract is a
+// positive, finite distance: any other answer is no data.
+func (x *landingCtx) land(m LandingModel, er *landingEndRules, e RunwayEnd, cond Conditions, req *Requirement) (LandingResult, error) {
 	actual, err := m.Land(cond)
 	if err != nil {
-		return actual, Requirement{}, err
+		return actual, err
 	}
 	ref := actual
 	if (actual.Covers.Surface || actual.Covers.Slope) && !isReference(cond) {
 		refCond := cond
 		refCond.Surface, refCond.Condition, refCond.SlopePct = Paved, Dry, 0
 		if ref, err = m.Land(refCond); err != nil {
-			return actual, Requirement{}, err
+			return actual, err
 		}
 	}
 	if !(landingUsable(actual) && landingUsable(ref)) {
-		return actual, Requirement{}, fmt.Errorf("%w: the landing model gave no usable distance (%.1f m, %.1f m)", ErrNoData, actual.GroundRollM, actual.From50ftM)
+		return actual, fmt.Errorf("%w: the landing model gave no usable distance (%.1f m, %.1f m)", ErrNoData, actual.GroundRollM, actual.From50ftM)
 	}
-	return actual, lp.Require(actual, ref, e), nil
+	er.require(actual, ref, e, x.a, req)
+	return actual, nil
 }
 
 // ComputeLandingGrid evaluates every landing cell of spec for runway end e of
@@ -166,19 +199,17 @@ func ComputeLandingGrid(a *Aircraft, m LandingModel, p Policy, f Airfield, e Run
 	}
 	g := &Grid{Spec: spec, End: e, ElevationM: TakeoffElevationM(f, e), Policy: p, Landing: true}
 	g.PressureAltM = PressureAltitudeFromQNH(spec.QNHPa, g.ElevationM)
-	g.Cells = make([][][]Cell, len(spec.WeightsKg))
+	g.Cells = gridCells(len(spec.WeightsKg), len(spec.HeadwindsMS), len(spec.TempsK))
+	// Every cell as EvaluateLanding answers it (TestGridCellsAsEvaluate), with what
+	// the cells share worked out once.
+	x := landingCtx{a: newArena(len(spec.WeightsKg) * len(spec.HeadwindsMS) * len(spec.TempsK))}
+	k := LandingCase{Aircraft: a, Model: m, Policy: p, End: e, PressureAltM: g.PressureAltM, TightMargin: spec.TightMargin, Rounding: spec.Rounding}
 	for wi, w := range spec.WeightsKg {
-		g.Cells[wi] = make([][]Cell, len(spec.HeadwindsMS))
 		for hi, h := range spec.HeadwindsMS {
-			row := make([]Cell, len(spec.TempsK))
 			for ti, t := range spec.TempsK {
-				row[ti] = EvaluateLanding(LandingCase{
-					Aircraft: a, Model: m, Policy: p, End: e,
-					PressureAltM: g.PressureAltM, TempK: t, MassKg: w,
-					Wind: Components{HeadwindMS: h}, TightMargin: spec.TightMargin, Rounding: spec.Rounding,
-				})
+				k.TempK, k.MassKg, k.Wind = t, w, Components{HeadwindMS: h}
+				x.evaluate(&k, &g.Cells[wi][hi][ti])
 			}
-			g.Cells[wi][hi] = row
 		}
 	}
 	return g, nil

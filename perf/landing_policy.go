@@ -105,11 +105,13 @@ func (p Policy) Landing() LandingPolicy {
 // library, says the same for class C). pct is uphill positive in the direction of
 // landing, which on a runway end is the direction of its takeoff.
 func downslopeFivePerPercent(src string) func(float64) Factor {
+	// The sources are built once: every grid cell asks for the factor.
+	level, down := src+": no credit for upslope", src+": +5 % per 1 % downslope"
 	return func(pct float64) Factor {
 		if pct >= 0 {
-			return Factor{Name: "level or upslope", Pct: pct, Value: 1.0, Source: src + ": no credit for upslope"}
+			return Factor{Name: "level or upslope", Pct: pct, Value: 1.0, Source: level}
 		}
-		return Factor{Name: "downslope", Pct: -pct, Value: 1 + 0.05*-pct, Source: src + ": +5 % per 1 % downslope"}
+		return Factor{Name: "downslope", Pct: -pct, Value: 1 + 0.05*-pct, Source: down}
 	}
 }
 
@@ -173,7 +175,34 @@ func (lp LandingPolicy) Cautions(e RunwayEnd) []string {
 //
 // The Requirement's FactoredTODM holds the factored landing distance LD.
 func (lp LandingPolicy) Require(actual, ref LandingResult, e RunwayEnd) Requirement {
-	fs, fsl := lp.surface(e.Surface, e.Condition), lp.slope(e.SlopePct)
+	var req Requirement
+	lp.forEnd(e).require(actual, ref, e, nil, &req)
+	return req
+}
+
+// landingEndRules is what LandingPolicy.Require needs for one runway end, worked out
+// once for all the cells of a grid: the factors and the cautions joined.
+type landingEndRules struct {
+	lp      LandingPolicy
+	fs, fsl Factor
+	caution string
+}
+
+func (lp LandingPolicy) forEnd(e RunwayEnd) *landingEndRules {
+	er := &landingEndRules{lp: lp, fs: lp.surface(e.Surface, e.Condition), fsl: lp.slope(e.SlopePct)}
+	for i, c := range lp.Cautions(e) {
+		if i > 0 {
+			er.caution += "; "
+		}
+		er.caution += c
+	}
+	return er
+}
+
+// require is Require with the end's factors worked out (er), writing into req; the
+// requirement's rule and check are cut from a (nil: allocated).
+func (er *landingEndRules) require(actual, ref LandingResult, e RunwayEnd, a *arena, req *Requirement) {
+	fs, fsl := er.fs, er.fsl
 	uncovered := 1.0
 	if !actual.Covers.Surface {
 		uncovered *= fs.Value
@@ -187,18 +216,13 @@ func (lp LandingPolicy) Require(actual, ref LandingResult, e RunwayEnd) Requirem
 			ld = floor
 		}
 	}
-	req := Requirement{FactoredTODM: ld, Factors: [2]Factor{fs, fsl}}
+	*req = Requirement{FactoredTODM: ld, Factors: [2]Factor{fs, fsl}, Caution: er.caution}
 	req.Floor = ld > actual.From50ftM*uncovered
-	for i, c := range lp.Cautions(e) {
-		if i > 0 {
-			req.Caution += "; "
-		}
-		req.Caution += c
-	}
-	chk := Check{Declared: "LDA", Multiplier: lp.multiplier, RequiredM: lp.multiplier * ld, AvailableM: e.LDAM}
-	rule := Rule{Name: lp.rule, Checks: []Check{chk}}
-	req.Rule, req.Rules, req.Checks, req.Limiting = rule.Name, []Rule{rule}, rule.Checks, chk
-	return req
+	chk := Check{Declared: "LDA", Multiplier: er.lp.multiplier, RequiredM: er.lp.multiplier * ld, AvailableM: e.LDAM}
+	checks, rules := a.checks(1), a.rules(1)
+	checks[0] = chk
+	rules[0] = Rule{Name: er.lp.rule, Checks: checks}
+	req.Rule, req.Rules, req.Checks, req.Limiting = er.lp.rule, rules, checks, chk
 }
 
 // landingUsable reports whether a landing result's distances are positive and

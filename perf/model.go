@@ -3,6 +3,7 @@ package perf
 import (
 	"errors"
 	"fmt"
+	"math"
 )
 
 // ErrNoData marks a question outside the data a model holds (a table's axes, the ISA
@@ -115,10 +116,14 @@ func ModelFor(a *Aircraft) (Model, error) {
 	return nil, fmt.Errorf("aircraft %q: unknown model %q", a.Name, a.Model)
 }
 
-// Memo wraps a model so that the paved, dry, level reference figures are computed
-// once: a grid asks the same reference question for every runway end of an airfield,
-// so a memoized model answers it once per card file. Other conditions pass straight
-// through. Not safe for concurrent use: make one per goroutine.
+// Memo wraps a model so that the questions a card file asks more than once are
+// answered once: the paved, dry, level reference figures, the same for every runway
+// end of an airfield (a grid asks them for every cell when the model covers surface
+// or slope), and the dry figures of an unpaved runway, which its wet page asks again
+// for every cell (wet is never shorter than dry). Other questions pass straight
+// through: storing every answer costs more than the few it would save. The answers
+// are the wrapped model's, shared (a Result's Notes are read, never changed). Not
+// safe for concurrent use: make one per goroutine.
 func Memo(m Model) Model {
 	if _, ok := m.(*memo); ok {
 		return m
@@ -126,7 +131,45 @@ func Memo(m Model) Model {
 	return &memo{m: m, seen: make(map[memoKey]memoEntry, 256)}
 }
 
-type memoKey struct{ pa, temp, mass, wind float64 }
+// askedAgain reports whether a card file asks the question c more than once (see
+// Memo): the paved, dry, level reference, or dry on an unpaved surface.
+func askedAgain(c Conditions) bool {
+	return isReference(c) || (c.Surface != Paved && c.Condition == Dry)
+}
+
+// memoKey is a question's conditions as bits: hashed as plain memory, much faster
+// than the float and string fields of Conditions (a map key per grid cell). Two
+// questions share a key exactly when their conditions are the same bits.
+type memoKey struct {
+	pa, temp, mass, wind, slope uint64
+	surface, cond               uint8
+}
+
+// keyOf is c's key; ok is false for a surface or condition kneeprint does not know,
+// which is then not memoized (it has no code of its own).
+func keyOf(c Conditions) (k memoKey, ok bool) {
+	k = memoKey{pa: math.Float64bits(c.PressureAltM), temp: math.Float64bits(c.TempK), mass: math.Float64bits(c.MassKg),
+		wind: math.Float64bits(c.HeadwindMS), slope: math.Float64bits(c.SlopePct)}
+	switch c.Surface {
+	case Paved:
+		k.surface = 1
+	case Grass:
+		k.surface = 2
+	case Gravel:
+		k.surface = 3
+	default:
+		return k, false
+	}
+	switch c.Condition {
+	case Dry:
+		k.cond = 1
+	case Wet:
+		k.cond = 2
+	default:
+		return k, false
+	}
+	return k, true
+}
 
 type memoEntry struct {
 	r   Result
@@ -139,10 +182,13 @@ type memo struct {
 }
 
 func (mm *memo) Takeoff(c Conditions) (Result, error) {
-	if !isReference(c) {
+	if !askedAgain(c) {
 		return mm.m.Takeoff(c)
 	}
-	k := memoKey{c.PressureAltM, c.TempK, c.MassKg, c.HeadwindMS}
+	k, known := keyOf(c)
+	if !known {
+		return mm.m.Takeoff(c)
+	}
 	if e, ok := mm.seen[k]; ok {
 		return e.r, e.err
 	}

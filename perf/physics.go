@@ -173,14 +173,17 @@ type propThrust struct {
 	static, atLO, vLO, etaP float64
 }
 
+// at is the thrust at airspeed va. The built-in min is math.Min to the bit (the
+// same rules for NaN and signed zeros, Go specification "Min and max"), compiled in
+// line: the ground run asks for the thrust some twenty times per takeoff.
 func (p *propThrust) at(va float64) float64 {
 	if va <= 0 {
 		return p.static
 	}
 	if va >= p.vLO {
-		return math.Min(p.static, p.etaP/va)
+		return min(p.static, p.etaP/va)
 	}
-	return math.Min(p.static, p.static+(p.atLO-p.static)*va/p.vLO)
+	return min(p.static, p.static+(p.atLO-p.static)*va/p.vLO)
 }
 
 // accel is Newton's second law along the runway (Anderson, Aircraft Performance and
@@ -357,8 +360,8 @@ func (m *PhysicsModel) Takeoff(c Conditions) (Result, error) {
 	w := c.MassKg * StandardGravity
 	vStall := math.Sqrt(2 * w / (rho * p.WingAreaM2 * p.CLMax))
 	tas := 1 / math.Sqrt(sigma)
-	vLO := math.Max(m.RotateIASMS*tas, vStall)
-	v50 := math.Max(m.At50ftIASMS*tas, vLO)
+	vLO := max(m.RotateIASMS*tas, vStall) // built-in max: math.Max to the bit
+	v50 := max(m.At50ftIASMS*tas, vLO)
 	if math.Abs(c.HeadwindMS) > MaxWindFraction*vLO {
 		return r, fmt.Errorf("%w: credited wind %.0f kt is beyond what the model answers (half the lift-off speed, %.0f kt)", ErrNoData, math.Abs(c.HeadwindMS)/knot, MaxWindFraction*vLO/knot)
 	}
@@ -455,9 +458,9 @@ func airSegment(c climbOut, vLO, v50, w float64) (float64, error) {
 	energy := dE / 6 * (f[0] + 4*f[1] + f[2])
 
 	radius := vMid * vMid / (0.2 * StandardGravity)
-	gamma := math.Asin(math.Min(c.excess(vMid), 0.5))
+	gamma := math.Asin(min(c.excess(vMid), 0.5)) // built-in min and max: math.Min and math.Max to the bit
 	arc := airborneDistance(radius, gamma, screenHeightM) * (vMid - w) / vMid
-	return math.Max(energy, arc), nil
+	return max(energy, arc), nil
 }
 
 // airborneDistance is the horizontal distance from lift-off to height screenM along

@@ -189,11 +189,13 @@ func (p Policy) SlopeCaution(pct float64) string {
 // slopeFivePerPercent is +5 % of distance per 1 % of upslope, linear, and no credit
 // for a downslope (AMC2 CAT.POL.A.305; SSL 7c gives 2 % uphill x1.1, the same rate).
 func slopeFivePerPercent(src string) func(float64) Factor {
+	// The sources are built once: every grid cell asks for the factor.
+	level, up := src+": no credit for downslope", src+": +5 % per 1 % upslope"
 	return func(pct float64) Factor {
 		if pct <= 0 {
-			return Factor{Name: "level or downslope", Pct: pct, Value: 1.0, Source: src + ": no credit for downslope"}
+			return Factor{Name: "level or downslope", Pct: pct, Value: 1.0, Source: level}
 		}
-		return Factor{Name: "upslope", Pct: pct, Value: 1 + 0.05*pct, Source: src + ": +5 % per 1 % upslope"}
+		return Factor{Name: "upslope", Pct: pct, Value: 1 + 0.05*pct, Source: up}
 	}
 }
 
@@ -222,9 +224,22 @@ func PolicyIDs() []string {
 func (p Policy) SurfaceFactor(s Surface, c Condition) Factor {
 	f := p.surface(s, c)
 	if s != Paved && s != Grass {
-		f.Name = fmt.Sprintf("unpaved, %s (grass factor)", c)
+		f.Name = unpavedName(c)
 	}
 	return f
+}
+
+// unpavedName names the grass factor on an unpaved surface other than grass:
+// "unpaved, dry (grass factor)". The two conditions are constants, as every grid
+// cell asks.
+func unpavedName(c Condition) string {
+	switch c {
+	case Dry:
+		return "unpaved, dry (grass factor)"
+	case Wet:
+		return "unpaved, wet (grass factor)"
+	}
+	return fmt.Sprintf("unpaved, %s (grass factor)", c)
 }
 
 // SlopeFactor is the policy's factor for a slope in percent (uphill positive).
@@ -277,7 +292,36 @@ type Requirement struct {
 // A policy with several rules is met by any of them: the rule whose worst check has
 // the smallest required/available ratio is used (it passes whenever any rule passes).
 func (p Policy) Require(actual, ref Result, e RunwayEnd) Requirement {
-	fs, fsl := p.SurfaceFactor(e.Surface, e.Condition), p.slope(e.SlopePct)
+	var req Requirement
+	p.forEnd(e).require(actual, ref, e, nil, &req)
+	return req
+}
+
+// endRules is what Require needs of a policy for one runway end, worked out once
+// for all the cells of a grid: the factors, the caution, and the rules with their
+// multipliers (a takeoff distance of 1). Each check's required distance is its
+// multiplier times the factored distance (TestEndRulesScale), so a cell's rules are
+// the end's scaled.
+type endRules struct {
+	fs, fsl Factor
+	caution string
+	rules   []Rule
+	checks  int // checks over all rules
+}
+
+func (p Policy) forEnd(e RunwayEnd) *endRules {
+	er := &endRules{fs: p.SurfaceFactor(e.Surface, e.Condition), fsl: p.slope(e.SlopePct), caution: p.SlopeCaution(e.SlopePct),
+		rules: p.rules(1, e)}
+	for _, r := range er.rules {
+		er.checks += len(r.Checks)
+	}
+	return er
+}
+
+// require is Require with the end's rules worked out (er), writing into req; the
+// requirement's rules and checks are cut from a (nil: allocated).
+func (er *endRules) require(actual, ref Result, e RunwayEnd, a *arena, req *Requirement) {
+	fs, fsl := er.fs, er.fsl
 	uncovered := 1.0
 	if !actual.Covers.Surface {
 		uncovered *= fs.Value
@@ -291,9 +335,19 @@ func (p Policy) Require(actual, ref Result, e RunwayEnd) Requirement {
 			tod = floor
 		}
 	}
-	req := Requirement{FactoredTODM: tod, Factors: [2]Factor{fs, fsl}, Caution: p.SlopeCaution(e.SlopePct)}
+	*req = Requirement{FactoredTODM: tod, Factors: [2]Factor{fs, fsl}, Caution: er.caution}
 	req.Floor = tod > actual.To50ftM*uncovered
-	req.Rules = p.rules(tod, e)
+	req.Rules = a.rules(len(er.rules))
+	checks := a.checks(er.checks)
+	for i, r := range er.rules {
+		cs := checks[:len(r.Checks):len(r.Checks)]
+		checks = checks[len(r.Checks):]
+		for j, c := range r.Checks {
+			c.RequiredM = c.Multiplier * tod
+			cs[j] = c
+		}
+		req.Rules[i] = Rule{Name: r.Name, Checks: cs}
+	}
 	best := 0
 	for i, r := range req.Rules {
 		if r.worst().Ratio() < req.Rules[best].worst().Ratio() {
@@ -301,5 +355,44 @@ func (p Policy) Require(actual, ref Result, e RunwayEnd) Requirement {
 		}
 	}
 	req.Rule, req.Checks, req.Limiting = req.Rules[best].Name, req.Rules[best].Checks, req.Rules[best].worst()
-	return req
+}
+
+// arena hands out the small slices the cells of one grid keep (rules, checks,
+// reasons) from a few large ones, instead of a few small allocations per cell.
+// Each slice is cut with its capacity at its length, so that appending to it never
+// writes into another cell's. A nil arena allocates each slice on its own.
+type arena struct {
+	rs []Rule
+	cs []Check
+	ws []reason
+}
+
+// newArena makes an arena for about n cells.
+func newArena(n int) *arena {
+	return &arena{rs: make([]Rule, 0, 2*n), cs: make([]Check, 0, 4*n), ws: make([]reason, 0, 3*n)}
+}
+
+func (a *arena) rules(n int) []Rule {
+	if a == nil || len(a.rs)+n > cap(a.rs) {
+		return make([]Rule, n)
+	}
+	a.rs = a.rs[:len(a.rs)+n]
+	return a.rs[len(a.rs)-n : len(a.rs) : len(a.rs)]
+}
+
+func (a *arena) checks(n int) []Check {
+	if a == nil || len(a.cs)+n > cap(a.cs) {
+		return make([]Check, n)
+	}
+	a.cs = a.cs[:len(a.cs)+n]
+	return a.cs[len(a.cs)-n : len(a.cs) : len(a.cs)]
+}
+
+// reasons is an empty slice with room for n reasons, or nil.
+func (a *arena) reasons(n int) []reason {
+	if a == nil || len(a.ws)+n > cap(a.ws) {
+		return nil
+	}
+	a.ws = a.ws[:len(a.ws)+n]
+	return a.ws[len(a.ws)-n : len(a.ws)-n : len(a.ws)]
 }

@@ -179,3 +179,34 @@ func TestGravelNamedAsUnpaved(t *testing.T) {
 		assert.Equal(t, "dry grass", p.SurfaceFactor(Grass, Dry).Label(), id)
 	}
 }
+
+// A policy's rules for a factored distance are its rules for a distance of 1 with
+// every check's required distance scaled: each check requires its multiplier times
+// the factored distance (CAT.POL.A.305(b) and SSL 7c state each factor as a multiple
+// of the takeoff distance). Requirements of a grid's cells are made that way
+// (endRules); this is the property that makes it the policy's own answer.
+func TestEndRulesScale(t *testing.T) {
+	ends := []RunwayEnd{
+		{TORAM: 700, TODAM: 700, ASDAM: 700, Surface: Paved, Condition: Dry},
+		{TORAM: 600, TODAM: 800, ASDAM: 750, Surface: Grass, Condition: Wet, SlopePct: 1},
+		{TORAM: 600, TODAM: 600, ASDAM: 500, Surface: Gravel, Condition: Dry, SlopePct: -3},
+	}
+	for _, id := range PolicyIDs() {
+		p, _ := PolicyByID(id)
+		for _, e := range ends {
+			er := p.forEnd(e)
+			for _, tod := range []float64{1, 312.5, 777.7, 1234.56789} {
+				var scaled []Rule
+				for _, r := range er.rules {
+					var cs []Check
+					for _, c := range r.Checks {
+						c.RequiredM = c.Multiplier * tod
+						cs = append(cs, c)
+					}
+					scaled = append(scaled, Rule{Name: r.Name, Checks: cs})
+				}
+				assert.Equal(t, p.rules(tod, e), scaled, "%s %+v tod %g", id, e, tod)
+			}
+		}
+	}
+}

@@ -3,6 +3,7 @@ package perf
 import (
 	"fmt"
 	"math"
+	"strconv"
 )
 
 // Table is a flight-manual takeoff table: ground roll and total distance to 50 ft over
@@ -199,12 +200,25 @@ func (t *Table) applyNotes(c Conditions, gr, total float64, covers *Effects, not
 			gr += add
 			total += add
 			covers.Surface = true
-			*notes = append(*notes, fmt.Sprintf("manual's %s grass note: +%g %% of ground roll", c.Condition, pct))
+			*notes = append(*notes, grassNote(c.Condition, pct))
 		}
 	} else if c.Condition == Dry {
 		covers.Surface = true // the table is for a paved, dry runway
 	}
 	return gr, total, nil
+}
+
+// grassNote is the note of a grass correction applied, as
+// fmt.Sprintf("manual's %s grass note: +%g %% of ground roll", cond, pct) writes it
+// (TestGrassNote), built without fmt: a table's grass page notes it in every cell.
+func grassNote(cond Condition, pct float64) string {
+	var buf [80]byte
+	b := append(buf[:0], "manual's "...)
+	b = append(b, cond...)
+	b = append(b, " grass note: +"...)
+	b = strconv.AppendFloat(b, pct, 'g', -1, 64)
+	b = append(b, " % of ground roll"...)
+	return string(b)
 }
 
 const knot = 1852.0 / 3600.0

@@ -1,6 +1,7 @@
 package perf
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -189,4 +190,14 @@ func TestLandingTableHeadwindBounds(t *testing.T) {
 	m.Table.Corrections.HeadwindMaxMS = 15 * knot
 	assert.NoError(t, at(15))
 	assert.ErrorIs(t, at(15.5), ErrNoData)
+}
+
+// The grass note reads as fmt writes it, for whole, fractional, tiny and huge
+// percentages (the %g verb is strconv's shortest 'g' form: Go fmt documentation).
+func TestGrassNote(t *testing.T) {
+	for _, c := range []Condition{Dry, Wet} {
+		for _, pct := range []float64{18, 12.5, 0.1, 1e-7, 33.333333333333336, 1e21, 100} {
+			assert.Equal(t, fmt.Sprintf("manual's %s grass note: +%g %% of ground roll", c, pct), grassNote(c, pct))
+		}
+	}
 }

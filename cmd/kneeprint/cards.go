@@ -8,6 +8,7 @@ import (
 	"os/signal"
 	"path/filepath"
 	"runtime/debug"
+	"strconv"
 	"strings"
 	"syscall"
 	"time"
@@ -16,6 +17,7 @@ import (
 	"golang.org/x/term"
 
 	"kneeprint/cmd/internal/batch"
+	"kneeprint/cmd/internal/cards"
 	"kneeprint/cmd/internal/inputs"
 	"kneeprint/cmd/internal/spec"
 	"kneeprint/layout"
@@ -36,6 +38,7 @@ type cardsOptions struct {
 	workers            int
 	data               bool
 	allowEmpty         bool
+	bundle             string
 }
 
 func newCardsCmd(e env) *cobra.Command {
@@ -72,6 +75,15 @@ book page), and each landing side lands behind its own takeoff side. A template 
 landing: same-page (preset a5-one-page) prints both on one page; landing: none
 leaves the landing out.
 
+For printing runs, --bundle airfield writes one PDF per airfield holding every
+aircraft's cards, --bundle plan one PDF holding every card of the plan (airfield by
+airfield, aircraft by aircraft, as the plan lists them); each template gets its own,
+and cards without a landing side (a profile without landing data) print in a
+"_takeoff-only" one apart from double-sided ones. A bundle keeps every promise of
+the card files: written whole or not at all, indexed card by card (stale names the
+bundle's pages), duplex and 2-up order, --data (one JSON per bundle). At most
+` + strconv.Itoa(cards.MaxBundlePages) + ` card pages a bundle.
+
 Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-letter,
 5x8, a5-one-page, or your own file (copy one from templates/cards/).
 
@@ -79,7 +91,8 @@ Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-let
 		Example: `  kneeprint cards --demo -o cards
   kneeprint cards --plan season-2027.yaml
   kneeprint cards --aircraft my-plane.yaml --airfield home.yaml --template half-letter --date 2027-03-01 --valid-until 2027-10-31 -o cards
-  kneeprint cards --demo --sheet a4 -o print`,
+  kneeprint cards --demo --sheet a4 -o print
+  kneeprint cards --plan season-2027.yaml --bundle airfield`,
 		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error { return cardsRun(e, opts) },
 	}
@@ -99,6 +112,7 @@ Card presets (page, unit, axes, margin, policy) are YAML: a5 (default), half-let
 	f.IntVar(&opts.workers, "workers", 0, fmt.Sprintf("card files made at once (default: the number of CPUs; at most %d per CPU)", batch.WorkersPerCPU))
 	f.BoolVar(&opts.data, "data", false, "also write each card's content as JSON beside its PDF (NAME.json)")
 	f.BoolVar(&opts.allowEmpty, "allow-empty", false, "accept card pages on which no cell has a figure (exit 0)")
+	f.StringVar(&opts.bundle, "bundle", "", "for printing runs: one PDF per airfield (every aircraft) or per plan: "+strings.Join(cards.BundleModes(), "|")+" (default: one PDF per aircraft and airfield)")
 	return cmd
 }
 
@@ -141,8 +155,10 @@ func planFromFlags(e env, opts *cardsOptions) (*spec.Plan, error) {
 	if opts.out == "" {
 		return nil, errors.New("-o DIR is required: the folder the cards are written to")
 	}
-	p := &spec.Plan{Name: "command line", Templates: []string{opts.template}, Output: opts.out}
+	// The name a plan bundle takes (--bundle plan): demo_a5.pdf, cards_a5.pdf.
+	p := &spec.Plan{Name: "cards", Templates: []string{opts.template}, Output: opts.out}
 	if opts.demo {
+		p.Name = "demo"
 		ac, af := inputs.Demo()
 		for _, s := range ac {
 			p.Aircraft = append(p.Aircraft, inputs.DemoPrefix+strings.TrimSuffix(filepath.Base(s.Path), ".yaml"))
@@ -213,6 +229,9 @@ func cardsRun(e env, opts *cardsOptions) error {
 			return fmt.Errorf("-o %s is a file: give a folder (one PDF per aircraft and airfield is written into it)", opts.out)
 		}
 	}
+	if opts.bundle != "" && opts.bundle != cards.BundleAirfield && opts.bundle != cards.BundlePlan {
+		return fmt.Errorf("--bundle %q: give %s (or leave it out: one PDF per aircraft and airfield)", opts.bundle, strings.Join(cards.BundleModes(), " or "))
+	}
 	if opts.workers < 0 {
 		return fmt.Errorf("--workers %d: give a number of workers, or 0 for one per CPU", opts.workers)
 	}
@@ -222,6 +241,9 @@ func cardsRun(e env, opts *cardsOptions) error {
 	}
 	if opts.page != "" {
 		prep.SetPage(page) // names made unique again after the override
+	}
+	if err := prep.SetBundle(opts.bundle); err != nil {
+		return dataError{err}
 	}
 	if w := batch.Workers(opts.workers, len(prep.Entries)); opts.workers > w {
 		fmt.Fprintf(e.stderr, "--workers %d: %d used (at most one per card file and %d per CPU)\n", opts.workers, w, batch.WorkersPerCPU)

@@ -6,6 +6,7 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
@@ -155,4 +156,35 @@ func TestCardsData(t *testing.T) {
 	require.Equal(t, exitOK, code)
 	matches, _ := filepath.Glob(filepath.Join(dir2, "*.json"))
 	assert.Empty(t, matches, "the index is kneeprint-index.jsonl; no card data without --data")
+}
+
+// Issue 15 item 3: cards --bundle end to end: one PDF per airfield with every
+// aircraft (or one for the whole run), the index that stale reads, and a bundle
+// mode the command does not know refused as a usage error.
+func TestCardsBundle(t *testing.T) {
+	dir := t.TempDir()
+	code, out, errOut := runCLI(t, "cards", "--demo", "--bundle", "airfield", "-o", dir, "--date", "2026-12-01")
+	require.Equal(t, exitOK, code, errOut)
+	entries, err := os.ReadDir(dir)
+	require.NoError(t, err)
+	var names []string
+	for _, e := range entries {
+		names = append(names, e.Name())
+	}
+	assert.ElementsMatch(t, []string{"kp-spm_all-aircraft_a5.pdf", "kp-wrm_all-aircraft_a5.pdf", "kneeprint-index.jsonl"}, names)
+	assert.Contains(t, out, "[4/4] wrote kp-wrm_all-aircraft_a5.pdf, ")
+	assert.Contains(t, out, "2 card file(s), 48 card page(s) written")
+	code, out, errOut = runCLIAt(t, time.Date(2026, 12, 1, 0, 0, 0, 0, time.UTC), "stale", dir)
+	assert.Equal(t, exitOK, code, out+errOut)
+	assert.Contains(t, out, "all 24 card(s) match their inputs")
+
+	plan := t.TempDir()
+	code, _, errOut = runCLI(t, "cards", "--demo", "--bundle", "plan", "-o", plan, "--date", "2026-12-01")
+	require.Equal(t, exitOK, code, errOut)
+	_, err = os.Stat(filepath.Join(plan, "demo_a5.pdf"))
+	assert.NoError(t, err)
+
+	code, _, errOut = runCLI(t, "cards", "--demo", "--bundle", "aircraft", "-o", t.TempDir())
+	assert.Equal(t, exitUsage, code)
+	assert.Contains(t, errOut, `--bundle "aircraft": give airfield or plan`)
 }

@@ -47,11 +47,25 @@ func LoadPlan(path string) (*spec.Plan, error) {
 // Entry is one job of a plan with the sources it came from.
 type Entry struct {
 	Job          *cards.Job
-	Name         string // output file name, unique in the folder
+	Name         string // output file name, unique in the folder; in a bundle, the pair's name within it
 	AircraftSrc  string // as written, resolved against the plan's folder
 	AirfieldSrc  string
 	TemplateSrc  string
 	PageOverride string // the page given on the command line over the template's, or ""
+	// Bundle is the file the entry's cards are printed in with others (cards
+	// --bundle), or "" for a file of its own.
+	Bundle     string
+	bundleMode string // cards.BundleAirfield or cards.BundlePlan with a Bundle
+
+	ac, af, tm int // the entry's aircraft, airfield and template in plan order
+}
+
+// File is the file the entry's cards are printed in: its bundle, or its own.
+func (e *Entry) File() string {
+	if e.Bundle != "" {
+		return e.Bundle
+	}
+	return e.Name
 }
 
 // Prepared is a plan with its inputs loaded.
@@ -59,6 +73,10 @@ type Prepared struct {
 	Dir         string // output folder
 	Entries     []*Entry
 	InputErrors []error // files that could not be read: their jobs are not in Entries
+
+	planName string
+	bundle   string     // cards.BundleAirfield, cards.BundlePlan or "" (SetBundle)
+	bundles  [][]*Entry // the entries of each bundle in print order, bundles in run order
 
 	// newFonts makes the batch's fonts (layout.NewFonts when nil); tests count calls.
 	newFonts func() (*layout.Fonts, error)
@@ -68,7 +86,7 @@ type Prepared struct {
 // A file that cannot be read is reported in InputErrors and its jobs are left out;
 // the others go on.
 func Prepare(plan *spec.Plan, planDir, outDir, version string, compress bool) (*Prepared, error) {
-	p := &Prepared{Dir: outDir}
+	p := &Prepared{Dir: outDir, planName: plan.Name}
 	if p.Dir == "" {
 		p.Dir = inputs.In(planDir, plan.Output)
 	}
@@ -132,7 +150,7 @@ func Prepare(plan *spec.Plan, planDir, outDir, version string, compress bool) (*
 		sheet = &s
 	}
 	hashes := &cards.HashCache{}
-	for _, tm := range tms {
+	for ti, tm := range tms {
 		page, err := layout.PageByName(tm.t.Page)
 		if err != nil {
 			p.InputErrors = append(p.InputErrors, fmt.Errorf("template %s: %w", tm.src, err))
@@ -142,11 +160,12 @@ func Prepare(plan *spec.Plan, planDir, outDir, version string, compress bool) (*
 		if valid.IsZero() {
 			valid = plan.Date.AddDate(0, 0, tm.t.ValidDays)
 		}
-		for _, ac := range acs {
-			for _, af := range afs {
+		for ai, ac := range acs {
+			for fi, af := range afs {
 				j := &cards.Job{Aircraft: ac.a, Airfield: af.f, Template: *tm.t, Page: page, Sheet: sheet,
 					Date: plan.Date, ValidUntil: valid, Version: version, Compress: compress, Hashes: hashes}
-				p.Entries = append(p.Entries, &Entry{Job: j, Name: j.FileName(), AircraftSrc: ac.src, AirfieldSrc: af.src, TemplateSrc: tm.src})
+				p.Entries = append(p.Entries, &Entry{Job: j, Name: j.FileName(), AircraftSrc: ac.src, AirfieldSrc: af.src, TemplateSrc: tm.src,
+					ac: ai, af: fi, tm: ti})
 			}
 		}
 	}
@@ -174,19 +193,30 @@ func (p *Prepared) SetPage(page layout.Page) {
 		e.Name = e.Job.FileName()
 	}
 	uniqueNames(p.Entries)
+	if p.bundle != "" {
+		p.nameBundles() // the page is in a bundle's name
+	}
 }
 
-// withPage is a copy of the entries printed on page (see SetPage); p is unchanged.
-func (p *Prepared) withPage(page layout.Page) []*Entry {
-	c := &Prepared{}
+// printedAs is a copy of the entries printed on page (see SetPage; nil: the
+// templates' pages) in bundles of mode (see SetBundle; "": none); p is unchanged.
+func (p *Prepared) printedAs(page *layout.Page, mode string) ([]*Entry, error) {
+	c := &Prepared{planName: p.planName}
 	for _, e := range p.Entries {
 		j := *e.Job
 		ce := *e
 		ce.Job = &j
 		c.Entries = append(c.Entries, &ce)
 	}
-	c.SetPage(page)
-	return c.Entries
+	if page != nil {
+		c.SetPage(*page)
+	}
+	if mode != "" {
+		if err := c.SetBundle(mode); err != nil {
+			return nil, err
+		}
+	}
+	return c.Entries, nil
 }
 
 // uniqueNames makes output names unique without regard to case (file systems that
@@ -234,13 +264,16 @@ func sameNames(es []*Entry) error {
 
 // JobResult is what happened to one job.
 type JobResult struct {
-	Entry    *Entry
-	Written  bool // the PDF is in place, whole
-	Pages    int
-	Ends     []cards.EndSummary
-	SHA256   string
-	Err      error
-	Canceled bool
+	Entry   *Entry
+	Written bool // the PDF is in place, whole
+	Pages   int  // pages of the PDF the entry's cards are on
+	// FilePages is the number of pages of the whole file: Pages, or in a bundle
+	// the bundle's.
+	FilePages int
+	Ends      []cards.EndSummary
+	SHA256    string
+	Err       error
+	Canceled  bool
 	// Time spent per stage (see cards.Rendered).
 	Compute, Layout, PDFTime time.Duration
 }
@@ -325,7 +358,7 @@ func (p *Prepared) Run(ctx context.Context, opts Options) *Summary {
 	switch {
 	case errors.Is(err, errOldIndex):
 		s.Notes = append(s.Notes, fmt.Sprintf("%s was written by an earlier kneeprint: replaced by one listing only the cards of this run", filepath.Join(p.Dir, IndexName)))
-		idx = &rawIndex{lines: map[string][]byte{}}
+		idx = &rawIndex{lines: map[string][][]byte{}}
 	case err != nil:
 		s.RunErr = fmt.Errorf("%w: nothing written", err)
 		return s
@@ -343,6 +376,14 @@ func (p *Prepared) Run(ctx context.Context, opts Options) *Summary {
 	newFonts := p.newFonts
 	if newFonts == nil {
 		newFonts = layout.NewFonts
+	}
+	if p.bundle != "" {
+		p.runBundles(ctx, s.Workers, s, newFonts, opts.Progress)
+		if opts.Progress != nil {
+			opts.Progress.Finish()
+		}
+		s.IndexErr = idx.update(p.Dir, p.Entries, s.Results)
+		return s
 	}
 	jobs := make(chan int)
 	var mu sync.Mutex
@@ -437,7 +478,7 @@ func (p *Prepared) runOne(ctx context.Context, e *Entry, fonts *layout.Fonts) Jo
 		}
 		return r
 	}
-	r.Written, r.Pages, r.Ends, r.SHA256 = true, pages, sums, sha256Hex(data)
+	r.Written, r.Pages, r.FilePages, r.Ends, r.SHA256 = true, pages, pages, sums, sha256Hex(data)
 	return r
 }
 
@@ -469,23 +510,27 @@ func (s *Summary) WriteSummary(w io.Writer) {
 	files, pages, canceled, notMade := 0, 0, 0, 0
 	var failed, flagged []string
 	empty := s.Empty()
+	written := map[string]bool{} // a bundle is one file of several entries
 	for _, r := range s.Results {
 		switch {
 		case r.Written:
-			files++
-			pages += r.Pages
+			if !written[r.Entry.File()] {
+				written[r.Entry.File()] = true
+				files++
+				pages += r.FilePages
+			}
 			flagged = append(flagged, flaggedEnds(r)...)
 		case r.Canceled:
 			canceled++
 		case r.Err != nil:
-			failed = append(failed, fmt.Sprintf("%s: %v", r.Entry.Name, r.Err))
+			failed = append(failed, fmt.Sprintf("%s: %v", r.Entry.label(), r.Err))
 		default:
 			notMade++
 		}
 	}
 	fmt.Fprintf(w, "\n%d card file(s), %d card page(s) written to %s in %.1f s\n", files, pages, s.Dir, s.Elapsed.Seconds())
 	if len(flagged) > 0 {
-		sort.Strings(flagged)
+		sortListed(flagged)
 		fmt.Fprintf(w, "card sides with no-go or beyond-limit cells, or without an LDA (%d):\n", len(flagged))
 		for _, f := range flagged {
 			fmt.Fprintf(w, "  %s\n", f)
@@ -530,6 +575,24 @@ func pageID(e cards.EndSummary) string {
 	return e.Designator
 }
 
+// label names an entry in messages: its file, or in a bundle the bundle, the
+// aircraft and the airfield.
+func (e *Entry) label() string {
+	if e.Bundle == "" {
+		return e.Name
+	}
+	return fmt.Sprintf("%s, %s at %s", e.Bundle, e.Job.Aircraft.Name, e.Job.Airfield.Ident)
+}
+
+// cardRef names a card page of a written entry in the summary: "FILE runway 15
+// wet", or in a bundle "BUNDLE pages 13-14, AIRCRAFT at IDENT, runway 15 wet".
+func cardRef(r JobResult, e cards.EndSummary) string {
+	if r.Entry.Bundle == "" {
+		return r.Entry.Name + " runway " + pageID(e)
+	}
+	return fmt.Sprintf("%s pages %s, %s at %s, runway %s", r.Entry.Bundle, pagesText(e.PDFPages), r.Entry.Job.Aircraft.Name, r.Entry.Job.Airfield.Ident, pageID(e))
+}
+
 // Empty lists the card pages written on which no cell has a figure (a pressure
 // altitude above the table, every cell past a limit...), with the reason: such a
 // card must never be printed quietly.
@@ -541,15 +604,44 @@ func (s *Summary) Empty() []string {
 		}
 		for _, e := range r.Ends {
 			if e.Empty {
-				out = append(out, fmt.Sprintf("%s runway %s: %s", r.Entry.Name, pageID(e), e.EmptyWhy))
+				out = append(out, fmt.Sprintf("%s: %s", cardRef(r, e), e.EmptyWhy))
 			}
 			if e.LandingEmpty {
-				out = append(out, fmt.Sprintf("%s runway %s, landing side: %s", r.Entry.Name, pageID(e), e.LandingEmptyWhy))
+				out = append(out, fmt.Sprintf("%s, landing side: %s", cardRef(r, e), e.LandingEmptyWhy))
 			}
 		}
 	}
-	sort.Strings(out)
+	sortListed(out)
 	return out
+}
+
+// sortListed sorts the summary's lines of card pages: by name, and a bundle's by
+// its pages ("FILE pages 9-10, ..." before "FILE pages 11-12, ...").
+func sortListed(lines []string) {
+	key := func(l string) (string, int, string) {
+		if file, rest, ok := strings.Cut(l, " pages "); ok {
+			n := 0
+			for _, r := range rest {
+				if r < '0' || r > '9' {
+					break
+				}
+				n = n*10 + int(r-'0')
+			}
+			return file, n, l
+		}
+		return l, 0, l
+	}
+	sort.SliceStable(lines, func(i, j int) bool {
+		fi, pi, li := key(lines[i])
+		fj, pj, lj := key(lines[j])
+		if fi != fj {
+			return fi < fj
+		}
+		if pi != pj {
+			return pi < pj
+		}
+		return li < lj
+	})
 }
 
 // flaggedEnds lists a written card file's pages with no-go or beyond-limit cells.
@@ -557,13 +649,13 @@ func flaggedEnds(r JobResult) []string {
 	var out []string
 	for _, e := range r.Ends {
 		if e.Counts[perf.NoGo] > 0 || e.Counts[perf.BeyondLimits] > 0 {
-			out = append(out, fmt.Sprintf("%s runway %s: %d no-go, %d beyond-limits cells", r.Entry.Name, pageID(e), e.Counts[perf.NoGo], e.Counts[perf.BeyondLimits]))
+			out = append(out, fmt.Sprintf("%s: %d no-go, %d beyond-limits cells", cardRef(r, e), e.Counts[perf.NoGo], e.Counts[perf.BeyondLimits]))
 		}
 		if e.LandingCounts[perf.NoGo] > 0 || e.LandingCounts[perf.BeyondLimits] > 0 {
-			out = append(out, fmt.Sprintf("%s runway %s, landing side: %d no-go, %d beyond-limits cells", r.Entry.Name, pageID(e), e.LandingCounts[perf.NoGo], e.LandingCounts[perf.BeyondLimits]))
+			out = append(out, fmt.Sprintf("%s, landing side: %d no-go, %d beyond-limits cells", cardRef(r, e), e.LandingCounts[perf.NoGo], e.LandingCounts[perf.BeyondLimits]))
 		}
 		if e.NoLDA {
-			out = append(out, fmt.Sprintf("%s runway %s, landing side: no LDA declared, no landing figure", r.Entry.Name, pageID(e)))
+			out = append(out, fmt.Sprintf("%s, landing side: no LDA declared, no landing figure", cardRef(r, e)))
 		}
 	}
 	return out

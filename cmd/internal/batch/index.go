@@ -57,11 +57,15 @@ type indexHeader struct {
 
 const indexKind = "kneeprint-index"
 
-// IndexCard is one card file.
+// IndexCard is one card file, or one aircraft x airfield pair of a bundle (cards
+// --bundle): a bundle has a line per pair, each naming the bundle's file, the
+// bundle mode and the pair (Part).
 type IndexCard struct {
 	File         string     `json:"file"`
+	Bundle       string     `json:"bundle,omitempty"` // "airfield" or "plan": File is a bundle
+	Part         string     `json:"part,omitempty"`   // in a bundle: the name the pair's file has on its own
 	SHA256       string     `json:"sha256"`
-	Pages        int        `json:"pages"`
+	Pages        int        `json:"pages"` // of the file
 	Aircraft     Component  `json:"aircraft"`
 	Airfield     Component  `json:"airfield"`
 	Template     Component  `json:"template"`
@@ -97,6 +101,9 @@ type IndexEnd struct {
 	// LandingStates counts the cells of the card's landing side by state; absent
 	// when the card has none.
 	LandingStates map[string]int `json:"landing_states,omitempty"`
+	// PDFPages are, in a bundle, the pages of its file the card is printed on
+	// (takeoff side, then landing side); absent outside a bundle.
+	PDFPages []int `json:"pdf_pages,omitempty"`
 }
 
 // aircraftKey hashes what of a profile counts for its cards: all of it but its type
@@ -138,7 +145,7 @@ func readIndex(dir string, fn func(c *IndexCard, raw []byte)) error {
 	sc := bufio.NewScanner(f)
 	sc.Buffer(make([]byte, 0, 64<<10), MaxIndexLineBytes+1)
 	line := 0
-	seen := map[string]int{}
+	seen := map[string]int{} // by file and part: a bundle's file has a line per pair
 	for sc.Scan() {
 		line++
 		raw := sc.Bytes()
@@ -167,10 +174,18 @@ func readIndex(dir string, fn func(c *IndexCard, raw []byte)) error {
 		if c.File == "" || c.File != filepath.Base(c.File) || strings.HasPrefix(c.File, ".") {
 			return fmt.Errorf("%s:%d: %q is not a card file name", path, line, c.File)
 		}
-		if prev, dup := seen[c.File]; dup {
-			return fmt.Errorf("%s:%d: %s is listed twice (first at line %d)", path, line, c.File, prev)
+		if (c.Bundle == "") != (c.Part == "") {
+			return fmt.Errorf("%s:%d: %s: a bundle's line names its bundle mode and its part, a card file's neither", path, line, c.File)
 		}
-		seen[c.File] = line
+		k := c.File + "\x00" + c.Part
+		if prev, dup := seen[k]; dup {
+			what := c.File
+			if c.Part != "" {
+				what += " (" + c.Part + ")"
+			}
+			return fmt.Errorf("%s:%d: %s is listed twice (first at line %d)", path, line, what, prev)
+		}
+		seen[k] = line
 		fn(&c, raw)
 	}
 	if err := sc.Err(); err != nil {
@@ -195,27 +210,33 @@ func ReadIndex(dir string) (*Index, error) {
 	return idx, nil
 }
 
-// rawIndex is an index as read for an update: each card file's line as written.
+// rawIndex is an index as read for an update: each card file's lines as written
+// (one, or a bundle's one per pair).
 type rawIndex struct {
-	lines map[string][]byte
+	lines map[string][][]byte
 }
 
 // readIndexForUpdate reads dir's index, keeping its lines; none gives an empty one.
 func readIndexForUpdate(dir string) (*rawIndex, error) {
-	idx := &rawIndex{lines: map[string][]byte{}}
-	err := readIndex(dir, func(c *IndexCard, raw []byte) { idx.lines[c.File] = bytes.Clone(raw) })
+	idx := &rawIndex{lines: map[string][][]byte{}}
+	err := readIndex(dir, func(c *IndexCard, raw []byte) { idx.lines[c.File] = append(idx.lines[c.File], bytes.Clone(raw)) })
 	if isNotExist(err) {
 		return idx, nil
 	}
 	return idx, err
 }
 
-// countWith is how many card files the index lists once entries are added.
+// countWith is how many lines the index has once entries are written: those of
+// the files they do not write, and one per entry.
 func (x *rawIndex) countWith(entries []*Entry) int {
-	n := len(x.lines)
+	writes := map[string]bool{}
 	for _, e := range entries {
-		if _, ok := x.lines[e.Name]; !ok {
-			n++
+		writes[e.File()] = true
+	}
+	n := len(entries)
+	for f, ls := range x.lines {
+		if !writes[f] {
+			n += len(ls)
 		}
 	}
 	return n
@@ -248,18 +269,70 @@ func sourceFrom(dir, src string) string {
 	return filepath.Join(dir, filepath.FromSlash(src))
 }
 
-func entryCard(dir string, e *Entry, r JobResult) IndexCard {
+// indexHashes keeps what the index lines of one run share: the hash of each
+// aircraft and runway end (twenty aircraft at one airfield hash its ends once, not
+// twenty times) and each source as recorded. An index update is serial, after the
+// cards are made.
+type indexHashes struct {
+	aircraft map[*perf.Aircraft]string
+	ends     map[endRef]string
+	sources  map[string]string
+}
+
+// endRef is a runway end of a loaded airfield: designators are unique in a file.
+type endRef struct {
+	f *perf.Airfield
+	d string
+}
+
+func newIndexHashes() *indexHashes {
+	return &indexHashes{aircraft: map[*perf.Aircraft]string{}, ends: map[endRef]string{}, sources: map[string]string{}}
+}
+
+func (h *indexHashes) aircraftKey(a *perf.Aircraft) string {
+	k, ok := h.aircraft[a]
+	if !ok {
+		k = aircraftKey(a)
+		h.aircraft[a] = k
+	}
+	return k
+}
+
+func (h *indexHashes) endHash(f *perf.Airfield, e perf.RunwayEnd) string {
+	r := endRef{f, e.Designator}
+	k, ok := h.ends[r]
+	if !ok {
+		k = cards.EndHash(f, e)
+		h.ends[r] = k
+	}
+	return k
+}
+
+func (h *indexHashes) relSource(dir, src string) string {
+	k, ok := h.sources[src]
+	if !ok {
+		k = relSource(dir, src)
+		h.sources[src] = k
+	}
+	return k
+}
+
+func entryCard(dir string, e *Entry, r JobResult, h *indexHashes) IndexCard {
 	j := e.Job
 	c := IndexCard{
-		File: e.Name, SHA256: r.SHA256, Pages: r.Pages,
-		Aircraft: Component{relSource(dir, e.AircraftSrc), j.Aircraft.Name, aircraftKey(j.Aircraft)},
-		Airfield: Component{relSource(dir, e.AirfieldSrc), j.Airfield.Ident, ""},
-		Template: Component{relSource(dir, e.TemplateSrc), j.Template.Name, templateKey(j.Template, j.Page)},
+		File: e.File(), SHA256: r.SHA256, Pages: r.FilePages,
+		Aircraft: Component{h.relSource(dir, e.AircraftSrc), j.Aircraft.Name, h.aircraftKey(j.Aircraft)},
+		Airfield: Component{h.relSource(dir, e.AirfieldSrc), j.Airfield.Ident, ""},
+		Template: Component{h.relSource(dir, e.TemplateSrc), j.Template.Name, templateKey(j.Template, j.Page)},
 		Policy:   j.Template.Policy, Unit: j.Template.Unit, Page: j.Page.Name, PageOverride: e.PageOverride,
 		Version: j.Version, Date: j.Date.Format("2006-01-02"), ValidUntil: j.ValidUntil.Format("2006-01-02"),
 	}
 	if j.Sheet != nil {
 		c.Sheet = j.Sheet.Name
+	}
+	if e.Bundle != "" {
+		c.Part = e.Name
+		c.Bundle = e.bundleMode
 	}
 	for _, s := range r.Ends {
 		st := map[string]int{}
@@ -267,7 +340,7 @@ func entryCard(dir string, e *Entry, r JobResult) IndexCard {
 			st[k.String()] = v
 		}
 		ie := IndexEnd{Page: pageID(s), Designator: s.Designator, Fingerprint: s.Fingerprint,
-			EndHash: cards.EndHash(j.Airfield, s.End), End: s.End, States: st}
+			EndHash: h.endHash(j.Airfield, s.End), End: s.End, States: st, PDFPages: s.PDFPages}
 		if s.Landing {
 			ie.LandingStates = map[string]int{}
 			for k, v := range s.LandingCounts {
@@ -279,27 +352,35 @@ func entryCard(dir string, e *Entry, r JobResult) IndexCard {
 	return c
 }
 
-// update merges a run's results into the index and writes it atomically: cards
-// written replace their old lines, lines whose file is gone are dropped. A folder
-// with no index and no card written gets none.
+// update merges a run's results into the index and writes it atomically: the lines
+// of every file written replace its old ones (a bundle's, all of them), lines whose
+// file is gone are dropped. A folder with no index and no card written gets none.
 func (x *rawIndex) update(dir string, entries []*Entry, results []JobResult) error {
 	written := false
 	var tooLong []string
+	fresh := map[string][][]byte{}
+	h := newIndexHashes()
 	for i, r := range results {
 		if !r.Written {
 			continue
 		}
-		line, err := json.Marshal(entryCard(dir, entries[i], r))
+		f := entries[i].File()
+		line, err := json.Marshal(entryCard(dir, entries[i], r, h))
 		if err != nil {
 			return err
 		}
+		if _, ok := fresh[f]; !ok {
+			fresh[f] = [][]byte{} // written: its old lines go, even if none of its new ones fits
+		}
 		if len(line) > MaxIndexLineBytes {
-			tooLong = append(tooLong, entries[i].Name)
-			delete(x.lines, entries[i].Name)
+			tooLong = append(tooLong, entries[i].label())
 			continue
 		}
-		x.lines[entries[i].Name] = line
+		fresh[f] = append(fresh[f], line)
 		written = true
+	}
+	for f, ls := range fresh {
+		x.lines[f] = ls
 	}
 	old := filepath.Join(dir, oldIndexName)
 	_, oldErr := os.Lstat(old)
@@ -318,8 +399,10 @@ func (x *rawIndex) update(dir string, entries []*Entry, results []JobResult) err
 	buf.Write(head)
 	buf.WriteByte('\n')
 	for _, name := range names {
-		buf.Write(x.lines[name])
-		buf.WriteByte('\n')
+		for _, l := range x.lines[name] {
+			buf.Write(l)
+			buf.WriteByte('\n')
+		}
 	}
 	if err := cards.WriteAtomic(filepath.Join(dir, IndexName), buf.Bytes()); err != nil {
 		return err

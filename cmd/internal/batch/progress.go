@@ -36,11 +36,11 @@ func (p *progress) Done(r JobResult) {
 	}
 	switch {
 	case r.Canceled:
-		fmt.Fprintf(p.w, "[%d/%d] not made (interrupted): %s\n", p.done, p.total, r.Entry.Name)
+		fmt.Fprintf(p.w, "[%d/%d] not made (interrupted): %s\n", p.done, p.total, r.Entry.label())
 	case r.Err != nil:
-		fmt.Fprintf(p.w, "[%d/%d] FAILED %s: %v\n", p.done, p.total, r.Entry.Name, firstLine(r.Err.Error()))
+		fmt.Fprintf(p.w, "[%d/%d] FAILED %s: %v\n", p.done, p.total, r.Entry.label(), firstLine(r.Err.Error()))
 	default:
-		fmt.Fprintf(p.w, "[%d/%d] wrote %s (%d page(s))\n", p.done, p.total, r.Entry.Name, r.Pages)
+		fmt.Fprintf(p.w, "[%d/%d] wrote %s (%d page(s))\n", p.done, p.total, r.Entry.label(), r.Pages)
 	}
 }
 

@@ -23,13 +23,33 @@ import (
 // StaleCard is one printed card (one page of one card file) that no longer matches
 // its inputs, or is past its valid-until date, and why.
 type StaleCard struct {
-	File       string   `json:"file"`
-	Page       string   `json:"page"` // the card's identity within its file
+	File string `json:"file"`
+	// In a bundle (cards --bundle): the pair the card belongs to (the name its file
+	// has on its own), its aircraft and airfield, and the bundle's pages the card is
+	// printed on (takeoff side, then landing side; none when it was never printed).
+	Part       string   `json:"part,omitempty"`
+	Aircraft   string   `json:"aircraft,omitempty"`
+	Airfield   string   `json:"airfield,omitempty"`
+	PDFPages   []int    `json:"pdf_pages,omitempty"`
+	Page       string   `json:"page"` // the card's identity within its file (and part)
 	Designator string   `json:"designator"`
 	ValidUntil string   `json:"valid_until,omitempty"`
 	Expired    bool     `json:"expired"`
 	Reasons    []string `json:"reasons"`
 }
+
+// staleIn is a stale card of index line c: its file, and its part in a bundle.
+func staleIn(c IndexCard) StaleCard {
+	sc := StaleCard{File: c.File}
+	if c.Part != "" {
+		sc.Part, sc.Aircraft, sc.Airfield = c.Part, c.Aircraft.Name, c.Airfield.Name
+	}
+	return sc
+}
+
+// partKey identifies an index line, and the planned entry it is compared with: a
+// card file, or a bundle's pair.
+func partKey(file, part string) string { return file + "\x00" + part }
 
 // StaleReport is the outcome of a stale check.
 type StaleReport struct {
@@ -75,7 +95,7 @@ func Stale(dir string, plan *spec.Plan, planDir, version string, today time.Time
 	loaded := map[string]current{}
 	lookup := func(c IndexCard) current {
 		if planned != nil {
-			e, ok := planned[c.File]
+			e, ok := planned[partKey(c.File, c.Part)]
 			if !ok {
 				return current{err: errors.New("the plan no longer makes this card file (or could not read its inputs)")}
 			}
@@ -111,7 +131,7 @@ func Stale(dir string, plan *spec.Plan, planDir, version string, today time.Time
 	day := today.Format("2006-01-02")
 	seen := map[string]bool{}
 	for _, c := range idx.Cards {
-		seen[c.File] = true
+		seen[partKey(c.File, c.Part)] = true
 		var fileReasons []string
 		sum, err := fileSHA256(filepath.Join(dir, c.File))
 		switch {
@@ -179,37 +199,58 @@ func Stale(dir string, plan *spec.Plan, planDir, version string, today time.Time
 				if page == "" {
 					page = ie.Designator
 				}
-				rep.Stale = append(rep.Stale, StaleCard{File: c.File, Page: page, Designator: ie.Designator,
-					ValidUntil: c.ValidUntil, Expired: expired, Reasons: reasons})
+				sc := staleIn(c)
+				sc.Page, sc.Designator, sc.ValidUntil, sc.Expired, sc.Reasons = page, ie.Designator, c.ValidUntil, expired, reasons
+				if c.Part != "" {
+					sc.PDFPages = ie.PDFPages
+				}
+				rep.Stale = append(rep.Stale, sc)
 			}
 		}
 		if cur.airfield != nil {
 			for _, e := range cur.airfield.Ends() {
 				if !had[e.Designator] {
-					rep.Stale = append(rep.Stale, StaleCard{File: c.File, Page: e.Designator, Designator: e.Designator,
-						Reasons: []string{fmt.Sprintf("runway end %s is in %s but has no card", e.Designator, cur.airfieldSrc)}})
+					sc := staleIn(c)
+					sc.Page, sc.Designator = e.Designator, e.Designator
+					sc.Reasons = []string{fmt.Sprintf("runway end %s is in %s but has no card", e.Designator, cur.airfieldSrc)}
+					rep.Stale = append(rep.Stale, sc)
 				}
 			}
 		}
 	}
-	for name, e := range planned {
-		if !seen[name] {
+	for key, e := range planned {
+		if !seen[key] {
 			for _, end := range e.Job.Airfield.Ends() {
-				rep.Stale = append(rep.Stale, StaleCard{File: name, Page: end.Designator, Designator: end.Designator, Reasons: []string{"in the plan but never printed"}})
+				sc := StaleCard{File: e.File(), Page: end.Designator, Designator: end.Designator, Reasons: []string{"in the plan but never printed"}}
+				if e.Bundle != "" {
+					sc.Part, sc.Aircraft, sc.Airfield = e.Name, e.Job.Aircraft.Name, e.Job.Airfield.Ident
+				}
+				rep.Stale = append(rep.Stale, sc)
 			}
 		}
 	}
 	sort.Slice(rep.Stale, func(i, j int) bool {
-		if rep.Stale[i].File != rep.Stale[j].File {
-			return rep.Stale[i].File < rep.Stale[j].File
+		a, b := rep.Stale[i], rep.Stale[j]
+		if a.File != b.File {
+			return a.File < b.File
 		}
-		return rep.Stale[i].Page < rep.Stale[j].Page
+		if (len(a.PDFPages) > 0) != (len(b.PDFPages) > 0) {
+			return len(a.PDFPages) > 0 // printed before never printed
+		}
+		if len(a.PDFPages) > 0 && a.PDFPages[0] != b.PDFPages[0] {
+			return a.PDFPages[0] < b.PDFPages[0] // a bundle's cards in page order
+		}
+		if a.Part != b.Part {
+			return a.Part < b.Part
+		}
+		return a.Page < b.Page
 	})
 	return rep, nil
 }
 
-// plannedEntries is what the plan makes now, by file name: printed on the page of
-// each template, and on every page the index records as given with cards --page.
+// plannedEntries is what the plan makes now, by file and part (partKey): printed on
+// the page of each template, and on every page the index records as given with
+// cards --page, in every bundle mode the index records (cards --bundle).
 func plannedEntries(plan *spec.Plan, planDir, dir, version string, idx *Index, rep *StaleReport) (map[string]*Entry, error) {
 	prep, err := Prepare(plan, planDir, dir, version, true)
 	if err != nil {
@@ -218,26 +259,36 @@ func plannedEntries(plan *spec.Plan, planDir, dir, version string, idx *Index, r
 	for _, e := range prep.InputErrors {
 		rep.Errors = append(rep.Errors, e.Error())
 	}
-	pages := map[string]bool{}
+	ways := map[string]bool{} // page override and bundle mode, as the index records them
 	for _, c := range idx.Cards {
-		pages[c.PageOverride] = true
+		ways[c.PageOverride+"\x00"+c.Bundle] = true
 	}
-	if len(pages) == 0 {
-		pages[""] = true
+	if len(ways) == 0 {
+		ways["\x00"] = true
 	}
 	planned := map[string]*Entry{}
-	for _, name := range sortedKeys(pages) {
-		es := prep.Entries
+	for _, way := range sortedKeys(ways) {
+		name, mode, _ := strings.Cut(way, "\x00")
+		var page *layout.Page
 		if name != "" {
-			page, err := layout.PageByName(name)
+			pg, err := layout.PageByName(name)
 			if err != nil {
 				rep.Errors = append(rep.Errors, fmt.Sprintf("%s: page %q of cards --page: %v", IndexName, name, err))
 				continue
 			}
-			es = prep.withPage(page)
+			page = &pg
+		}
+		es, err := prep.printedAs(page, mode)
+		if err != nil {
+			rep.Errors = append(rep.Errors, fmt.Sprintf("%s: bundle %q of cards --bundle: %v", IndexName, mode, err))
+			continue
 		}
 		for _, e := range es {
-			planned[e.Name] = e
+			part := ""
+			if e.Bundle != "" {
+				part = e.Name
+			}
+			planned[partKey(e.File(), part)] = e
 		}
 	}
 	return planned, nil
@@ -278,7 +329,14 @@ func (r *StaleReport) WriteText(w io.Writer) error {
 	} else {
 		fmt.Fprintf(b, "%s: %d card(s) no longer match their inputs (of %d checked):\n", r.Dir, len(r.Stale), r.Checked)
 		for _, s := range r.Stale {
-			fmt.Fprintf(b, "  %s  runway %s\n", s.File, s.Page)
+			switch {
+			case s.Part == "":
+				fmt.Fprintf(b, "  %s  runway %s\n", s.File, s.Page)
+			case len(s.PDFPages) == 0:
+				fmt.Fprintf(b, "  %s  %s at %s, runway %s\n", s.File, s.Aircraft, s.Airfield, s.Page)
+			default:
+				fmt.Fprintf(b, "  %s  pages %s: %s at %s, runway %s\n", s.File, pagesText(s.PDFPages), s.Aircraft, s.Airfield, s.Page)
+			}
 			for _, why := range s.Reasons {
 				fmt.Fprintf(b, "      - %s\n", why)
 			}

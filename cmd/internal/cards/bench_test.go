@@ -2,6 +2,7 @@ package cards
 
 import (
 	"testing"
+	"time"
 
 	"kneeprint/layout"
 )
@@ -54,4 +55,34 @@ func BenchmarkCardDataFourEnds(b *testing.B) {
 			}
 		}
 	}
+}
+
+// BenchmarkComputeDemo computes every page of every demo card file, both sides (the
+// four demo files: 20 takeoff pages and their landing sides), from fresh jobs, as a
+// batch does before layout: grids, accelerate checks, obstacles and card data. It
+// reports the share of the time spent in perf (compute-%), the part of a batch
+// issue 15 wants under 10 %.
+func BenchmarkComputeDemo(b *testing.B) {
+	jobs := demoJobs(b, "a5")
+	b.ReportAllocs()
+	b.ResetTimer()
+	var compute time.Duration
+	for i := 0; i < b.N; i++ {
+		for _, j := range jobs {
+			jj := *j
+			jj.model, jj.landingModel, jj.computeTime = nil, nil, 0
+			for _, e := range jj.Airfield.Ends() {
+				for _, c := range jj.Conditions(e) {
+					if _, _, err := jj.Card(e, c); err != nil {
+						b.Fatal(err)
+					}
+					if _, _, err := jj.LandingCard(e, c); err != nil {
+						b.Fatal(err)
+					}
+				}
+			}
+			compute += jj.computeTime
+		}
+	}
+	b.ReportMetric(100*float64(compute)/float64(b.Elapsed()), "compute-%")
 }

@@ -108,6 +108,9 @@ type EndSummary struct {
 	LandingEmpty    bool
 	LandingEmptyWhy string
 	NoLDA           bool
+	// PDFPages are the pages of a bundle (cards --bundle) the card is printed on:
+	// its takeoff side, then its landing side when it has one; nil outside a bundle.
+	PDFPages []int
 }
 
 // Result is what a job wrote.
@@ -600,12 +603,28 @@ type Rendered struct {
 	Compute, Layout, PDFTime time.Duration
 }
 
-// Render computes every runway end and writes one PDF of all their cards.
-func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
-	out := &Rendered{}
+// Laid is a job's cards laid out: the card models its PDF is drawn from, in print
+// order (each takeoff side followed by its landing side when the card has one), and
+// what went into them.
+type Laid struct {
+	Job *Job
+	// Part names the job in a bundle: the name its card file has on its own.
+	Part  string
+	Cards []*layout.Card
+	Ends  []EndSummary
+	// first[i] is the index in Cards of end i's takeoff side.
+	first []int
+	// The card data of each takeoff page and its landing side, when Job.Data is set.
+	data    []layout.CardData
+	landing map[int]layout.CardData
+	// Time spent computing and laying out (see Rendered).
+	Compute, Layout time.Duration
+}
+
+// Lay computes every runway end and lays out its cards: everything but the PDF.
+func (j *Job) Lay(fonts *layout.Fonts) (*Laid, error) {
+	out := &Laid{Job: j}
 	j.computeTime = 0
-	var cs []*layout.Card
-	var data []layout.CardData
 	landing := map[int]layout.CardData{} // page index in data -> its landing side
 	for _, e := range j.Airfield.Ends() {
 		for _, cond := range j.Conditions(e) {
@@ -625,7 +644,7 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 				d.SamePage = &ld
 				sum.recordLanding(ld, lg)
 				if j.Data {
-					landing[len(data)] = ld
+					landing[len(out.data)] = ld
 				}
 			}
 			c, err := layout.Build(d, j.Page, fonts)
@@ -640,7 +659,8 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 				return nil, fmt.Errorf("card %s %s: layout check failed: %v%s", j.Airfield.Ident, id, probs, more)
 			}
 			out.Layout += time.Since(t0)
-			cs = append(cs, c)
+			out.first = append(out.first, len(out.Cards))
+			out.Cards = append(out.Cards, c)
 			for _, blk := range g.Cells {
 				for _, row := range blk {
 					for _, c := range row {
@@ -649,7 +669,7 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 				}
 			}
 			if j.Data {
-				data = append(data, d)
+				out.data = append(out.data, d)
 			}
 			if j.HasLandingSide() {
 				t0 := time.Now()
@@ -658,38 +678,53 @@ func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
 					return nil, err
 				}
 				out.Layout += time.Since(t0)
-				cs = append(cs, lc)
+				out.Cards = append(out.Cards, lc)
 				if j.Data {
-					landing[len(data)-1] = ld
+					landing[len(out.data)-1] = ld
 				}
 			}
 			out.Ends = append(out.Ends, sum)
 		}
 	}
 	if j.Data {
-		t0 := time.Now()
-		b, err := cardFileJSON(j, data, landing)
-		if err != nil {
-			return nil, err
-		}
-		out.Data = b
-		out.Layout += time.Since(t0)
+		out.landing = landing
 	}
 	out.Compute = j.computeTime
 	out.Layout -= j.computeTime
+	return out, nil
+}
+
+// Render computes every runway end and writes one PDF of all their cards.
+func (j *Job) Render(fonts *layout.Fonts) (*Rendered, error) {
+	l, err := j.Lay(fonts)
+	if err != nil {
+		return nil, err
+	}
+	out := &Rendered{Ends: l.Ends, Compute: l.Compute, Layout: l.Layout}
+	if j.Data {
+		t0 := time.Now()
+		f, err := l.cardFile()
+		if err != nil {
+			return nil, err
+		}
+		if out.Data, err = encodeData(f); err != nil {
+			return nil, err
+		}
+		out.Layout += time.Since(t0)
+	}
 	t0 := time.Now()
 	var buf bytes.Buffer
 	opt := layout.RenderOptions{Sheet: j.Sheet, Compress: j.Compress, Date: j.Date, Duplex: j.HasLandingSide(),
 		Title: fmt.Sprintf("kneeprint cards: %s at %s", j.Aircraft.Name, j.Airfield.Name), Author: "kneeprint " + j.Version,
 		Fonts: fonts}
-	if err := layout.RenderPDF(&buf, cs, opt); err != nil {
+	if err := layout.RenderPDF(&buf, l.Cards, opt); err != nil {
 		return nil, err
 	}
 	out.PDFTime = time.Since(t0)
 	out.PDF = buf.Bytes()
-	out.Pages = len(cs)
+	out.Pages = len(l.Cards)
 	if j.Sheet != nil {
-		out.Pages = (len(cs) + 1) / 2
+		out.Pages = (len(l.Cards) + 1) / 2
 	}
 	return out, nil
 }

@@ -3,6 +3,7 @@ package cards
 import (
 	"bytes"
 	"encoding/json"
+	"errors"
 
 	"kneeprint/layout"
 )
@@ -27,6 +28,9 @@ type CardFile struct {
 	Caution     string     `json:"caution"`
 	Pages       []DataPage `json:"pages"`
 	OmittedMass []float64  `json:"weights_not_on_card"`
+	// Part is, in a bundle's card data (CardBundle), the name this card file has on
+	// its own; absent otherwise.
+	Part string `json:"part,omitempty"`
 }
 
 // DataPage is one card page: one runway end in one condition.
@@ -64,6 +68,9 @@ type DataPage struct {
 	Climb            *DataClimb     `json:"climb"`
 	// Landing is the card's landing side (the back), null when it has none.
 	Landing *DataLanding `json:"landing"`
+	// PDFPages are, in a bundle's card data, the pages of the bundle this card is
+	// printed on (takeoff side, then landing side); absent otherwise.
+	PDFPages []int `json:"pdf_pages,omitempty"`
 }
 
 // DataObstacle is one obstacle as printed: height in feet, distances in the card's unit.
@@ -158,11 +165,31 @@ func num(x float64) *float64 { return &x }
 
 // CardFileJSON is job j's card data, pages as computed, in JSON.
 func CardFileJSON(j *Job, pages []layout.CardData) ([]byte, error) {
-	return cardFileJSON(j, pages, nil)
+	return encodeData(cardFile(j, pages, nil))
 }
 
-// cardFileJSON is CardFileJSON with the landing side of page i in landing[i].
-func cardFileJSON(j *Job, pages []layout.CardData, landing map[int]layout.CardData) ([]byte, error) {
+// cardFile is the card data of a laid-out job.
+func (l *Laid) cardFile() (CardFile, error) {
+	if l.data == nil && len(l.Ends) > 0 {
+		return CardFile{}, errors.New("card data asked of a job laid out without it (Job.Data)")
+	}
+	return cardFile(l.Job, l.data, l.landing), nil
+}
+
+// encodeData writes card data as indented JSON, characters as they are.
+func encodeData(v any) ([]byte, error) {
+	var buf bytes.Buffer
+	enc := json.NewEncoder(&buf)
+	enc.SetEscapeHTML(false)
+	enc.SetIndent("", "  ")
+	if err := enc.Encode(v); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
+}
+
+// cardFile is job j's card data with the landing side of page i in landing[i].
+func cardFile(j *Job, pages []layout.CardData, landing map[int]layout.CardData) CardFile {
 	f := CardFile{Format: DataFormat, Version: j.Version, Aircraft: j.Aircraft.Name, Airfield: j.Airfield.Name,
 		Ident: j.Airfield.Ident, Template: j.Template.Name, Policy: j.Template.Policy,
 		Generated: j.Date.Format("2006-01-02"), ValidUntil: j.ValidUntil.Format("2006-01-02"), Caution: Caution,
@@ -243,14 +270,7 @@ func cardFileJSON(j *Job, pages []layout.CardData, landing map[int]layout.CardDa
 		}
 		f.Pages = append(f.Pages, p)
 	}
-	var buf bytes.Buffer
-	enc := json.NewEncoder(&buf)
-	enc.SetEscapeHTML(false)
-	enc.SetIndent("", "  ")
-	if err := enc.Encode(f); err != nil {
-		return nil, err
-	}
-	return buf.Bytes(), nil
+	return f
 }
 
 // dataLanding is the JSON form of a landing side.
