@@ -210,6 +210,26 @@ func (c *Cell) Reasons() []string {
 	return out
 }
 
+// decide sets the cell's required and available distances from the requirement's
+// limiting check and its verdict from the figures as printed (rnd: required rounded
+// up, available down): no-go when the printed figure is longer than the printed
+// declared distance, tight when it fits with less than the margin to spare. The
+// takeoff and the landing decide alike.
+func (c *Cell) decide(req *Requirement, rnd Rounding, margin float64) {
+	c.RequiredM, c.AvailableM, c.Limiting = req.Limiting.RequiredM, req.Limiting.AvailableM, req.Limiting.Declared
+	c.HasDistance = true
+	c.ShownRequired, c.ShownAvailable, c.ShownUnit = rnd.Up(c.RequiredM), rnd.Down(c.AvailableM), rnd.UnitName()
+	r := reason{s: c.Limiting, a: c.ShownRequired, b: c.ShownAvailable, c: margin, unit: c.ShownUnit}
+	switch {
+	case c.ShownRequired > c.ShownAvailable:
+		r.kind = reasonNoGo
+		c.worsen(NoGo, r)
+	case c.ShownRequired*(1+margin) > c.ShownAvailable+1e-9:
+		r.kind = reasonTight
+		c.worsen(Tight, r)
+	}
+}
+
 func (c *Cell) worsen(s State, r reason) {
 	if s > c.State {
 		c.State = s
@@ -330,19 +350,7 @@ func (x *cellCtx) evaluateCell(k *Case, c *Cell) {
 	for _, n := range actual.Notes {
 		c.reasons = append(c.reasons, reason{s: n})
 	}
-	c.RequiredM, c.AvailableM, c.Limiting = req.Limiting.RequiredM, req.Limiting.AvailableM, req.Limiting.Declared
-	c.HasDistance = true
-	// The verdict follows the printed figures: required rounded up, available down.
-	c.ShownRequired, c.ShownAvailable, c.ShownUnit = k.Rounding.Up(c.RequiredM), k.Rounding.Down(c.AvailableM), k.Rounding.UnitName()
-	r := reason{s: c.Limiting, a: c.ShownRequired, b: c.ShownAvailable, c: k.TightMargin, unit: c.ShownUnit}
-	switch {
-	case c.ShownRequired > c.ShownAvailable:
-		r.kind = reasonNoGo
-		c.worsen(NoGo, r)
-	case c.ShownRequired*(1+k.TightMargin) > c.ShownAvailable+1e-9:
-		r.kind = reasonTight
-		c.worsen(Tight, r)
-	}
+	c.decide(req, k.Rounding, k.TightMargin)
 	if !climbInside && a.Climb != nil && a.Climb.Table != nil {
 		c.reasons = append(c.reasons, reason{kind: reasonClimbOutside, a: k.PressureAltM, b: k.TempK, c: k.MassKg})
 	}

@@ -132,18 +132,7 @@ func (x *landingCtx) evaluateCell(k *LandingCase, c *Cell) {
 	for _, n := range actual.Notes {
 		c.reasons = append(c.reasons, reason{s: n})
 	}
-	c.RequiredM, c.AvailableM, c.Limiting = req.Limiting.RequiredM, req.Limiting.AvailableM, req.Limiting.Declared
-	c.HasDistance = true
-	c.ShownRequired, c.ShownAvailable, c.ShownUnit = k.Rounding.Up(c.RequiredM), k.Rounding.Down(c.AvailableM), k.Rounding.UnitName()
-	r := reason{s: c.Limiting, a: c.ShownRequired, b: c.ShownAvailable, c: k.TightMargin, unit: c.ShownUnit}
-	switch {
-	case c.ShownRequired > c.ShownAvailable:
-		r.kind = reasonNoGo
-		c.worsen(NoGo, r)
-	case c.ShownRequired*(1+k.TightMargin) > c.ShownAvailable+1e-9:
-		r.kind = reasonTight
-		c.worsen(Tight, r)
-	}
+	c.decide(req, k.Rounding, k.TightMargin)
 }
 
 // land asks the landing model for cond (and, when the model covers surface or slope,

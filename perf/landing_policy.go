@@ -203,21 +203,9 @@ func (lp LandingPolicy) forEnd(e RunwayEnd) *landingEndRules {
 // requirement's rule and check are cut from a (nil: allocated).
 func (er *landingEndRules) require(actual, ref LandingResult, e RunwayEnd, a *arena, req *Requirement) {
 	fs, fsl := er.fs, er.fsl
-	uncovered := 1.0
-	if !actual.Covers.Surface {
-		uncovered *= fs.Value
-	}
-	if !actual.Covers.Slope {
-		uncovered *= fsl.Value
-	}
-	ld := actual.From50ftM * uncovered
-	if actual.Covers.Surface || actual.Covers.Slope {
-		if floor := ref.From50ftM * fs.Value * fsl.Value; floor > ld {
-			ld = floor
-		}
-	}
+	ld, floor := factored(actual.From50ftM, ref.From50ftM, actual.Covers, fs, fsl)
 	*req = Requirement{FactoredTODM: ld, Factors: [2]Factor{fs, fsl}, Caution: er.caution}
-	req.Floor = ld > actual.From50ftM*uncovered
+	req.Floor = floor
 	chk := Check{Declared: "LDA", Multiplier: er.lp.multiplier, RequiredM: er.lp.multiplier * ld, AvailableM: e.LDAM}
 	checks, rules := a.checks(1), a.rules(1)
 	checks[0] = chk

@@ -318,25 +318,38 @@ func (p Policy) forEnd(e RunwayEnd) *endRules {
 	return er
 }
 
+// factored applies a surface factor fs and a slope factor fsl to a model's distance d
+// once: an effect the model covers is not factored again, but the published factors
+// on the model's paved, dry, level figure ref stay a floor under its own (kneeprint's
+// own conservative rule, FloorRule):
+//
+//	max(d x factors of the effects not covered, ref x fs x fsl)
+//
+// floor reports whether the floor governed. The takeoff and the landing alike.
+func factored(d, ref float64, covers Effects, fs, fsl Factor) (out float64, floor bool) {
+	uncovered := 1.0
+	if !covers.Surface {
+		uncovered *= fs.Value
+	}
+	if !covers.Slope {
+		uncovered *= fsl.Value
+	}
+	out = d * uncovered
+	if covers.Surface || covers.Slope {
+		if f := ref * fs.Value * fsl.Value; f > out {
+			out = f
+		}
+	}
+	return out, out > d*uncovered
+}
+
 // require is Require with the end's rules worked out (er), writing into req; the
 // requirement's rules and checks are cut from a (nil: allocated).
 func (er *endRules) require(actual, ref Result, e RunwayEnd, a *arena, req *Requirement) {
 	fs, fsl := er.fs, er.fsl
-	uncovered := 1.0
-	if !actual.Covers.Surface {
-		uncovered *= fs.Value
-	}
-	if !actual.Covers.Slope {
-		uncovered *= fsl.Value
-	}
-	tod := actual.To50ftM * uncovered
-	if actual.Covers.Surface || actual.Covers.Slope {
-		if floor := ref.To50ftM * fs.Value * fsl.Value; floor > tod {
-			tod = floor
-		}
-	}
+	tod, floor := factored(actual.To50ftM, ref.To50ftM, actual.Covers, fs, fsl)
 	*req = Requirement{FactoredTODM: tod, Factors: [2]Factor{fs, fsl}, Caution: er.caution}
-	req.Floor = tod > actual.To50ftM*uncovered
+	req.Floor = floor
 	req.Rules = a.rules(len(er.rules))
 	checks := a.checks(er.checks)
 	for i, r := range er.rules {
