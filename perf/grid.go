@@ -230,6 +230,25 @@ func (c *Cell) decide(req *Requirement, rnd Rounding, margin float64) {
 	}
 }
 
+// limits marks the profile's limits the cell passes, takeoff and landing alike: a
+// tailwind (along the runway, negative: the gust for a tailwind) past max_tailwind,
+// a crosswind past a declared max_crosswind (beyond limits) or past the demonstrated
+// one (advisory: a reason, no state), a temperature past a declared operating limit.
+func (c *Cell) limits(a *Aircraft, along, tempK float64) {
+	if tail := -along; tail > a.MaxTailwindMS+1e-9 {
+		c.worsen(BeyondLimits, reason{kind: reasonTailwind, a: tail, b: a.MaxTailwindMS})
+	}
+	switch {
+	case a.HasMaxCrosswind && c.CrosswindMS > a.MaxCrosswindMS+1e-9:
+		c.worsen(BeyondLimits, reason{kind: reasonCrosswind, a: c.CrosswindMS, b: a.MaxCrosswindMS})
+	case a.DemonstratedCrosswindMS > 0 && c.CrosswindMS > a.DemonstratedCrosswindMS+1e-9:
+		c.reasons = append(c.reasons, reason{kind: reasonDemonstrated, a: c.CrosswindMS, b: a.DemonstratedCrosswindMS})
+	}
+	if (a.MaxTempK > 0 && tempK > a.MaxTempK+1e-9) || (a.MinTempK > 0 && tempK < a.MinTempK-1e-9) {
+		c.worsen(BeyondLimits, reason{kind: reasonTemperature, a: tempK, b: a.MinTempK, c: a.MaxTempK})
+	}
+}
+
 func (c *Cell) worsen(s State, r reason) {
 	if s > c.State {
 		c.State = s
@@ -285,18 +304,7 @@ func (x *cellCtx) evaluateCell(k *Case, c *Cell) {
 	// The along-runway wind for the tailwind limit and the distance: the gust for a
 	// tailwind, the steady wind for a headwind (Components.ForDistanceMS).
 	along := k.Wind.ForDistanceMS()
-	if tail := -along; tail > a.MaxTailwindMS+1e-9 {
-		c.worsen(BeyondLimits, reason{kind: reasonTailwind, a: tail, b: a.MaxTailwindMS})
-	}
-	switch {
-	case a.HasMaxCrosswind && c.CrosswindMS > a.MaxCrosswindMS+1e-9:
-		c.worsen(BeyondLimits, reason{kind: reasonCrosswind, a: c.CrosswindMS, b: a.MaxCrosswindMS})
-	case a.DemonstratedCrosswindMS > 0 && c.CrosswindMS > a.DemonstratedCrosswindMS+1e-9:
-		c.reasons = append(c.reasons, reason{kind: reasonDemonstrated, a: c.CrosswindMS, b: a.DemonstratedCrosswindMS})
-	}
-	if (a.MaxTempK > 0 && k.TempK > a.MaxTempK+1e-9) || (a.MinTempK > 0 && k.TempK < a.MinTempK-1e-9) {
-		c.worsen(BeyondLimits, reason{kind: reasonTemperature, a: k.TempK, b: a.MinTempK, c: a.MaxTempK})
-	}
+	c.limits(a, along, k.TempK)
 
 	if err := k.Policy.CheckSlope(k.End.SlopePct); err != nil { // no published correction
 		c.worsen(NoData, reason{s: err.Error()})

@@ -71,18 +71,7 @@ func (x *landingCtx) evaluateCell(k *LandingCase, c *Cell) {
 		c.worsen(BeyondLimits, reason{s: fmt.Sprintf("weight %s kg above the maximum landing mass %s kg", passedText(k.MassKg, mlm), limitText(mlm))})
 	}
 	along := k.Wind.ForDistanceMS()
-	if tail := -along; tail > a.MaxTailwindMS+1e-9 {
-		c.worsen(BeyondLimits, reason{kind: reasonTailwind, a: tail, b: a.MaxTailwindMS})
-	}
-	switch {
-	case a.HasMaxCrosswind && c.CrosswindMS > a.MaxCrosswindMS+1e-9:
-		c.worsen(BeyondLimits, reason{kind: reasonCrosswind, a: c.CrosswindMS, b: a.MaxCrosswindMS})
-	case a.DemonstratedCrosswindMS > 0 && c.CrosswindMS > a.DemonstratedCrosswindMS+1e-9:
-		c.reasons = append(c.reasons, reason{kind: reasonDemonstrated, a: c.CrosswindMS, b: a.DemonstratedCrosswindMS})
-	}
-	if (a.MaxTempK > 0 && k.TempK > a.MaxTempK+1e-9) || (a.MinTempK > 0 && k.TempK < a.MinTempK-1e-9) {
-		c.worsen(BeyondLimits, reason{kind: reasonTemperature, a: k.TempK, b: a.MinTempK, c: a.MaxTempK})
-	}
+	c.limits(a, along, k.TempK)
 	if !(k.End.LDAM > 0) {
 		c.worsen(NoData, reason{s: fmt.Sprintf("no LDA declared for runway end %s: no landing figure", k.End.Designator)})
 		return

@@ -632,6 +632,26 @@ func (d *decoder) calibrationPoints(m *mapping, path string, k tableKind) []cali
 	return out
 }
 
+// pointsUpTo returns the calibration points cps as perf points, each checked not to
+// be heavier than mass (named massName in the error), and whether one anchors the fit
+// (at that mass, paved and dry: perf.IsAnchor). The takeoff and landing fits alike.
+func (d *decoder) pointsUpTo(cps []calibPoint, mass float64, massName string) ([]perf.CalibrationPoint, bool) {
+	anchored := false
+	pts := make([]perf.CalibrationPoint, len(cps))
+	for i, cp := range cps {
+		pts[i] = cp.p
+		anchored = anchored || perf.IsAnchor(cp.p, mass)
+		if cp.p.Conditions.MassKg > mass+1e-9 {
+			at, fld := cp.grAt, cp.grFld
+			if at == nil {
+				at, fld = cp.toAt, cp.toFld
+			}
+			d.errorf(at, fld, "the point's weight %.0f kg is above %s %.0f kg", cp.p.Conditions.MassKg, massName, mass)
+		}
+	}
+	return pts, anchored
+}
+
 // fitPhysics fits a's physics to its calibration points and, when it has both, to
 // every cell of its table (perf.Calibrate). A refused fit is an error at each figure
 // too far off and at the physics section for a parameter on a bound; a profile with
@@ -649,19 +669,7 @@ func (d *decoder) fitPhysics(a *perf.Aircraft, physNode *yaml.Node, mtowNode *ya
 		d.errorf(physNode, "physics", "%d points to fit (calibration points and table cells), at most %d", len(d.calib), perf.MaxCalibrationPoints)
 		return
 	}
-	anchored := false
-	pts := make([]perf.CalibrationPoint, len(d.calib))
-	for i, cp := range d.calib {
-		pts[i] = cp.p
-		anchored = anchored || perf.IsAnchor(cp.p, a.MTOWKg)
-		if cp.p.Conditions.MassKg > a.MTOWKg+1e-9 {
-			at, fld := cp.grAt, cp.grFld
-			if at == nil {
-				at, fld = cp.toAt, cp.toFld
-			}
-			d.errorf(at, fld, "the point's weight %.0f kg is above the MTOW %.0f kg", cp.p.Conditions.MassKg, a.MTOWKg)
-		}
-	}
+	pts, anchored := d.pointsUpTo(d.calib, a.MTOWKg, "the MTOW")
 	if len(d.errs) > 0 {
 		return
 	}

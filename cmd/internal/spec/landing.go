@@ -153,19 +153,7 @@ func (d *decoder) fitLanding(a *perf.Aircraft, landingNode *yaml.Node) {
 		d.errorf(physNode, "landing.physics", "%d points to fit (calibration points and table cells), at most %d", len(d.landingCalib), perf.MaxCalibrationPoints)
 		return
 	}
-	anchored := false
-	pts := make([]perf.CalibrationPoint, len(d.landingCalib))
-	for i, cp := range d.landingCalib {
-		pts[i] = cp.p
-		anchored = anchored || perf.IsAnchor(cp.p, l.MaxMassKg)
-		if cp.p.Conditions.MassKg > l.MaxMassKg+1e-9 {
-			at, fld := cp.grAt, cp.grFld
-			if at == nil {
-				at, fld = cp.toAt, cp.toFld
-			}
-			d.errorf(at, fld, "the point's weight %.0f kg is above the maximum landing mass %.0f kg", cp.p.Conditions.MassKg, l.MaxMassKg)
-		}
-	}
+	pts, anchored := d.pointsUpTo(d.landingCalib, l.MaxMassKg, "the maximum landing mass")
 	if len(d.errs) > 0 {
 		return
 	}
