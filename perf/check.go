@@ -185,6 +185,13 @@ func Ask(a *Aircraft, m Model, p Policy, f Airfield, q Question) (Answer, error)
 		}
 		ans.Ends = append(ans.Ends, ea)
 	}
+	ans.rank()
+	return ans, nil
+}
+
+// rank orders the runway ends best first: by state (go first), then by required over
+// available distance, then by designator. Takeoff and landing answers alike.
+func (ans *Answer) rank() {
 	sort.SliceStable(ans.Ends, func(i, j int) bool {
 		a, b := ans.Ends[i].Cell, ans.Ends[j].Cell
 		if a.State != b.State {
@@ -198,5 +205,4 @@ func Ask(a *Aircraft, m Model, p Policy, f Airfield, q Question) (Answer, error)
 		}
 		return ans.Ends[i].End.Designator < ans.Ends[j].End.Designator
 	})
-	return ans, nil
 }

@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"sort"
 )
 
 // LandingCase is one landing question: this aircraft, this runway end, these
@@ -221,18 +220,6 @@ func AskLanding(a *Aircraft, m LandingModel, p Policy, f Airfield, q Question) (
 		})
 		ans.Ends = append(ans.Ends, ea)
 	}
-	sort.SliceStable(ans.Ends, func(i, j int) bool {
-		a, b := ans.Ends[i].Cell, ans.Ends[j].Cell
-		if a.State != b.State {
-			return a.State < b.State
-		}
-		if a.HasDistance && b.HasDistance {
-			ra, rb := a.RequiredM/a.AvailableM, b.RequiredM/b.AvailableM
-			if ra != rb {
-				return ra < rb
-			}
-		}
-		return ans.Ends[i].End.Designator < ans.Ends[j].End.Designator
-	})
+	ans.rank()
 	return ans, nil
 }
