@@ -68,16 +68,17 @@ type CheckRun struct {
 	Caution         string            `json:"caution"`
 }
 
-// CheckEnd is the JSON form of one runway end's answer.
-type CheckEnd struct {
-	Rank       int     `json:"rank"`
-	Designator string  `json:"designator"`
-	HeadingDeg float64 `json:"heading_deg"`
-	Surface    string  `json:"surface"`
-	Condition  string  `json:"condition"`
-	SlopePct   float64 `json:"slope_pct"`
-	// The atmosphere of this end: elevation used (the highest of the aerodrome
-	// elevation and the runway's thresholds) and the altitudes it gives.
+// EndHead is what the takeoff and the landing answers of a runway end both give
+// first: its rank and identity, and the atmosphere and wind at this end. The
+// elevation used is the highest of the aerodrome elevation and the runway's
+// thresholds.
+type EndHead struct {
+	Rank               int     `json:"rank"`
+	Designator         string  `json:"designator"`
+	HeadingDeg         float64 `json:"heading_deg"`
+	Surface            string  `json:"surface"`
+	Condition          string  `json:"condition"`
+	SlopePct           float64 `json:"slope_pct"`
 	ElevationUsedFt    float64 `json:"elevation_used_ft"`
 	PressureAltitudeFt float64 `json:"pressure_altitude_ft"`
 	DensityAltitudeFt  float64 `json:"density_altitude_ft"`
@@ -87,6 +88,25 @@ type CheckEnd struct {
 	CrosswindKt        float64 `json:"crosswind_kt"`
 	GustCrosswindKt    float64 `json:"gust_crosswind_kt"`
 	CreditedWindKt     float64 `json:"credited_headwind_kt"`
+}
+
+func endHead(i int, ea perf.EndAnswer) EndHead {
+	return EndHead{
+		Rank: i + 1, Designator: ea.End.Designator, HeadingDeg: ea.End.HeadingDeg,
+		Surface: string(ea.End.Surface), Condition: string(ea.End.Condition), SlopePct: math.Round(ea.End.SlopePct*100) / 100,
+		ElevationUsedFt:    math.Round(units.Feet(ea.ElevationM)),
+		PressureAltitudeFt: math.Round(units.Feet(ea.PressureAltM)),
+		DensityAltitudeFt:  math.Round(units.Feet(ea.DensityAltM)),
+		HeadwindKt:         round1(units.Knots(ea.Wind.HeadwindMS)), GustHeadwindKt: round1(units.Knots(ea.Wind.GustHeadwindMS)),
+		DistanceWindKt: round1(units.Knots(ea.Wind.ForDistanceMS())),
+		CrosswindKt:    round1(units.Knots(ea.Wind.CrosswindMS)), GustCrosswindKt: round1(units.Knots(ea.Wind.GustCrosswindMS)),
+		CreditedWindKt: round1(units.Knots(ea.Cell.CreditedWindMS)),
+	}
+}
+
+// CheckEnd is the JSON form of one runway end's answer.
+type CheckEnd struct {
+	EndHead
 	Distances
 	AccelerateCheckM *float64 `json:"accelerate_check_m"`
 	TORAM            float64  `json:"tora_m"`
@@ -146,16 +166,8 @@ func BuildCheck(in CheckInput, ans perf.Answer) CheckRun {
 	for i, ea := range ans.Ends {
 		c := ea.Cell
 		e := CheckEnd{
-			Rank: i + 1, Designator: ea.End.Designator, HeadingDeg: ea.End.HeadingDeg,
-			Surface: string(ea.End.Surface), Condition: string(ea.End.Condition), SlopePct: math.Round(ea.End.SlopePct*100) / 100,
-			ElevationUsedFt:    math.Round(units.Feet(ea.ElevationM)),
-			PressureAltitudeFt: math.Round(units.Feet(ea.PressureAltM)),
-			DensityAltitudeFt:  math.Round(units.Feet(ea.DensityAltM)),
-			HeadwindKt:         round1(units.Knots(ea.Wind.HeadwindMS)), GustHeadwindKt: round1(units.Knots(ea.Wind.GustHeadwindMS)),
-			DistanceWindKt: round1(units.Knots(ea.Wind.ForDistanceMS())),
-			CrosswindKt:    round1(units.Knots(ea.Wind.CrosswindMS)), GustCrosswindKt: round1(units.Knots(ea.Wind.GustCrosswindMS)),
-			CreditedWindKt: round1(units.Knots(c.CreditedWindMS)),
-			TORAM:          ea.End.TORAM, TODAM: ea.End.TODAM, ASDAM: ea.End.ASDAM,
+			EndHead: endHead(i, ea),
+			TORAM:   ea.End.TORAM, TODAM: ea.End.TODAM, ASDAM: ea.End.ASDAM,
 			Status: c.State.String(), Reasons: c.Reasons(), Factors: []string{}, PolicyNotes: []string{},
 		}
 		if e.Reasons == nil {

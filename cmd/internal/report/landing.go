@@ -5,27 +5,12 @@ import (
 	"math"
 	"strings"
 
-	"kneeprint/cmd/internal/units"
 	"kneeprint/perf"
 )
 
 // CheckLandingEnd is the JSON form of one runway end's landing answer (check).
 type CheckLandingEnd struct {
-	Rank               int     `json:"rank"`
-	Designator         string  `json:"designator"`
-	HeadingDeg         float64 `json:"heading_deg"`
-	Surface            string  `json:"surface"`
-	Condition          string  `json:"condition"`
-	SlopePct           float64 `json:"slope_pct"`
-	ElevationUsedFt    float64 `json:"elevation_used_ft"`
-	PressureAltitudeFt float64 `json:"pressure_altitude_ft"`
-	DensityAltitudeFt  float64 `json:"density_altitude_ft"`
-	HeadwindKt         float64 `json:"headwind_kt"`
-	GustHeadwindKt     float64 `json:"gust_headwind_kt"`
-	DistanceWindKt     float64 `json:"headwind_for_distance_kt"`
-	CrosswindKt        float64 `json:"crosswind_kt"`
-	GustCrosswindKt    float64 `json:"gust_crosswind_kt"`
-	CreditedWindKt     float64 `json:"credited_headwind_kt"`
+	EndHead
 	// GroundRollM and LandingDistanceM are the model's unfactored figures: touchdown
 	// to a stop, and 50 ft over the threshold to a stop; RequiredM the factored
 	// landing distance times the rule's factor; AvailableM the LDA as printed.
@@ -47,16 +32,8 @@ func BuildLanding(ans perf.Answer) []CheckLandingEnd {
 	for i, ea := range ans.Ends {
 		c := ea.Cell
 		e := CheckLandingEnd{
-			Rank: i + 1, Designator: ea.End.Designator, HeadingDeg: ea.End.HeadingDeg,
-			Surface: string(ea.End.Surface), Condition: string(ea.End.Condition), SlopePct: math.Round(ea.End.SlopePct*100) / 100,
-			ElevationUsedFt:    math.Round(units.Feet(ea.ElevationM)),
-			PressureAltitudeFt: math.Round(units.Feet(ea.PressureAltM)),
-			DensityAltitudeFt:  math.Round(units.Feet(ea.DensityAltM)),
-			HeadwindKt:         round1(units.Knots(ea.Wind.HeadwindMS)), GustHeadwindKt: round1(units.Knots(ea.Wind.GustHeadwindMS)),
-			DistanceWindKt: round1(units.Knots(ea.Wind.ForDistanceMS())),
-			CrosswindKt:    round1(units.Knots(ea.Wind.CrosswindMS)), GustCrosswindKt: round1(units.Knots(ea.Wind.GustCrosswindMS)),
-			CreditedWindKt: round1(units.Knots(c.CreditedWindMS)),
-			Status:         c.State.String(), Reasons: c.Reasons(), Factors: []string{},
+			EndHead: endHead(i, ea),
+			Status:  c.State.String(), Reasons: c.Reasons(), Factors: []string{},
 		}
 		if e.Reasons == nil {
 			e.Reasons = []string{}
